@@ -1,0 +1,250 @@
+// Reads CSV and TSV tables into tiers: roles found by header name or by a column map, times in
+// seconds, milliseconds, frames, clock time or timecode.
+#include <algorithm>
+#include <array>
+#include <charconv>
+#include <unordered_map>
+
+#include "csv_format.hpp"
+#include "table_scanner.hpp"
+#include "tiers/detail/report.hpp"
+
+namespace tiers::detail {
+namespace {
+
+enum role : std::size_t {
+  r_tier,
+  r_start,
+  r_end,
+  r_duration,
+  r_text,
+  r_markup,
+  r_confidence,
+  r_id,
+  r_parent,
+  role_count
+};
+constexpr std::array<std::string_view, role_count> role_names{
+    "tier", "start", "end", "duration", "text", "markup", "confidence", "id", "parent"};
+constexpr std::size_t absent = static_cast<std::size_t>(-1);
+
+std::string_view trim(std::string_view s) {
+  while (!s.empty() && (s.front() == ' ' || s.front() == '\t'))
+    s.remove_prefix(1);
+  while (!s.empty() && (s.back() == ' ' || s.back() == '\t'))
+    s.remove_suffix(1);
+  return s;
+}
+
+parsed_time parse_time_cell(std::string_view text, const read_options& options) {
+  text = trim(text);
+  const std::size_t colons = static_cast<std::size_t>(std::count(text.begin(), text.end(), ':'));
+  if (text.find(';') != std::string_view::npos || colons == 3)
+    return parse_timecode(text, options.rate);
+  if (colons > 0) return parse_clock(text);
+  switch (options.unit) {
+    case time_unit::milliseconds:
+      return parse_milliseconds(text);
+    case time_unit::frames:
+      return parse_frames(text, options.rate);
+    case time_unit::seconds:
+      break;
+  }
+  return parse_seconds(text);
+}
+
+class table_reader {
+ public:
+  table_reader(std::string_view input, char delimiter, const read_options& options,
+               read_result& out)
+      : scanner_(input, delimiter, input.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0),
+        options_(options),
+        out_(out) {}
+
+  void run() {
+    std::size_t offset = 0;
+    if (!scanner_.next(cells_, offset)) {
+      if (scanner_.failed()) return fail(scanner_.problem);
+      return fail(make_diagnostic(severity::error, "csv.header", 0,
+                                  "the file is empty; a table needs a header row"));
+    }
+    if (!read_header()) return;
+    while (scanner_.next(cells_, offset))
+      if (!read_row(offset)) return;
+    if (scanner_.failed()) fail(scanner_.problem);
+  }
+
+ private:
+  void fail(diagnostic d) { out_.diagnostics.push_back(std::move(d)); }
+  bool fail_at(std::string code, std::size_t offset, std::string message) {
+    fail(make_diagnostic(severity::error, std::move(code), offset, std::move(message)));
+    return false;
+  }
+
+  bool read_header() {
+    header_.clear();
+    for (const table_cell& c : cells_) {
+      for (std::size_t k = 0; k < header_.size(); ++k)
+        if (header_[k] == c.text)
+          return fail_at("csv.header", c.offset, "column " + quote_name(c.text) + " appears twice");
+      header_.emplace_back(c.text);
+    }
+    columns_.fill(absent);
+    std::array<std::string_view, role_count> wanted = role_names;
+    std::array<bool, role_count> mapped{};
+    for (const auto& [role_name, column] : options_.columns)
+      for (std::size_t r = 0; r < role_count; ++r)
+        if (role_names[r] == role_name) {
+          wanted[r] = column;
+          mapped[r] = true;
+        }
+    for (std::size_t r = 0; r < role_count; ++r) {
+      for (std::size_t k = 0; k < header_.size(); ++k)
+        if (header_[k] == wanted[r]) columns_[r] = k;
+      if (mapped[r] && columns_[r] == absent)
+        return fail_at("csv.header", 0,
+                       "no column " + quote_name(wanted[r]) + " for role " +
+                           quote_name(role_names[r]) + "; the header has " + header_list());
+    }
+    if (columns_[r_start] == absent)
+      return fail_at("csv.header", 0,
+                     "no 'start' column; the header has " + header_list() +
+                         " (map other names with --columns start=NAME,...)");
+    if (columns_[r_end] != absent && columns_[r_duration] != absent)
+      return fail_at("csv.header", cells_[columns_[r_duration]].offset,
+                     "both 'end' and 'duration' columns: keep one");
+    kind_ = columns_[r_end] == absent && columns_[r_duration] == absent ? tier_kind::point
+                                                                        : tier_kind::interval;
+    attribute_columns_.clear();
+    for (std::size_t k = 0; k < header_.size(); ++k)
+      if (std::find(columns_.begin(), columns_.end(), k) == columns_.end())
+        attribute_columns_.push_back(k);
+    return true;
+  }
+
+  std::string header_list() const {
+    std::string s;
+    for (std::size_t k = 0; k < header_.size(); ++k)
+      s += (k ? ", " : "") + quote_name(header_[k]);
+    return s;
+  }
+
+  tier& tier_for(std::string_view name) {
+    if (last_tier_ != absent && out_.doc.tiers[last_tier_].name == name)
+      return out_.doc.tiers[last_tier_];
+    auto it = tier_index_.find(std::string(name));
+    if (it == tier_index_.end()) {
+      it = tier_index_.emplace(std::string(name), out_.doc.tiers.size()).first;
+      tier& t = out_.doc.tiers.emplace_back();
+      t.name = name;
+      t.kind = kind_;
+    }
+    last_tier_ = it->second;
+    return out_.doc.tiers[last_tier_];
+  }
+
+  bool time_cell(std::size_t role, time_ns& value) {
+    const table_cell& c = cells_[columns_[role]];
+    const parsed_time t = parse_time_cell(c.text, options_);
+    if (!t) {
+      if (trim(c.text).empty())
+        return fail_at("csv.time", c.offset, "empty " + std::string(role_names[role]) + " time");
+      return fail_at("csv.time", c.offset,
+                     std::string(role_names[role]) + " " + quote_name(c.text) + " " +
+                         std::string(describe(t.status)));
+    }
+    value = t.value;
+    return true;
+  }
+
+  // An optional text cell: empty means absent.
+  const table_cell* optional_cell(std::size_t role) const {
+    if (columns_[role] == absent || cells_[columns_[role]].text.empty()) return nullptr;
+    return &cells_[columns_[role]];
+  }
+
+  bool read_row(std::size_t offset) {
+    if (cells_.size() != header_.size())
+      return fail_at("csv.fields", offset,
+                     "row has " + std::to_string(cells_.size()) + " fields; the header has " +
+                         std::to_string(header_.size()));
+    const std::string_view name = columns_[r_tier] == absent ? std::string_view(options_.tier_name)
+                                                             : cells_[columns_[r_tier]].text;
+    annotation a;
+    if (!time_cell(r_start, a.start)) return false;
+    a.end = a.start;
+    if (columns_[r_end] != absent && !time_cell(r_end, a.end)) return false;
+    if (columns_[r_duration] != absent) {
+      time_ns d = 0;
+      if (!time_cell(r_duration, d)) return false;
+      if (__builtin_add_overflow(a.start, d, &a.end))
+        return fail_at("csv.time", cells_[columns_[r_duration]].offset,
+                       "start + duration is out of range");
+    }
+    if (columns_[r_text] != absent) a.text = cells_[columns_[r_text]].text;
+    if (auto c = optional_cell(r_markup)) a.markup = std::string(c->text);
+    if (auto c = optional_cell(r_id)) a.id = std::string(c->text);
+    if (auto c = optional_cell(r_parent)) a.parent = std::string(c->text);
+    if (auto c = optional_cell(r_confidence)) {
+      const std::string_view v = trim(c->text);
+      double conf = 0;
+      auto [p, ec] = std::from_chars(v.data(), v.data() + v.size(), conf);
+      if (ec != std::errc{} || p != v.data() + v.size() || !(conf >= 0.0 && conf <= 1.0))
+        return fail_at("csv.confidence", c->offset,
+                       "confidence " + quote_name(c->text) + " is not a number from 0 to 1");
+      a.confidence = conf;
+    }
+    for (std::size_t k : attribute_columns_)
+      if (!cells_[k].text.empty()) a.attributes.emplace(header_[k], cells_[k].text);
+    tier_for(name).annotations.push_back(std::move(a));
+    return true;
+  }
+
+  table_scanner scanner_;
+  const read_options& options_;
+  read_result& out_;
+  std::vector<table_cell> cells_;
+  std::vector<std::string> header_;
+  std::array<std::size_t, role_count> columns_{};
+  std::vector<std::size_t> attribute_columns_;
+  tier_kind kind_ = tier_kind::interval;
+  std::unordered_map<std::string, std::size_t> tier_index_;
+  std::size_t last_tier_ = absent;
+};
+
+read_result read_table(std::string_view input, char delimiter, const read_options& options) {
+  read_result out;
+  table_reader(input, delimiter, options, out).run();
+  return out;
+}
+
+// 2 when the first line names a start column, 1 when it at least has the delimiter.
+int sniff_table(std::string_view head, char delimiter) {
+  if (head.substr(0, 3) == "\xEF\xBB\xBF") head.remove_prefix(3);
+  const std::string_view line = head.substr(0, head.find_first_of("\r\n"));
+  if (line.find(delimiter) == std::string_view::npos) return 0;
+  table_scanner scanner(line, delimiter);
+  std::vector<table_cell> cells;
+  std::size_t offset = 0;
+  if (!scanner.next(cells, offset)) return 0;
+  for (const table_cell& c : cells)
+    if (c.text == "start") return 2;
+  return 1;
+}
+
+}  // namespace
+
+read_result read_csv(std::string_view input, const read_options& options) {
+  return read_table(input, ',', options);
+}
+read_result read_tsv(std::string_view input, const read_options& options) {
+  return read_table(input, '\t', options);
+}
+int sniff_csv(std::string_view head) {
+  return sniff_table(head, ',');
+}
+int sniff_tsv(std::string_view head) {
+  return sniff_table(head, '\t');
+}
+
+}  // namespace tiers::detail

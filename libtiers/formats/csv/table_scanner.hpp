@@ -1,0 +1,41 @@
+// Splits delimited text into records and fields (RFC 4180 quoting), with byte offsets.
+#pragma once
+
+#include <cstddef>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "tiers/diagnostic.hpp"
+
+namespace tiers::detail {
+
+struct table_cell {
+  std::string_view text;   ///< unquoted content; valid until the next call to `next`
+  std::size_t offset = 0;  ///< of the cell's first byte (its opening quote, if quoted)
+  std::string unescaped;   ///< backing store when the cell had doubled quotes
+  bool owned = false;      ///< text lives in `unescaped`
+};
+
+/// Reads one record at a time. Quoted fields may hold delimiters, quotes (doubled) and line
+/// breaks; CRLF, LF and CR end records; empty lines are skipped. A quote inside an unquoted
+/// field is kept as it is, as most spreadsheet programs do.
+class table_scanner {
+ public:
+  table_scanner(std::string_view input, char delimiter, std::size_t start = 0)
+      : in_(input), delim_(delimiter), pos_(start) {}
+
+  /// Fills `cells` (resized to the record's field count) and returns true, or returns false at
+  /// the end of input or on an error, which is then in `problem`.
+  bool next(std::vector<table_cell>& cells, std::size_t& record_offset);
+  bool failed() const { return !problem.message.empty(); }
+
+  diagnostic problem;
+
+ private:
+  std::string_view in_;
+  char delim_;
+  std::size_t pos_;
+};
+
+}  // namespace tiers::detail

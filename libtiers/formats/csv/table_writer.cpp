@@ -1,0 +1,133 @@
+// Writes CSV and TSV: one row per annotation, optional columns only when some annotation has
+// a value for them, and what a table cannot hold reported by table_losses.
+#include <algorithm>
+#include <set>
+
+#include "csv_format.hpp"
+#include "tiers/detail/json_text.hpp"
+#include "tiers/detail/report.hpp"
+
+namespace tiers::detail {
+namespace {
+
+constexpr std::string_view column_names[] = {"tier",   "start",      "end", "duration", "text",
+                                             "markup", "confidence", "id",  "parent"};
+
+bool is_column_name(std::string_view key) {
+  return std::find(std::begin(column_names), std::end(column_names), key) != std::end(column_names);
+}
+
+void write_field(byte_sink& out, std::string_view s, char delimiter) {
+  const bool needs_quotes =
+      s.find_first_of(delimiter == ',' ? std::string_view(",\"\r\n")
+                                       : std::string_view("\t\"\r\n")) != std::string_view::npos;
+  if (!needs_quotes) return out.write(s);
+  out.put('"');
+  std::size_t run = 0;
+  for (std::size_t q = s.find('"'); q != std::string_view::npos; q = s.find('"', q + 1)) {
+    out.write(s.substr(run, q + 1 - run));
+    out.put('"');
+    run = q + 1;
+  }
+  out.write(s.substr(run));
+  out.put('"');
+}
+
+void write_table(const document& doc, byte_sink& out, char delimiter, std::string_view eol) {
+  bool any_markup = false, any_confidence = false, any_id = false, any_parent = false;
+  std::set<std::string, std::less<>> keys;
+  for (const tier& t : doc.tiers)
+    for (const annotation& a : t.annotations) {
+      any_markup |= a.markup.has_value();
+      any_confidence |= a.confidence.has_value();
+      any_id |= a.id.has_value();
+      any_parent |= a.parent.has_value();
+      for (const auto& kv : a.attributes)
+        if (!is_column_name(kv.first)) keys.insert(kv.first);
+    }
+  const char sep[2] = {delimiter, '\0'};
+  out.write("tier");
+  for (std::string_view c : {"start", "end", "text"}) {
+    out.put(delimiter);
+    out.write(c);
+  }
+  if (any_confidence) out.write(std::string(sep) + "confidence");
+  if (any_id) out.write(std::string(sep) + "id");
+  if (any_parent) out.write(std::string(sep) + "parent");
+  if (any_markup) out.write(std::string(sep) + "markup");
+  for (const std::string& k : keys) {
+    out.put(delimiter);
+    write_field(out, k, delimiter);
+  }
+  out.write(eol);
+  auto optional = [&](const std::optional<std::string>& v) {
+    out.put(delimiter);
+    if (v) write_field(out, *v, delimiter);
+  };
+  for (const tier& t : doc.tiers)
+    for (const annotation& a : t.annotations) {
+      write_field(out, t.name, delimiter);
+      out.put(delimiter);
+      out.write(format_seconds(a.start));
+      out.put(delimiter);
+      out.write(format_seconds(a.end));
+      out.put(delimiter);
+      write_field(out, a.text, delimiter);
+      if (any_confidence) {
+        out.put(delimiter);
+        if (a.confidence) write_json_double(out, *a.confidence);
+      }
+      if (any_id) optional(a.id);
+      if (any_parent) optional(a.parent);
+      if (any_markup) optional(a.markup);
+      for (const std::string& k : keys) {
+        out.put(delimiter);
+        if (auto it = a.attributes.find(k); it != a.attributes.end())
+          write_field(out, it->second, delimiter);
+      }
+      out.write(eol);
+    }
+}
+
+}  // namespace
+
+// RFC 4180 §2: records end with CRLF.
+void write_csv(const document& doc, byte_sink& out, const write_options&) {
+  write_table(doc, out, ',', "\r\n");
+}
+
+void write_tsv(const document& doc, byte_sink& out, const write_options&) {
+  write_table(doc, out, '\t', "\n");
+}
+
+void table_losses(const document& doc, std::vector<std::string>& losses) {
+  std::set<std::string_view> seen, repeated;
+  for (const tier& t : doc.tiers) {
+    if (!seen.insert(t.name).second) repeated.insert(t.name);
+    std::size_t empty_values = 0, clashing = 0;
+    for (const annotation& a : t.annotations) {
+      auto empty = [](const std::optional<std::string>& v) { return v && v->empty(); };
+      bool has_empty = empty(a.markup) || empty(a.id) || empty(a.parent);
+      bool clash = false;
+      for (const auto& [k, v] : a.attributes) {
+        has_empty |= v.empty();
+        clash |= is_column_name(k);
+      }
+      empty_values += has_empty ? 1 : 0;
+      clashing += clash ? 1 : 0;
+    }
+    if (empty_values > 0)
+      losses.push_back("empty markup, ids or attribute values (read back as absent) of " +
+                       plural(empty_values, "annotation", "annotations") + " in tier " +
+                       quote_name(t.name));
+    if (clashing > 0)
+      losses.push_back("attributes named like a column (tier, start, end, ...) of " +
+                       plural(clashing, "annotation", "annotations") + " in tier " +
+                       quote_name(t.name));
+  }
+  for (std::string_view name : repeated)
+    losses.push_back("the separation of the tiers named " + quote_name(name) +
+                     " (read back as one tier)");
+}
+
+}  // namespace tiers::detail

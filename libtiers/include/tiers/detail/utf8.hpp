@@ -1,0 +1,21 @@
+// UTF-8 validation and encoding, shared by the readers and writers.
+#pragma once
+
+#include <cstddef>
+#include <cstdint>
+#include <string>
+#include <string_view>
+
+namespace tiers::detail {
+
+/// Offset of the first byte that does not start a valid UTF-8 sequence (RFC 3629: no overlong
+/// forms, no surrogates, nothing above U+10FFFF), or npos when the text is valid.
+std::size_t find_invalid_utf8(std::string_view text);
+
+/// When `text` starts like UTF-16 or UTF-32 (a byte order mark, or a NUL in the first two
+/// bytes), the name of that encoding; else empty.
+std::string_view wide_encoding(std::string_view text);
+
+void append_utf8(std::string& out, char32_t cp);
+
+}  // namespace tiers::detail

@@ -1,0 +1,58 @@
+// Diagnostics: located problems found while reading, converting or checking, and the error type.
+#pragma once
+
+#include <cstddef>
+#include <cstdint>
+#include <stdexcept>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace tiers {
+
+enum class severity : std::uint8_t { note, warning, error };
+
+std::string_view to_string(severity level);
+
+/// Marks an unknown byte offset.
+inline constexpr std::size_t no_offset = static_cast<std::size_t>(-1);
+
+/// One problem, as a value. Readers fill in `code`, `message` and `offset`; line and column are
+/// computed once, from the offset, by `locate_all` (at the edge, not while parsing).
+struct diagnostic {
+  severity level = severity::error;
+  std::string code;                ///< stable rule id, e.g. `csv.quote`
+  std::string message;             ///< short, lower case, no trailing full stop
+  std::string file;                ///< as the user named it; empty when unknown
+  std::size_t offset = no_offset;  ///< byte offset into the input
+  std::size_t line = 0;            ///< 1-based; 0 when unknown
+  std::size_t column = 0;          ///< 1-based, in code points; 0 when unknown
+};
+
+/// `FILE:LINE:COLUMN: error: MESSAGE [code]`, leaving out the parts that are unknown.
+std::string format_diagnostic(const diagnostic& d);
+
+/// Line and column (both 1-based, columns in code points) of a byte offset. LF, CR and CRLF
+/// each end a line.
+struct text_position {
+  std::size_t line = 1;
+  std::size_t column = 1;
+};
+text_position locate(std::string_view text, std::size_t offset);
+
+/// Fills in line and column of every diagnostic that has an offset, in one pass over `text`.
+void locate_all(std::string_view text, std::vector<diagnostic>& diagnostics);
+
+bool has_errors(const std::vector<diagnostic>& diagnostics);
+
+/// The one exception type of libtiers, carrying a diagnostic (I/O failures, bad arguments).
+class error : public std::runtime_error {
+ public:
+  explicit error(diagnostic d);
+  const diagnostic& diag() const { return diag_; }
+
+ private:
+  diagnostic diag_;
+};
+
+}  // namespace tiers

@@ -1,0 +1,126 @@
+// The format registry: what each format is called, how it is recognised, what it can carry,
+// and reading and writing documents through it.
+#pragma once
+
+#include <cstdint>
+#include <initializer_list>
+#include <optional>
+#include <span>
+#include <string>
+#include <string_view>
+#include <utility>
+#include <vector>
+
+#include "tiers/diagnostic.hpp"
+#include "tiers/model.hpp"
+#include "tiers/sink.hpp"
+
+namespace tiers {
+
+/// The parts of the model a format may or may not be able to carry. The list is the vocabulary
+/// of loss reports: see `find_losses`.
+enum class feature : std::uint8_t {
+  several_tiers,          ///< more than one tier in a file
+  empty_tiers,            ///< tiers without annotations
+  point_tiers,            ///< the point kind, as distinct from zero-length intervals
+  tier_sources,           ///< human/machine, agent, version
+  tier_parents,           ///< parent tier and relation
+  vocabularies,           ///< allowed labels
+  tier_attributes,        ///< name/value pairs on a tier
+  markup,                 ///< the original formatted text
+  confidence,             ///< per-annotation confidence
+  ids,                    ///< per-annotation identifiers
+  parent_refs,            ///< an annotation's parent annotation id
+  annotation_attributes,  ///< name/value pairs on an annotation
+  media,                  ///< media uri, duration, frame rate
+  metadata,               ///< document metadata
+};
+inline constexpr int feature_count = 14;
+
+std::string_view to_string(feature f);
+
+/// A set of features.
+class feature_set {
+ public:
+  constexpr feature_set() = default;
+  constexpr feature_set(std::initializer_list<feature> fs) {
+    for (feature f : fs)
+      bits_ |= bit(f);
+  }
+  static constexpr feature_set all() {
+    feature_set s;
+    s.bits_ = (1u << feature_count) - 1;
+    return s;
+  }
+  constexpr bool has(feature f) const { return (bits_ & bit(f)) != 0; }
+
+ private:
+  static constexpr std::uint32_t bit(feature f) { return 1u << static_cast<unsigned>(f); }
+  std::uint32_t bits_ = 0;
+};
+
+/// How time cells of tabular input are written when they are plain numbers. Cells with colons
+/// are always clock time (`hh:mm:ss.fff`) or timecode (`hh:mm:ss:ff`, `hh:mm:ss;ff`).
+enum class time_unit : std::uint8_t { seconds, milliseconds, frames };
+
+/// The columns of a table, by role. Roles: tier, start, end, duration, text, markup,
+/// confidence, id, parent. A role not named here is looked for under its own name; every other
+/// column becomes an annotation attribute.
+using column_map = std::vector<std::pair<std::string, std::string>>;
+
+/// Parses `tier=Layer,start=Begin,end=End`. Returns nothing and sets `problem` on bad input.
+std::optional<column_map> parse_column_map(std::string_view text, std::string& problem);
+
+/// Options for reading. Formats ignore what does not apply to them.
+struct read_options {
+  std::string tier_name = "tier";  ///< tables without a tier column: the tier's name
+  column_map columns;              ///< tables: where each role is found
+  time_unit unit = time_unit::seconds;
+  std::optional<rational> rate;  ///< frames and timecode: frames per second
+};
+
+/// Options for writing; the writer drops what the format cannot carry.
+struct write_options {};
+
+/// What reading produced: the document and every diagnostic, located by byte offset.
+/// When `diagnostics` holds an error, `doc` is incomplete and must not be used.
+struct read_result {
+  document doc;
+  std::vector<diagnostic> diagnostics;
+  bool ok() const { return !has_errors(diagnostics); }
+};
+
+/// One registered format. Everything is plain data and function pointers, listed in one table.
+struct format {
+  std::string_view name;                         ///< as in --from/--to
+  std::string_view title;                        ///< one line for people
+  std::span<const std::string_view> extensions;  ///< with the dot, lower case
+  feature_set carries;
+  /// How sure it is that `head` (the first few KiB) is this format: 0 no, 1 maybe, 2 yes.
+  int (*sniff)(std::string_view head);
+  /// Reads the whole input. Throws nothing; problems go into the result.
+  read_result (*read)(std::string_view input, const read_options& options);
+  /// Writes the parts of `doc` the format carries. Throws tiers::error when the sink fails.
+  void (*write)(const document& doc, byte_sink& out, const write_options& options);
+  /// Losses beyond the feature list (e.g. values a table cannot tell from empty); may be null.
+  void (*extra_losses)(const document& doc, std::vector<std::string>& losses);
+};
+
+/// Every format, in a fixed order.
+std::span<const format> formats();
+const format* find_format(std::string_view name);
+/// The format whose extension `path` ends with (case-insensitively), or null.
+const format* format_for_path(std::string_view path);
+/// The formats whose sniffers recognise `head`, surest first.
+std::vector<const format*> sniff_formats(std::string_view head);
+
+/// Reads `input` as `fmt`: checks that it is UTF-8, runs the reader and locates every
+/// diagnostic (line, column, and `file` set to `file_name`).
+read_result read_document(std::string_view input, const format& fmt, const read_options& options,
+                          std::string_view file_name = {});
+
+/// Everything in `doc` that `fmt` cannot carry, one line each (e.g. "confidence of 812
+/// annotations in tier 'words'"). Empty when writing loses nothing.
+std::vector<std::string> find_losses(const document& doc, const format& fmt);
+
+}  // namespace tiers

@@ -1,0 +1,41 @@
+// Reading input files and writing output files atomically.
+#pragma once
+
+#include <string>
+#include <string_view>
+
+#include "tiers/sink.hpp"
+
+namespace tiers {
+
+/// The whole content of `path`; `-` reads standard input. Throws tiers::error.
+std::string read_input(const std::string& path);
+
+/// Writes a file atomically: bytes go to a temporary file beside the target, which replaces the
+/// target only on `commit`. Destroyed without `commit`, it removes the temporary file, so a
+/// failed run never leaves a partial output and never touches an existing one.
+class atomic_file final : public byte_sink {
+ public:
+  explicit atomic_file(std::string path);  ///< throws tiers::error
+  ~atomic_file() override;
+  void commit();  ///< flushes, syncs and renames; throws tiers::error
+
+ protected:
+  void emit(const char* data, std::size_t size) override;
+
+ private:
+  std::string path_;
+  std::string temp_path_;
+  int fd_ = -1;
+};
+
+/// Writes to standard output.
+class stdout_sink final : public byte_sink {
+ public:
+  ~stdout_sink() override;
+
+ protected:
+  void emit(const char* data, std::size_t size) override;
+};
+
+}  // namespace tiers

@@ -1,0 +1,11 @@
+// Everything public in libtiers, in one include.
+#pragma once
+
+#include "tiers/diagnostic.hpp"
+#include "tiers/format.hpp"
+#include "tiers/info.hpp"
+#include "tiers/io.hpp"
+#include "tiers/model.hpp"
+#include "tiers/sink.hpp"
+#include "tiers/time.hpp"
+#include "tiers/version.hpp"

@@ -1,0 +1,91 @@
+// Formatting and locating diagnostics.
+#include "tiers/diagnostic.hpp"
+
+#include <algorithm>
+#include <numeric>
+
+namespace tiers {
+
+std::string_view to_string(severity level) {
+  switch (level) {
+    case severity::note:
+      return "note";
+    case severity::warning:
+      return "warning";
+    case severity::error:
+      return "error";
+  }
+  return "error";
+}
+
+std::string format_diagnostic(const diagnostic& d) {
+  std::string s;
+  if (!d.file.empty()) {
+    s += d.file;
+    if (d.line > 0) {
+      s += ':' + std::to_string(d.line);
+      if (d.column > 0) s += ':' + std::to_string(d.column);
+    }
+    s += ": ";
+  }
+  s += to_string(d.level);
+  s += ": ";
+  s += d.message;
+  if (!d.code.empty()) s += " [" + d.code + "]";
+  return s;
+}
+
+namespace {
+
+bool is_continuation(char c) {
+  return (static_cast<unsigned char>(c) & 0xC0) == 0x80;
+}
+
+// Walks `text` from `from` (a line start at `pos`) up to `offset`.
+void advance(std::string_view text, std::size_t& at, text_position& pos, std::size_t offset) {
+  offset = std::min(offset, text.size());
+  for (; at < offset; ++at) {
+    const char c = text[at];
+    if (c == '\n' || (c == '\r' && (at + 1 >= text.size() || text[at + 1] != '\n'))) {
+      ++pos.line;
+      pos.column = 1;
+    } else if (c != '\r' && !is_continuation(c)) {
+      ++pos.column;
+    }
+  }
+}
+
+}  // namespace
+
+text_position locate(std::string_view text, std::size_t offset) {
+  text_position pos;
+  std::size_t at = 0;
+  advance(text, at, pos, offset);
+  return pos;
+}
+
+void locate_all(std::string_view text, std::vector<diagnostic>& diagnostics) {
+  std::vector<std::size_t> order(diagnostics.size());
+  std::iota(order.begin(), order.end(), std::size_t{0});
+  std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+    return diagnostics[a].offset < diagnostics[b].offset;
+  });
+  text_position pos;
+  std::size_t at = 0;
+  for (std::size_t k : order) {
+    diagnostic& d = diagnostics[k];
+    if (d.offset == no_offset) continue;
+    advance(text, at, pos, d.offset);
+    d.line = pos.line;
+    d.column = pos.column;
+  }
+}
+
+bool has_errors(const std::vector<diagnostic>& diagnostics) {
+  return std::any_of(diagnostics.begin(), diagnostics.end(),
+                     [](const diagnostic& d) { return d.level == severity::error; });
+}
+
+error::error(diagnostic d) : std::runtime_error(format_diagnostic(d)), diag_(std::move(d)) {}
+
+}  // namespace tiers

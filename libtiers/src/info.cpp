@@ -1,0 +1,69 @@
+// Per-tier counts, spans and covered time.
+#include "tiers/info.hpp"
+
+#include <algorithm>
+#include <utility>
+
+namespace tiers {
+namespace {
+
+// Length of the union of intervals; each interval counts from its smaller to its larger time.
+time_ns union_length(const tier& t) {
+  std::vector<std::pair<time_ns, time_ns>> spans;
+  spans.reserve(t.annotations.size());
+  for (const annotation& a : t.annotations)
+    if (a.start != a.end) spans.emplace_back(std::min(a.start, a.end), std::max(a.start, a.end));
+  std::sort(spans.begin(), spans.end());
+  time_ns total = 0;
+  std::optional<std::pair<time_ns, time_ns>> open;
+  for (const auto& s : spans) {
+    if (open && s.first <= open->second) {
+      open->second = std::max(open->second, s.second);
+      continue;
+    }
+    if (open) total += open->second - open->first;
+    open = s;
+  }
+  if (open) total += open->second - open->first;
+  return total;
+}
+
+}  // namespace
+
+document_summary summarize(const document& doc) {
+  document_summary out;
+  out.media = doc.media;
+  for (const tier& t : doc.tiers) {
+    tier_summary s;
+    s.name = t.name;
+    s.kind = t.kind;
+    s.source = t.source;
+    s.annotations = t.annotations.size();
+    for (const annotation& a : t.annotations) {
+      const time_ns lo = std::min(a.start, a.end);
+      const time_ns hi = std::max(a.start, a.end);
+      s.start = s.start ? std::min(*s.start, lo) : lo;
+      s.end = s.end ? std::max(*s.end, hi) : hi;
+    }
+    s.annotated = union_length(t);
+    if (s.start) {
+      out.start = out.start ? std::min(*out.start, *s.start) : *s.start;
+      out.end = out.end ? std::max(*out.end, *s.end) : *s.end;
+    }
+    out.tiers.push_back(std::move(s));
+  }
+  if (doc.media.duration && *doc.media.duration > 0) {
+    out.reference = *doc.media.duration;
+    out.reference_is_media = true;
+  } else if (out.start) {
+    out.reference = *out.end - *out.start;
+  }
+  if (out.reference > 0) {
+    for (tier_summary& s : out.tiers)
+      if (s.kind == tier_kind::interval)
+        s.coverage = static_cast<double>(s.annotated) / static_cast<double>(out.reference);
+  }
+  return out;
+}
+
+}  // namespace tiers

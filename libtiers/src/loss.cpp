@@ -1,0 +1,177 @@
+// What a document would lose in a format: compares the document with the format's features.
+#include <cstddef>
+#include <functional>
+
+#include "tiers/detail/report.hpp"
+#include "tiers/format.hpp"
+
+namespace tiers {
+namespace {
+
+using detail::plural;
+using detail::quote_name;
+
+// "'a', 'b' and 3 more" — tier lists stay readable on wide documents.
+std::string name_list(const std::vector<std::string_view>& names) {
+  constexpr std::size_t shown = 8;
+  std::string s;
+  for (std::size_t k = 0; k < names.size() && k < shown; ++k) {
+    if (k > 0) s += ", ";
+    s += quote_name(names[k]);
+  }
+  if (names.size() > shown) s += " and " + std::to_string(names.size() - shown) + " more";
+  return s;
+}
+
+// One line for every tier in which `count` finds annotations with the feature.
+void per_annotation(const document& doc, std::string_view what,
+                    const std::function<bool(const annotation&)>& has,
+                    std::vector<std::string>& out) {
+  for (const tier& t : doc.tiers) {
+    std::size_t n = 0;
+    for (const annotation& a : t.annotations)
+      n += has(a) ? 1 : 0;
+    if (n > 0)
+      out.push_back(std::string(what) + " of " + plural(n, "annotation", "annotations") +
+                    " in tier " + quote_name(t.name));
+  }
+}
+
+// One line naming every tier for which `has` holds.
+void per_tier(const document& doc, std::string_view what,
+              const std::function<bool(const tier&)>& has, std::vector<std::string>& out) {
+  std::vector<std::string_view> names;
+  for (const tier& t : doc.tiers)
+    if (has(t)) names.push_back(t.name);
+  if (!names.empty())
+    out.push_back(std::string(what) + " of " + (names.size() == 1 ? "tier " : "tiers ") +
+                  name_list(names));
+}
+
+void feature_losses(const document& doc, feature f, std::vector<std::string>& out) {
+  switch (f) {
+    case feature::several_tiers:
+      if (doc.tiers.size() > 1) {
+        std::vector<std::string_view> rest;
+        for (std::size_t k = 1; k < doc.tiers.size(); ++k)
+          rest.push_back(doc.tiers[k].name);
+        out.push_back("tiers after the first: " + name_list(rest));
+      }
+      break;
+    case feature::empty_tiers: {
+      std::vector<std::string_view> names;
+      for (const tier& t : doc.tiers)
+        if (t.annotations.empty()) names.push_back(t.name);
+      if (!names.empty())
+        out.push_back((names.size() == 1 ? "empty tier " : "empty tiers ") + name_list(names));
+      break;
+    }
+    case feature::point_tiers:
+      per_tier(
+          doc, "the point kind (read back as zero-length intervals)",
+          [](const tier& t) { return t.kind == tier_kind::point; }, out);
+      break;
+    case feature::tier_sources:
+      per_tier(
+          doc, "the source", [](const tier& t) { return t.source.has_value(); }, out);
+      break;
+    case feature::tier_parents:
+      per_tier(
+          doc, "the parent link", [](const tier& t) { return t.parent.has_value(); }, out);
+      break;
+    case feature::vocabularies:
+      per_tier(
+          doc, "the vocabulary", [](const tier& t) { return t.vocabulary.has_value(); }, out);
+      break;
+    case feature::tier_attributes:
+      per_tier(
+          doc, "the attributes", [](const tier& t) { return !t.attributes.empty(); }, out);
+      break;
+    case feature::markup:
+      per_annotation(
+          doc, "markup", [](const annotation& a) { return a.markup.has_value(); }, out);
+      break;
+    case feature::confidence:
+      per_annotation(
+          doc, "confidence", [](const annotation& a) { return a.confidence.has_value(); }, out);
+      break;
+    case feature::ids:
+      per_annotation(
+          doc, "ids", [](const annotation& a) { return a.id.has_value(); }, out);
+      break;
+    case feature::parent_refs:
+      per_annotation(
+          doc, "parent ids", [](const annotation& a) { return a.parent.has_value(); }, out);
+      break;
+    case feature::annotation_attributes:
+      per_annotation(
+          doc, "attributes", [](const annotation& a) { return !a.attributes.empty(); }, out);
+      break;
+    case feature::media: {
+      std::vector<std::string> parts;
+      if (doc.media.uri) parts.push_back("uri");
+      if (doc.media.duration) parts.push_back("duration");
+      if (doc.media.frame_rate) parts.push_back("frame rate");
+      if (!parts.empty()) {
+        std::string s = "media ";
+        for (std::size_t k = 0; k < parts.size(); ++k)
+          s += (k ? ", " : "") + parts[k];
+        out.push_back(s);
+      }
+      break;
+    }
+    case feature::metadata:
+      if (!doc.metadata.empty())
+        out.push_back("document metadata (" + plural(doc.metadata.size(), "entry", "entries") +
+                      ")");
+      break;
+  }
+}
+
+}  // namespace
+
+std::string_view to_string(feature f) {
+  switch (f) {
+    case feature::several_tiers:
+      return "several-tiers";
+    case feature::empty_tiers:
+      return "empty-tiers";
+    case feature::point_tiers:
+      return "point-tiers";
+    case feature::tier_sources:
+      return "tier-sources";
+    case feature::tier_parents:
+      return "tier-parents";
+    case feature::vocabularies:
+      return "vocabularies";
+    case feature::tier_attributes:
+      return "tier-attributes";
+    case feature::markup:
+      return "markup";
+    case feature::confidence:
+      return "confidence";
+    case feature::ids:
+      return "ids";
+    case feature::parent_refs:
+      return "parent-refs";
+    case feature::annotation_attributes:
+      return "annotation-attributes";
+    case feature::media:
+      return "media";
+    case feature::metadata:
+      return "metadata";
+  }
+  return "";
+}
+
+std::vector<std::string> find_losses(const document& doc, const format& fmt) {
+  std::vector<std::string> out;
+  for (int k = 0; k < feature_count; ++k) {
+    const auto f = static_cast<feature>(k);
+    if (!fmt.carries.has(f)) feature_losses(doc, f, out);
+  }
+  if (fmt.extra_losses) fmt.extra_losses(doc, out);
+  return out;
+}
+
+}  // namespace tiers

@@ -1,0 +1,57 @@
+// Names of the model's enumerations and tier look-up.
+#include "tiers/model.hpp"
+
+#include <algorithm>
+
+namespace tiers {
+
+const tier* find_tier(const document& doc, std::string_view name) {
+  auto it = std::find_if(doc.tiers.begin(), doc.tiers.end(),
+                         [&](const tier& t) { return t.name == name; });
+  return it == doc.tiers.end() ? nullptr : &*it;
+}
+
+tier* find_tier(document& doc, std::string_view name) {
+  return const_cast<tier*>(find_tier(static_cast<const document&>(doc), name));
+}
+
+std::string_view to_string(tier_kind kind) {
+  return kind == tier_kind::point ? "point" : "interval";
+}
+
+std::string_view to_string(source_kind kind) {
+  return kind == source_kind::machine ? "machine" : "human";
+}
+
+std::string_view to_string(relation rel) {
+  switch (rel) {
+    case relation::within:
+      return "within";
+    case relation::partition:
+      return "partition";
+    case relation::refers:
+      return "refers";
+  }
+  return "within";
+}
+
+std::optional<tier_kind> parse_tier_kind(std::string_view text) {
+  if (text == "interval") return tier_kind::interval;
+  if (text == "point") return tier_kind::point;
+  return std::nullopt;
+}
+
+std::optional<source_kind> parse_source_kind(std::string_view text) {
+  if (text == "human") return source_kind::human;
+  if (text == "machine") return source_kind::machine;
+  return std::nullopt;
+}
+
+std::optional<relation> parse_relation(std::string_view text) {
+  if (text == "within") return relation::within;
+  if (text == "partition") return relation::partition;
+  if (text == "refers") return relation::refers;
+  return std::nullopt;
+}
+
+}  // namespace tiers

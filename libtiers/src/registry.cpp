@@ -1,0 +1,126 @@
+// The one table of formats, and format look-up by name, extension and content.
+#include <algorithm>
+#include <array>
+
+#include "../formats/csv/csv_format.hpp"
+#include "../formats/json/json_format.hpp"
+#include "tiers/detail/report.hpp"
+#include "tiers/detail/utf8.hpp"
+#include "tiers/format.hpp"
+
+namespace tiers {
+namespace {
+
+constexpr std::array<std::string_view, 1> json_extensions{".json"};
+constexpr std::array<std::string_view, 1> csv_extensions{".csv"};
+constexpr std::array<std::string_view, 2> tsv_extensions{".tsv", ".tab"};
+
+// Tables keep one row per annotation with a tier column, so they hold several tiers, but no
+// tier-level fields and no tier without rows.
+constexpr feature_set table_features{feature::several_tiers, feature::markup,
+                                     feature::confidence,    feature::ids,
+                                     feature::parent_refs,   feature::annotation_attributes};
+
+// To add a format: write libtiers/formats/<name>/, then add one row here (see DEVELOPERS.md).
+const std::array<format, 3> registry{{
+    {"json", "tiers native JSON (lossless)", json_extensions, feature_set::all(),
+     detail::sniff_json, detail::read_json, detail::write_json, nullptr},
+    {"csv", "comma-separated values, one row per annotation (RFC 4180)", csv_extensions,
+     table_features, detail::sniff_csv, detail::read_csv, detail::write_csv, detail::table_losses},
+    {"tsv", "tab-separated values, one row per annotation", tsv_extensions, table_features,
+     detail::sniff_tsv, detail::read_tsv, detail::write_tsv, detail::table_losses},
+}};
+
+bool ends_with_ignoring_case(std::string_view s, std::string_view suffix) {
+  if (s.size() < suffix.size()) return false;
+  return std::equal(suffix.begin(), suffix.end(), s.end() - static_cast<long>(suffix.size()),
+                    [](char a, char b) {
+                      auto lower = [](char c) { return c >= 'A' && c <= 'Z' ? c + 32 : c; };
+                      return lower(a) == lower(b);
+                    });
+}
+
+}  // namespace
+
+std::span<const format> formats() {
+  return registry;
+}
+
+const format* find_format(std::string_view name) {
+  for (const format& f : registry)
+    if (f.name == name) return &f;
+  return nullptr;
+}
+
+const format* format_for_path(std::string_view path) {
+  for (const format& f : registry)
+    for (std::string_view ext : f.extensions)
+      if (ends_with_ignoring_case(path, ext)) return &f;
+  return nullptr;
+}
+
+std::vector<const format*> sniff_formats(std::string_view head) {
+  std::vector<std::pair<int, const format*>> scored;
+  for (const format& f : registry)
+    if (int score = f.sniff(head); score > 0) scored.emplace_back(score, &f);
+  std::stable_sort(scored.begin(), scored.end(),
+                   [](const auto& a, const auto& b) { return a.first > b.first; });
+  std::vector<const format*> out;
+  for (const auto& s : scored)
+    out.push_back(s.second);
+  return out;
+}
+
+read_result read_document(std::string_view input, const format& fmt, const read_options& options,
+                          std::string_view file_name) {
+  read_result result;
+  if (std::string_view wide = detail::wide_encoding(input); !wide.empty()) {
+    result.diagnostics.push_back(detail::make_diagnostic(
+        severity::error, "input.encoding", 0,
+        "the file is " + std::string(wide) + ", not UTF-8; convert it to UTF-8 first"));
+  } else if (std::size_t bad = detail::find_invalid_utf8(input); bad != std::string_view::npos) {
+    char hex[8];
+    std::snprintf(hex, sizeof hex, "0x%02X", static_cast<unsigned char>(input[bad]));
+    result.diagnostics.push_back(detail::make_diagnostic(severity::error, "input.utf8", bad,
+                                                         "the file is not UTF-8: invalid byte " +
+                                                             std::string(hex) + " at byte offset " +
+                                                             std::to_string(bad)));
+  } else {
+    result = fmt.read(input, options);
+  }
+  locate_all(input, result.diagnostics);
+  for (diagnostic& d : result.diagnostics)
+    d.file = file_name;
+  return result;
+}
+
+std::optional<column_map> parse_column_map(std::string_view text, std::string& problem) {
+  static constexpr std::array<std::string_view, 9> roles{
+      "tier", "start", "end", "duration", "text", "markup", "confidence", "id", "parent"};
+  column_map out;
+  while (!text.empty()) {
+    const std::size_t comma = text.find(',');
+    const std::string_view item = text.substr(0, comma);
+    text = comma == std::string_view::npos ? std::string_view{} : text.substr(comma + 1);
+    const std::size_t eq = item.find('=');
+    if (eq == std::string_view::npos || eq == 0 || eq + 1 == item.size()) {
+      problem = "expected ROLE=COLUMN, got '" + std::string(item) + "'";
+      return std::nullopt;
+    }
+    const std::string_view role = item.substr(0, eq);
+    if (std::find(roles.begin(), roles.end(), role) == roles.end()) {
+      problem = "unknown role '" + std::string(role) +
+                "' (roles: tier, start, end, duration, text, markup, confidence, id, parent)";
+      return std::nullopt;
+    }
+    for (const auto& [r, c] : out)
+      if (r == role) {
+        problem = "role '" + std::string(role) + "' is mapped twice";
+        return std::nullopt;
+      }
+    out.emplace_back(std::string(role), std::string(item.substr(eq + 1)));
+  }
+  return out;
+}
+
+}  // namespace tiers

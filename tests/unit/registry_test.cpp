@@ -1,0 +1,92 @@
+// The registry: look-up, sniffing, and the round trip of every format over what it carries.
+#include <catch2/catch.hpp>
+#include <set>
+
+#include "support.hpp"
+
+using namespace tiers;
+using namespace tiers::test;
+
+namespace {
+
+// What a document should look like after a round trip through a format carrying `fs`: the
+// specification of "lossless for what it declares", applied to the model.
+document restrict_to(document doc, feature_set fs) {
+  if (!fs.has(feature::media)) doc.media = {};
+  if (!fs.has(feature::metadata)) doc.metadata.clear();
+  if (!fs.has(feature::empty_tiers))
+    std::erase_if(doc.tiers, [](const tier& t) { return t.annotations.empty(); });
+  if (!fs.has(feature::several_tiers) && doc.tiers.size() > 1) doc.tiers.resize(1);
+  for (tier& t : doc.tiers) {
+    if (!fs.has(feature::point_tiers)) t.kind = tier_kind::interval;
+    if (!fs.has(feature::tier_sources)) t.source.reset();
+    if (!fs.has(feature::tier_parents)) t.parent.reset();
+    if (!fs.has(feature::vocabularies)) t.vocabulary.reset();
+    if (!fs.has(feature::tier_attributes)) t.attributes.clear();
+    for (annotation& a : t.annotations) {
+      if (!fs.has(feature::markup)) a.markup.reset();
+      if (!fs.has(feature::confidence)) a.confidence.reset();
+      if (!fs.has(feature::ids)) a.id.reset();
+      if (!fs.has(feature::parent_refs)) a.parent.reset();
+      if (!fs.has(feature::annotation_attributes)) a.attributes.clear();
+    }
+  }
+  return doc;
+}
+
+}  // namespace
+
+TEST_CASE("every format round-trips what it declares it carries", "[registry][round-trip]") {
+  const document full = rich_document();
+  for (const format& f : formats()) {
+    INFO("format " << f.name);
+    const document expected = restrict_to(full, f.carries);
+    // The loss report and the declaration agree: nothing is reported for what is carried...
+    CHECK(find_losses(expected, f).empty());
+    // ...and writing the restricted document, then reading it, gives it back exactly.
+    CHECK(read_as(f.name, write_as(f.name, expected)) == expected);
+    // Writing the full document drops exactly what the loss report lists.
+    CHECK(find_losses(full, f).empty() == (expected == full));
+    CHECK(read_as(f.name, write_as(f.name, full)) == expected);
+  }
+}
+
+TEST_CASE("every format's output is recognised by its own sniffer first", "[registry]") {
+  const document doc = restrict_to(rich_document(), feature_set{feature::several_tiers});
+  for (const format& f : formats()) {
+    INFO("format " << f.name);
+    const auto sniffed = sniff_formats(write_as(f.name, doc));
+    REQUIRE_FALSE(sniffed.empty());
+    CHECK(sniffed.front()->name == f.name);
+  }
+  CHECK(sniff_formats("just some words").empty());
+}
+
+TEST_CASE("formats are found by name and by extension, in any case", "[registry]") {
+  std::set<std::string_view> names;
+  for (const format& f : formats()) {
+    CHECK(names.insert(f.name).second);
+    CHECK(find_format(f.name) == &f);
+    for (std::string_view ext : f.extensions)
+      CHECK(format_for_path("dir/file" + std::string(ext)) == &f);
+  }
+  CHECK(format_for_path("x.CSV") == find_format("csv"));
+  CHECK(format_for_path("a.json.tsv") == find_format("tsv"));
+  CHECK(format_for_path("noextension") == nullptr);
+  CHECK(find_format("xml") == nullptr);
+}
+
+TEST_CASE("loss reports name what is dropped", "[registry][loss]") {
+  const std::vector<std::string> losses = find_losses(rich_document(), *find_format("csv"));
+  const std::vector<std::string> expected = {
+      "empty tier 'gaze (not yet annotated)'",
+      "the point kind (read back as zero-length intervals) of tier 'nods'",
+      "the source of tiers 'captions', 'words'",
+      "the parent link of tier 'words'",
+      "the vocabulary of tier 'gestures'",
+      "the attributes of tier 'captions'",
+      "media uri, duration, frame rate",
+      "document metadata (2 entries)",
+  };
+  CHECK(losses == expected);
+}

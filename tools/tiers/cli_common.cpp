@@ -1,0 +1,102 @@
+// Loading input for every subcommand: format choice (--from, extension, content), options,
+// and diagnostics on standard error.
+#include "cli_common.hpp"
+
+#include <cstdio>
+#include <filesystem>
+
+#include "tiers/detail/report.hpp"
+#include "tiers/io.hpp"
+
+namespace tiers::cli {
+
+void add_input_options(CLI::App& cmd, input_options& in) {
+  cmd.add_option("--from", in.from,
+                 "Input format (" + format_names() + "); default: by extension, else by content");
+  cmd.add_option("--columns", in.columns,
+                 "Tables: where each role is, e.g. tier=Layer,start=Begin,end=End,text=Value");
+  cmd.add_option("--tier-name", in.tier_name,
+                 "Tables without a tier column: the tier's name (default: the file's stem)");
+  cmd.add_option("--time-unit", in.time_unit,
+                 "Tables: unit of plain-number times: s, ms or frames (default s; clock time and "
+                 "timecode are recognised by their colons)")
+      ->check(CLI::IsMember({"s", "ms", "frames"}));
+  cmd.add_option("--rate", in.rate,
+                 "Frames per second for frame numbers and timecode: 25, 30000/1001");
+}
+
+std::string display_name(const std::string& path) {
+  return path == "-" ? "<stdin>" : path;
+}
+
+void report(const diagnostic& d) {
+  std::fprintf(stderr, "%s\n", format_diagnostic(d).c_str());
+}
+
+std::string format_names() {
+  std::string s;
+  for (const format& f : formats())
+    s += (s.empty() ? "" : ", ") + std::string(f.name);
+  return s;
+}
+
+const format& format_named(const std::string& name) {
+  if (const format* f = find_format(name)) return *f;
+  throw usage_error("unknown format '" + name + "' (formats: " + format_names() + ")");
+}
+
+rational parse_rate_option(const std::string& text) {
+  if (auto r = parse_rational(text)) return *r;
+  throw usage_error("--rate: '" + text + "' is not a positive frame rate such as 25 or 30000/1001");
+}
+
+namespace {
+
+const format& choose_input_format(const input_options& in, std::string_view content) {
+  if (!in.from.empty()) return format_named(in.from);
+  if (in.path != "-")
+    if (const format* f = format_for_path(in.path)) return *f;
+  const auto sniffed = sniff_formats(content.substr(0, 4096));
+  if (!sniffed.empty()) return *sniffed.front();
+  const std::string ext = in.path == "-" ? "" : std::filesystem::path(in.path).extension().string();
+  diagnostic d;
+  d.file = display_name(in.path);
+  d.code = "input.format";
+  d.message =
+      std::string("cannot tell the format: ") +
+      (ext.empty() ? "the name has no extension" : "no format uses the extension '" + ext + "'") +
+      ", and the content looks like none of " + format_names() + "; name it with --from";
+  report(d);
+  throw rejected();
+}
+
+}  // namespace
+
+document load_document(const input_options& in) {
+  read_options options;
+  if (!in.columns.empty()) {
+    std::string problem;
+    auto map = parse_column_map(in.columns, problem);
+    if (!map) throw usage_error("--columns: " + problem);
+    options.columns = std::move(*map);
+  }
+  if (!in.rate.empty()) options.rate = parse_rate_option(in.rate);
+  options.unit = in.time_unit == "ms"       ? time_unit::milliseconds
+                 : in.time_unit == "frames" ? time_unit::frames
+                                            : time_unit::seconds;
+  if (!in.tier_name.empty())
+    options.tier_name = in.tier_name;
+  else if (in.path != "-")
+    options.tier_name = std::filesystem::path(in.path).stem().string();
+  if (!in.from.empty()) format_named(in.from);  // a usage error before any input is read
+
+  const std::string content = read_input(in.path);
+  const format& fmt = choose_input_format(in, content);
+  read_result result = read_document(content, fmt, options, display_name(in.path));
+  for (const diagnostic& d : result.diagnostics)
+    report(d);
+  if (!result.ok()) throw rejected();
+  return std::move(result.doc);
+}
+
+}  // namespace tiers::cli

@@ -1,0 +1,57 @@
+// What every subcommand shares: input options, loading a document, exit codes, diagnostics.
+#pragma once
+
+#include <CLI/CLI.hpp>
+#include <stdexcept>
+#include <string>
+#include <vector>
+
+#include "tiers/format.hpp"
+
+namespace tiers::cli {
+
+/// Exit statuses fixed by the command-line contract.
+enum exit_status : int { exit_ok = 0, exit_rejected = 1, exit_usage = 2 };
+
+/// A mistake in how the command was called: exit status 2.
+struct usage_error : std::runtime_error {
+  using std::runtime_error::runtime_error;
+};
+
+/// The input was rejected and the reasons were printed already: exit status 1.
+struct rejected : std::exception {
+  const char* what() const noexcept override { return "input rejected"; }
+};
+
+/// How to read one input file; filled in by add_input_options.
+struct input_options {
+  std::string path;
+  std::string from;
+  std::string columns;
+  std::string tier_name;
+  std::string time_unit = "s";
+  std::string rate;
+};
+
+/// Adds --from, --columns, --tier-name, --time-unit and --rate to `cmd`.
+void add_input_options(CLI::App& cmd, input_options& in);
+
+/// Reads and parses the input, printing every diagnostic; throws rejected on errors.
+document load_document(const input_options& in);
+
+/// Prints one diagnostic to standard error.
+void report(const diagnostic& d);
+
+/// The name diagnostics use for a path: `<stdin>` for `-`.
+std::string display_name(const std::string& path);
+
+/// The registered format called `name`; throws usage_error listing the names otherwise.
+const format& format_named(const std::string& name);
+
+/// A comma-separated list of every format name.
+std::string format_names();
+
+/// Parses a --rate value, or throws usage_error.
+rational parse_rate_option(const std::string& text);
+
+}  // namespace tiers::cli

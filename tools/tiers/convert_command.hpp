@@ -1,0 +1,24 @@
+// `tiers convert`: from one format to another, refusing silent loss.
+#pragma once
+
+#include <CLI/CLI.hpp>
+#include <string>
+#include <vector>
+
+#include "cli_common.hpp"
+
+namespace tiers::cli {
+
+struct convert_options {
+  input_options input;
+  std::string output;
+  std::string to;
+  std::vector<std::string> tiers;
+  bool allow_loss = false;
+};
+
+/// Adds the subcommand to `app`; its options land in `options`.
+CLI::App* setup_convert(CLI::App& app, convert_options& options);
+int run_convert(const convert_options& options);
+
+}  // namespace tiers::cli

@@ -1,0 +1,53 @@
+// Entry point of the tiers tool: wires the subcommands and maps failures to exit statuses.
+#include <csignal>
+#include <cstdio>
+#include <new>
+
+#include "cli_common.hpp"
+#include "convert_command.hpp"
+#include "info_command.hpp"
+#include "tiers/version.hpp"
+
+int main(int argc, char** argv) {
+  using namespace tiers::cli;
+  // A closed pipe (`tiers convert … | head`) is a write error we report, not a signal.
+  std::signal(SIGPIPE, SIG_IGN);
+
+  CLI::App app("Convert, inspect and validate time-aligned annotation tiers", "tiers");
+  app.set_version_flag("--version", std::string(tiers::version()));
+  app.require_subcommand(1);
+  app.fallthrough(false);
+  convert_options convert;
+  info_options info;
+  const CLI::App* convert_cmd = setup_convert(app, convert);
+  const CLI::App* info_cmd = setup_info(app, info);
+
+  try {
+    app.parse(argc, argv);
+    if (convert_cmd->parsed()) return run_convert(convert);
+    if (info_cmd->parsed()) return run_info(info);
+  } catch (const CLI::CallForHelp& e) {
+    return app.exit(e);
+  } catch (const CLI::CallForAllHelp& e) {
+    return app.exit(e);
+  } catch (const CLI::CallForVersion& e) {
+    return app.exit(e);
+  } catch (const CLI::ParseError& e) {
+    std::fprintf(stderr,
+                 "tiers: error: %s\nRun 'tiers --help' or 'tiers COMMAND --help' for usage.\n",
+                 e.what());
+    return exit_usage;
+  } catch (const usage_error& e) {
+    std::fprintf(stderr, "tiers: error: %s\n", e.what());
+    return exit_usage;
+  } catch (const rejected&) {
+    return exit_rejected;
+  } catch (const tiers::error& e) {
+    report(e.diag());
+    return exit_rejected;
+  } catch (const std::bad_alloc&) {
+    std::fprintf(stderr, "tiers: error: out of memory\n");
+    return exit_rejected;
+  }
+  return exit_ok;
+}
