@@ -22,7 +22,7 @@ TEST_CASE("diagnostics print as FILE:LINE:COLUMN: severity: message [code]", "[d
   CHECK(format_diagnostic(d) == "warning: quoted field is not closed");
 }
 
-TEST_CASE("offsets become lines and code-point columns; LF, CR and CRLF end lines",
+TEST_CASE("offsets become lines and code-point columns, with LF, CR and CRLF ending lines",
           "[diagnostic]") {
   const std::string_view text = "ab\ncd\r\nef\rgh\xC3\xA9z";
   CHECK(locate(text, 0).line == 1);

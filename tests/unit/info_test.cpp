@@ -5,7 +5,7 @@
 
 using namespace tiers;
 
-TEST_CASE("annotated time counts overlaps once; coverage is of the media", "[info]") {
+TEST_CASE("annotated time counts overlaps once and coverage is of the media", "[info]") {
   document doc;
   doc.media.duration = 100 * ns_per_second;
   tier& t = doc.tiers.emplace_back();

@@ -51,7 +51,7 @@ TEST_CASE("json reads numbers in any JSON form exactly", "[json]") {
   CHECK(t.annotations[1].confidence == 1.0);
 }
 
-TEST_CASE("json defaults: point annotations may omit end; kind defaults to interval", "[json]") {
+TEST_CASE("json defaults: point annotations may omit end, kind defaults to interval", "[json]") {
   const document doc = read_as("json", R"({"format": "tiers", "version": 1, "tiers": [
     {"name": "p", "kind": "point", "annotations": [{"start": 5, "text": "x"}]},
     {"annotations": [{"start": 1, "end": 2, "text": "y"}], "name": "i"}]})");

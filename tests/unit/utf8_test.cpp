@@ -7,7 +7,7 @@
 using namespace tiers;
 using tiers::detail::find_invalid_utf8;
 
-TEST_CASE("valid UTF-8 passes; each kind of invalid sequence is found at its first byte",
+TEST_CASE("valid UTF-8 passes and each kind of invalid sequence is found at its first byte",
           "[utf8]") {
   constexpr auto npos = std::string_view::npos;
   CHECK(find_invalid_utf8("plain ascii, long enough for the fast path") == npos);

@@ -28,6 +28,7 @@ std::string source_text(const std::optional<tier_source>& s) {
 }
 
 std::string media_line(const media_info& m) {
+  if (!m.uri && !m.duration && !m.frame_rate) return "-";
   std::string out = m.uri ? *m.uri : "(no uri)";
   if (m.duration) out += ", " + format_clock(*m.duration);
   if (m.frame_rate) out += ", " + format_rational(*m.frame_rate) + " fps";
