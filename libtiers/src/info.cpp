@@ -2,30 +2,39 @@
 #include "tiers/info.hpp"
 
 #include <algorithm>
+#include <limits>
 #include <utility>
 
 namespace tiers {
 namespace {
 
+__extension__ typedef __int128 wide;  // sums of spans of ±292 years need more than 64 bits
+
+time_ns saturate(wide v) {
+  constexpr time_ns top = std::numeric_limits<time_ns>::max();
+  return v > top ? top : static_cast<time_ns>(v);
+}
+
 // Length of the union of intervals; each interval counts from its smaller to its larger time.
+// Saturates at the largest time rather than overflowing on hostile input.
 time_ns union_length(const tier& t) {
   std::vector<std::pair<time_ns, time_ns>> spans;
   spans.reserve(t.annotations.size());
   for (const annotation& a : t.annotations)
     if (a.start != a.end) spans.emplace_back(std::min(a.start, a.end), std::max(a.start, a.end));
   std::sort(spans.begin(), spans.end());
-  time_ns total = 0;
+  wide total = 0;
   std::optional<std::pair<time_ns, time_ns>> open;
   for (const auto& s : spans) {
     if (open && s.first <= open->second) {
       open->second = std::max(open->second, s.second);
       continue;
     }
-    if (open) total += open->second - open->first;
+    if (open) total += static_cast<wide>(open->second) - open->first;
     open = s;
   }
-  if (open) total += open->second - open->first;
-  return total;
+  if (open) total += static_cast<wide>(open->second) - open->first;
+  return saturate(total);
 }
 
 }  // namespace
@@ -56,7 +65,7 @@ document_summary summarize(const document& doc) {
     out.reference = *doc.media.duration;
     out.reference_is_media = true;
   } else if (out.start) {
-    out.reference = *out.end - *out.start;
+    out.reference = saturate(static_cast<wide>(*out.end) - *out.start);
   }
   if (out.reference > 0) {
     for (tier_summary& s : out.tiers)

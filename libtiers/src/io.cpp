@@ -89,7 +89,7 @@ atomic_file::atomic_file(std::string path) : path_(std::move(path)) {
   const std::filesystem::path dir = target.has_parent_path() ? target.parent_path() : ".";
   std::string pattern = (dir / ("." + target.filename().string() + ".tiers-XXXXXX")).string();
   fd_ = ::mkstemp(pattern.data());
-  if (fd_ < 0) fail("io.open", path_, "cannot create a file beside");
+  if (fd_ < 0) fail("io.open", path_, "cannot create a temporary file in the output's folder");
   temp_path_ = pattern;
   ::fcntl(fd_, F_SETFD, FD_CLOEXEC);
   // mkstemp makes the file private; give it the mode a plainly created file would have.

@@ -1,5 +1,6 @@
 // The registry: look-up, sniffing, and the round trip of every format over what it carries.
 #include <catch2/catch.hpp>
+#include <limits>
 #include <set>
 
 #include "support.hpp"
@@ -89,4 +90,35 @@ TEST_CASE("loss reports name what is dropped", "[registry][loss]") {
       "document metadata (2 entries)",
   };
   CHECK(losses == expected);
+}
+
+TEST_CASE("every prefix of a valid file is read or refused with a located error",
+          "[registry][bad-input]") {
+  const document doc = restrict_to(rich_document(), feature_set{feature::several_tiers});
+  for (const format& f : formats()) {
+    INFO("format " << f.name);
+    const std::string text = write_as(f.name, doc);
+    for (std::size_t n = 0; n < text.size(); ++n) {
+      const read_result r = read_document(std::string_view(text).substr(0, n), f, {}, "prefix");
+      for (const diagnostic& d : r.diagnostics) {
+        if (d.level != severity::error) continue;
+        INFO(n << ": " << format_diagnostic(d));
+        CHECK(d.line >= 1);
+        CHECK(d.column >= 1);
+      }
+    }
+  }
+}
+
+TEST_CASE("extreme times are summarised without overflow", "[info]") {
+  document doc;
+  tier& t = doc.tiers.emplace_back();
+  t.name = "wide";
+  annotation a;
+  a.start = std::numeric_limits<time_ns>::min();
+  a.end = std::numeric_limits<time_ns>::max();
+  t.annotations = {a, a};
+  const document_summary s = summarize(doc);
+  CHECK(s.tiers[0].annotated == std::numeric_limits<time_ns>::max());
+  CHECK(s.reference == std::numeric_limits<time_ns>::max());
 }

@@ -12,17 +12,22 @@ namespace tiers::cli {
 
 void add_input_options(CLI::App& cmd, input_options& in) {
   cmd.add_option("--from", in.from,
-                 "Input format (" + format_names() + "); default: by extension, else by content");
+                 "Input format (" + format_names() + "); default: by extension, else by content")
+      ->type_name("FORMAT");
   cmd.add_option("--columns", in.columns,
-                 "Tables: where each role is, e.g. tier=Layer,start=Begin,end=End,text=Value");
+                 "Tables: where each role is, e.g. tier=Layer,start=Begin,end=End,text=Value")
+      ->type_name("ROLE=COLUMN,...");
   cmd.add_option("--tier-name", in.tier_name,
-                 "Tables without a tier column: the tier's name (default: the file's stem)");
+                 "Tables without a tier column: the tier's name (default: the file's stem)")
+      ->type_name("NAME");
   cmd.add_option("--time-unit", in.time_unit,
                  "Tables: unit of plain-number times: s, ms or frames (default s; clock time and "
                  "timecode are recognised by their colons)")
-      ->check(CLI::IsMember({"s", "ms", "frames"}));
+      ->check(CLI::IsMember({"s", "ms", "frames"}))
+      ->type_name("UNIT");
   cmd.add_option("--rate", in.rate,
-                 "Frames per second for frame numbers and timecode: 25, 30000/1001");
+                 "Frames per second for frame numbers and timecode: 25, 30000/1001")
+      ->type_name("RATE");
 }
 
 std::string display_name(const std::string& path) {

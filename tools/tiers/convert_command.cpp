@@ -11,11 +11,17 @@ namespace tiers::cli {
 
 CLI::App* setup_convert(CLI::App& app, convert_options& o) {
   CLI::App* cmd = app.add_subcommand("convert", "Convert a tier file to another format");
-  cmd->add_option("input", o.input.path, "Input file, or - for standard input")->required();
-  cmd->add_option("-o,--output", o.output, "Output file, or - for standard output (default)");
+  cmd->add_option("input", o.input.path, "Input file, or - for standard input")
+      ->required()
+      ->type_name("FILE");
+  cmd->add_option("-o,--output", o.output, "Output file, or - for standard output (default)")
+      ->type_name("FILE");
   cmd->add_option("--to", o.to,
-                  "Output format (" + format_names() + "); default: by the extension of -o");
-  cmd->add_option("--tier", o.tiers, "Convert only this tier (repeatable)");
+                  "Output format (" + format_names() + "); default: by the extension of -o")
+      ->type_name("FORMAT");
+  cmd->add_option("--tier", o.tiers, "Convert only this tier (repeatable)")
+      ->allow_extra_args(false)
+      ->type_name("NAME");
   cmd->add_flag(
       "--allow-loss", o.allow_loss,
       "Convert even when the output format cannot carry everything; lists what is dropped");

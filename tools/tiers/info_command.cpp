@@ -12,7 +12,9 @@ namespace tiers::cli {
 CLI::App* setup_info(CLI::App& app, info_options& o) {
   CLI::App* cmd = app.add_subcommand(
       "info", "Show the tiers in a file: kinds, sources, counts, span, coverage");
-  cmd->add_option("input", o.input.path, "Input file, or - for standard input")->required();
+  cmd->add_option("input", o.input.path, "Input file, or - for standard input")
+      ->required()
+      ->type_name("FILE");
   cmd->add_flag("--json", o.json, "Print JSON for scripts");
   add_input_options(*cmd, o.input);
   return cmd;
