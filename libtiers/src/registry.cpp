@@ -1,6 +1,7 @@
 // The one table of formats, and format look-up by name, extension and content.
 #include <algorithm>
 #include <array>
+#include <cstdio>
 
 #include "../formats/csv/csv_format.hpp"
 #include "../formats/json/json_format.hpp"

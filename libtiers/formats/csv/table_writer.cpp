@@ -45,16 +45,19 @@ void write_table(const document& doc, byte_sink& out, char delimiter, std::strin
       for (const auto& kv : a.attributes)
         if (!is_column_name(kv.first)) keys.insert(kv.first);
     }
-  const char sep[2] = {delimiter, '\0'};
   out.write("tier");
-  for (std::string_view c : {"start", "end", "text"}) {
+  auto column = [&](bool present, std::string_view name) {
+    if (!present) return;
     out.put(delimiter);
-    out.write(c);
-  }
-  if (any_confidence) out.write(std::string(sep) + "confidence");
-  if (any_id) out.write(std::string(sep) + "id");
-  if (any_parent) out.write(std::string(sep) + "parent");
-  if (any_markup) out.write(std::string(sep) + "markup");
+    out.write(name);
+  };
+  column(true, "start");
+  column(true, "end");
+  column(true, "text");
+  column(any_confidence, "confidence");
+  column(any_id, "id");
+  column(any_parent, "parent");
+  column(any_markup, "markup");
   for (const std::string& k : keys) {
     out.put(delimiter);
     write_field(out, k, delimiter);
