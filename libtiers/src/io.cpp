@@ -5,7 +5,9 @@
 #include <sys/stat.h>
 #include <unistd.h>
 
+#include <atomic>
 #include <cerrno>
+#include <csignal>
 #include <cstring>
 #include <filesystem>
 
@@ -13,6 +15,22 @@
 
 namespace tiers {
 namespace {
+
+// The temporary file being written, for the signal handler; one atomic_file at a time is
+// enough for a command-line program.
+std::atomic<const char*> active_temp{nullptr};
+
+extern "C" void on_fatal_signal(int sig) {
+  // Only async-signal-safe calls here: unlink, signal, raise.
+  if (const char* path = active_temp.exchange(nullptr)) ::unlink(path);
+  std::signal(sig, SIG_DFL);
+  std::raise(sig);
+}
+
+void forget_temp(const std::string& path) {
+  const char* mine = path.c_str();
+  active_temp.compare_exchange_strong(mine, nullptr);
+}
 
 [[noreturn]] void fail(std::string code, const std::string& file, const std::string& what) {
   diagnostic d;
@@ -91,6 +109,7 @@ atomic_file::atomic_file(std::string path) : path_(std::move(path)) {
   fd_ = ::mkstemp(pattern.data());
   if (fd_ < 0) fail("io.open", path_, "cannot create a temporary file in the output's folder");
   temp_path_ = pattern;
+  active_temp.store(temp_path_.c_str());
   ::fcntl(fd_, F_SETFD, FD_CLOEXEC);
   // mkstemp makes the file private; give it the mode a plainly created file would have.
   mode_t mode = 0;
@@ -106,7 +125,10 @@ atomic_file::atomic_file(std::string path) : path_(std::move(path)) {
 
 atomic_file::~atomic_file() {
   if (fd_ >= 0) ::close(fd_);
-  if (!temp_path_.empty()) ::unlink(temp_path_.c_str());
+  if (!temp_path_.empty()) {
+    forget_temp(temp_path_);
+    ::unlink(temp_path_.c_str());
+  }
 }
 
 void atomic_file::emit(const char* data, std::size_t size) {
@@ -128,7 +150,17 @@ void atomic_file::commit() {
   fd_ = -1;
   if (rc != 0) fail("io.write", path_, "cannot write");
   if (::rename(temp_path_.c_str(), path_.c_str()) != 0) fail("io.write", path_, "cannot replace");
+  forget_temp(temp_path_);
   temp_path_.clear();
+}
+
+void remove_partial_output_on_signals() {
+  for (int sig : {SIGINT, SIGTERM, SIGHUP}) {
+    struct sigaction action {};
+    action.sa_handler = on_fatal_signal;
+    sigemptyset(&action.sa_mask);
+    ::sigaction(sig, &action, nullptr);
+  }
 }
 
 stdout_sink::~stdout_sink() {

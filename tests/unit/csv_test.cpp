@@ -96,13 +96,30 @@ TEST_CASE("csv from other tools: a column map, a fixed tier name, other time syn
   const document d3 = read_as("csv", "start,duration,text\n30000,1,x\n", frames);
   CHECK(d3.tiers[0].annotations[0].start == 1001 * ns_per_second);
   CHECK(d3.tiers[0].annotations[0].end == 1001 * ns_per_second + 33'366'667);
+}
 
-  // Drop-frame timecode (CHECKS.md table: 00:01:00;02 is frame 1800).
-  read_options tc;
-  tc.rate = rational{30000, 1001};
-  const document d4 = read_as("csv", "start,end\n00:01:00;02,00:10:00;00\n", tc);
-  CHECK(d4.tiers[0].annotations[0].start == frame_time(1800, {30000, 1001}).value);
-  CHECK(d4.tiers[0].annotations[0].end == frame_time(17982, {30000, 1001}).value);
+TEST_CASE("csv reads SMPTE drop-frame timecode", "[csv][timecode]") {
+  // Source: ../shared/CHECKS.md, drop-frame table at 30000/1001 (rule read in TTML2
+  // ttp:dropMode; frame counts computed). Each row: timecode, frame count.
+  const std::pair<const char*, std::int64_t> table[] = {
+      {"00:00:59;29", 1799},   {"00:01:00;02", 1800},  {"00:02:00;02", 3598},
+      {"00:10:00;00", 17982},  {"00:11:00;02", 19782}, {"01:00:00;00", 107892},
+      {"23:59:59;29", 2589407}};
+  std::string csv = "start,text\r\n";
+  for (const auto& [tc, frames] : table)
+    csv += std::string(tc) + "," + tc + "\r\n";
+  read_options o;
+  o.rate = rational{30000, 1001};
+  const document doc = read_as("csv", csv, o);
+  REQUIRE(doc.tiers.at(0).annotations.size() == std::size(table));
+  for (std::size_t k = 0; k < std::size(table); ++k) {
+    INFO(table[k].first);
+    const annotation& a = doc.tiers[0].annotations[k];
+    // frame × 1001/30000 s, to the nearest nanosecond
+    CHECK(a.start == (table[k].second * 1001 * ns_per_second * 2 + 30000) / (2 * 30000));
+  }
+  // One timecode hour is 3599.9964 s (CHECKS.md, computed).
+  CHECK(doc.tiers[0].annotations[5].start == 3'599'996'400'000);
 }
 
 TEST_CASE("csv without end or duration column is a point tier", "[csv]") {

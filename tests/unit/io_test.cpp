@@ -7,7 +7,10 @@
 #include "tiers/diagnostic.hpp"
 #include "tiers/io.hpp"
 
+#include <sys/wait.h>
 #include <unistd.h>
+
+#include <csignal>
 
 using namespace tiers;
 namespace fs = std::filesystem;
@@ -80,4 +83,26 @@ TEST_CASE("read_input and atomic_file report failures as tiers::error", "[io]") 
     CHECK(std::string(e.what()) ==
           "/nonexistent/tiers/input.json: error: cannot open: No such file or directory [io.open]");
   }
+}
+
+TEST_CASE("a terminating signal during a write removes the temporary file", "[io]") {
+  const fs::path dir = fresh_dir("signal");
+  const fs::path target = dir / "out.csv";
+  std::ofstream(target) << "old";
+  const pid_t child = ::fork();
+  REQUIRE(child >= 0);
+  if (child == 0) {
+    remove_partial_output_on_signals();
+    atomic_file f(target.string());
+    f.write(std::string(1 << 20, 'x'));
+    std::raise(SIGTERM);
+    std::_Exit(0);  // not reached: the signal ends the process
+  }
+  int status = 0;
+  REQUIRE(::waitpid(child, &status, 0) == child);
+  CHECK(WIFSIGNALED(status));
+  CHECK(WTERMSIG(status) == SIGTERM);
+  CHECK(slurp(target) == "old");
+  CHECK(std::distance(fs::directory_iterator(dir), fs::directory_iterator{}) == 1);
+  fs::remove_all(dir);
 }

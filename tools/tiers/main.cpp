@@ -6,12 +6,14 @@
 #include "cli_common.hpp"
 #include "convert_command.hpp"
 #include "info_command.hpp"
+#include "tiers/io.hpp"
 #include "tiers/version.hpp"
 
 int main(int argc, char** argv) {
   using namespace tiers::cli;
   // A closed pipe (`tiers convert … | head`) is a write error we report, not a signal.
   std::signal(SIGPIPE, SIG_IGN);
+  tiers::remove_partial_output_on_signals();
 
   CLI::App app("Convert, inspect and validate time-aligned annotation tiers", "tiers");
   app.set_version_flag("--version", std::string(tiers::version()));

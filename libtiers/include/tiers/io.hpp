@@ -29,6 +29,11 @@ class atomic_file final : public byte_sink {
   int fd_ = -1;
 };
 
+/// Makes SIGINT, SIGTERM and SIGHUP remove the temporary file of the atomic_file being
+/// written before the process ends as the signal would end it. For programs; call once.
+/// (SIGKILL cannot be caught: then the temporary file stays, and the target is still whole.)
+void remove_partial_output_on_signals();
+
 /// Writes to standard output.
 class stdout_sink final : public byte_sink {
  public:
