@@ -77,6 +77,17 @@ TEST_CASE("formats are found by name and by extension, in any case", "[registry]
   CHECK(find_format("xml") == nullptr);
 }
 
+TEST_CASE("feature names are distinct lower-case words joined by hyphens", "[registry]") {
+  std::set<std::string_view> names;
+  for (int k = 0; k < feature_count; ++k) {
+    const std::string_view name = to_string(static_cast<feature>(k));
+    INFO(k);
+    CHECK_FALSE(name.empty());
+    CHECK(name.find_first_not_of("abcdefghijklmnopqrstuvwxyz-") == std::string_view::npos);
+    CHECK(names.insert(name).second);
+  }
+}
+
 TEST_CASE("loss reports name what is dropped", "[registry][loss]") {
   const std::vector<std::string> losses = find_losses(rich_document(), *find_format("csv"));
   const std::vector<std::string> expected = {

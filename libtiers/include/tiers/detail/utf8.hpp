@@ -1,4 +1,4 @@
-// UTF-8 validation and encoding, shared by the readers and writers.
+// UTF-8 validation, shared by every reader.
 #pragma once
 
 #include <cstddef>
@@ -15,7 +15,5 @@ std::size_t find_invalid_utf8(std::string_view text);
 /// When `text` starts like UTF-16 or UTF-32 (a byte order mark, or a NUL in the first two
 /// bytes), the name of that encoding; else empty.
 std::string_view wide_encoding(std::string_view text);
-
-void append_utf8(std::string& out, char32_t cp);
 
 }  // namespace tiers::detail
