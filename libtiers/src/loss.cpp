@@ -1,4 +1,5 @@
 // What a document would lose in a format: compares the document with the format's features.
+#include <algorithm>
 #include <cstddef>
 #include <functional>
 
@@ -9,6 +10,11 @@ namespace tiers {
 namespace {
 
 using detail::plural;
+
+const tier* tier_at(const document& doc, std::size_t k) {
+  return k < doc.tiers.size() ? &doc.tiers[k] : nullptr;
+}
+
 using detail::quote_name;
 
 // "'a', 'b' and 3 more" — tier lists stay readable on wide documents.
@@ -48,16 +54,25 @@ void per_tier(const document& doc, std::string_view what,
                   name_list(names));
 }
 
-void feature_losses(const document& doc, feature f, std::vector<std::string>& out) {
+// Keys the format carries although it carries no attributes or metadata in general.
+bool owned_key(const format& fmt, std::string_view key) {
+  if (!fmt.own_prefix.empty() && key.substr(0, fmt.own_prefix.size()) == fmt.own_prefix)
+    return true;
+  return std::find(fmt.own_keys.begin(), fmt.own_keys.end(), key) != fmt.own_keys.end();
+}
+
+void feature_losses(const document& doc, const format& fmt, feature f,
+                    std::vector<std::string>& out) {
+  // A format with inline words carries the first tier's word tier and its parent link.
+  const tier* words = tier_at(doc, word_tier_index(doc, fmt));
   switch (f) {
-    case feature::several_tiers:
-      if (doc.tiers.size() > 1) {
-        std::vector<std::string_view> rest;
-        for (std::size_t k = 1; k < doc.tiers.size(); ++k)
-          rest.push_back(doc.tiers[k].name);
-        out.push_back("tiers after the first: " + name_list(rest));
-      }
+    case feature::several_tiers: {
+      std::vector<std::string_view> rest;
+      for (std::size_t k = 1; k < doc.tiers.size(); ++k)
+        if (&doc.tiers[k] != words) rest.push_back(doc.tiers[k].name);
+      if (!rest.empty()) out.push_back("tiers after the first: " + name_list(rest));
       break;
+    }
     case feature::empty_tiers: {
       std::vector<std::string_view> names;
       for (const tier& t : doc.tiers)
@@ -77,7 +92,8 @@ void feature_losses(const document& doc, feature f, std::vector<std::string>& ou
       break;
     case feature::tier_parents:
       per_tier(
-          doc, "the parent link", [](const tier& t) { return t.parent.has_value(); }, out);
+          doc, "the parent link",
+          [&](const tier& t) { return t.parent.has_value() && &t != words; }, out);
       break;
     case feature::vocabularies:
       per_tier(
@@ -105,7 +121,12 @@ void feature_losses(const document& doc, feature f, std::vector<std::string>& ou
       break;
     case feature::annotation_attributes:
       per_annotation(
-          doc, "attributes", [](const annotation& a) { return !a.attributes.empty(); }, out);
+          doc, "attributes",
+          [&](const annotation& a) {
+            return std::any_of(a.attributes.begin(), a.attributes.end(),
+                               [&](const auto& kv) { return !owned_key(fmt, kv.first); });
+          },
+          out);
       break;
     case feature::media: {
       std::vector<std::string> parts;
@@ -120,15 +141,30 @@ void feature_losses(const document& doc, feature f, std::vector<std::string>& ou
       }
       break;
     }
-    case feature::metadata:
-      if (!doc.metadata.empty())
-        out.push_back("document metadata (" + plural(doc.metadata.size(), "entry", "entries") +
-                      ")");
+    case feature::metadata: {
+      const auto n = static_cast<std::size_t>(
+          std::count_if(doc.metadata.begin(), doc.metadata.end(),
+                        [&](const auto& kv) { return !owned_key(fmt, kv.first); }));
+      if (n > 0) out.push_back("document metadata (" + plural(n, "entry", "entries") + ")");
       break;
+    }
+    case feature::inline_words:
+      break;  // widens what several_tiers and tier_parents allow; nothing of its own
   }
 }
 
 }  // namespace
+
+std::size_t word_tier_index(const document& doc, const format& fmt) {
+  if (fmt.carries.has(feature::several_tiers) || !fmt.carries.has(feature::inline_words) ||
+      doc.tiers.empty())
+    return no_tier;
+  for (std::size_t k = 1; k < doc.tiers.size(); ++k) {
+    const auto& p = doc.tiers[k].parent;
+    if (p && p->tier == doc.tiers[0].name && p->rel == relation::within) return k;
+  }
+  return no_tier;
+}
 
 std::string_view to_string(feature f) {
   switch (f) {
@@ -160,6 +196,8 @@ std::string_view to_string(feature f) {
       return "media";
     case feature::metadata:
       return "metadata";
+    case feature::inline_words:
+      return "inline-words";
   }
   return "";
 }
@@ -168,7 +206,7 @@ std::vector<std::string> find_losses(const document& doc, const format& fmt) {
   std::vector<std::string> out;
   for (int k = 0; k < feature_count; ++k) {
     const auto f = static_cast<feature>(k);
-    if (!fmt.carries.has(f)) feature_losses(doc, f, out);
+    if (!fmt.carries.has(f)) feature_losses(doc, fmt, f, out);
   }
   if (fmt.extra_losses) fmt.extra_losses(doc, out);
   return out;

@@ -5,6 +5,7 @@
 
 #include "../formats/csv/csv_format.hpp"
 #include "../formats/json/json_format.hpp"
+#include "../formats/vtt/vtt_format.hpp"
 #include "tiers/detail/report.hpp"
 #include "tiers/detail/utf8.hpp"
 #include "tiers/format.hpp"
@@ -15,6 +16,8 @@ namespace {
 constexpr std::array<std::string_view, 1> json_extensions{".json"};
 constexpr std::array<std::string_view, 1> csv_extensions{".csv"};
 constexpr std::array<std::string_view, 2> tsv_extensions{".tsv", ".tab"};
+constexpr std::array<std::string_view, 1> vtt_extensions{".vtt"};
+constexpr std::array<std::string_view, 1> vtt_keys{"speaker"};
 
 // Tables keep one row per annotation with a tier column, so they hold several tiers, but no
 // tier-level fields and no tier without rows.
@@ -22,14 +25,21 @@ constexpr feature_set table_features{feature::several_tiers, feature::markup,
                                      feature::confidence,    feature::ids,
                                      feature::parent_refs,   feature::annotation_attributes};
 
+// WebVTT holds one tier of cues, their identifiers and text as written, cue timestamps as a
+// child tier of words, voices as `speaker`, and its settings and blocks under `vtt:`.
+constexpr feature_set vtt_features{feature::empty_tiers, feature::markup, feature::ids,
+                                   feature::inline_words};
+
 // To add a format: write libtiers/formats/<name>/, then add one row here (see DEVELOPERS.md).
-const std::array<format, 3> registry{{
+const std::array<format, 4> registry{{
     {"json", "tiers native JSON (lossless)", json_extensions, feature_set::all(),
      detail::sniff_json, detail::read_json, detail::write_json, nullptr},
     {"csv", "comma-separated values, one row per annotation (RFC 4180)", csv_extensions,
      table_features, detail::sniff_csv, detail::read_csv, detail::write_csv, detail::table_losses},
     {"tsv", "tab-separated values, one row per annotation", tsv_extensions, table_features,
      detail::sniff_tsv, detail::read_tsv, detail::write_tsv, detail::table_losses},
+    {"vtt", "W3C WebVTT captions", vtt_extensions, vtt_features, detail::sniff_vtt,
+     detail::read_vtt, detail::write_vtt, detail::vtt_losses, "vtt:", vtt_keys, true},
 }};
 
 bool ends_with_ignoring_case(std::string_view s, std::string_view suffix) {
@@ -79,7 +89,24 @@ read_result read_document(std::string_view input, const format& fmt, const read_
     result.diagnostics.push_back(detail::make_diagnostic(
         severity::error, "input.encoding", 0,
         "the file is " + std::string(wide) + ", not UTF-8; convert it to UTF-8 first"));
-  } else if (std::size_t bad = detail::find_invalid_utf8(input); bad != std::string_view::npos) {
+  } else if (std::size_t bad = detail::find_invalid_utf8(input);
+             bad != std::string_view::npos && fmt.replaces_invalid_utf8) {
+    // Decode as the format's specification says (WHATWG UTF-8 decode), then read the copy.
+    std::size_t replaced = 0;
+    const std::string repaired = detail::repair_utf8(input, replaced);
+    result = read_document(repaired, fmt, options, file_name);
+    result.diagnostics.insert(
+        result.diagnostics.begin(),
+        detail::make_diagnostic(
+            severity::warning, "input.utf8", bad,
+            "the file is not valid UTF-8: " +
+                detail::plural(replaced, "invalid sequence", "invalid sequences") +
+                " replaced by U+FFFD, as the format's specification says"));
+    locate_all(repaired, result.diagnostics);
+    for (diagnostic& d : result.diagnostics)
+      d.file = file_name;
+    return result;
+  } else if (bad != std::string_view::npos) {
     char hex[8];
     std::snprintf(hex, sizeof hex, "0x%02X", static_cast<unsigned char>(input[bad]));
     result.diagnostics.push_back(detail::make_diagnostic(severity::error, "input.utf8", bad,

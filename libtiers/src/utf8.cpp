@@ -58,4 +58,39 @@ std::string_view wide_encoding(std::string_view text) {
   return {};
 }
 
+std::string repair_utf8(std::string_view text, std::size_t& replaced) {
+  std::string out;
+  out.reserve(text.size() + 16);
+  replaced = 0;
+  while (!text.empty()) {
+    const std::size_t bad = find_invalid_utf8(text);
+    if (bad == std::string_view::npos) {
+      out.append(text);
+      break;
+    }
+    out.append(text.substr(0, bad));
+    // The maximal subpart: a valid lead byte and as many valid continuation bytes as follow.
+    const auto c = static_cast<unsigned char>(text[bad]);
+    std::size_t len = 1;
+    std::size_t need = c >= 0xC2 && c <= 0xDF   ? 2
+                       : c >= 0xE0 && c <= 0xEF ? 3
+                       : c >= 0xF0 && c <= 0xF4 ? 4
+                                                : 1;
+    for (std::size_t k = 1; k < need && bad + k < text.size(); ++k) {
+      const auto b = static_cast<unsigned char>(text[bad + k]);
+      unsigned char lo = 0x80, hi = 0xBF;
+      if (k == 1 && c == 0xE0) lo = 0xA0;
+      if (k == 1 && c == 0xED) hi = 0x9F;
+      if (k == 1 && c == 0xF0) lo = 0x90;
+      if (k == 1 && c == 0xF4) hi = 0x8F;
+      if (b < lo || b > hi) break;
+      len = k + 1;
+    }
+    out.append("\xEF\xBF\xBD");
+    ++replaced;
+    text.remove_prefix(bad + len);
+  }
+  return out;
+}
+
 }  // namespace tiers::detail

@@ -19,14 +19,14 @@ document rich_document() {
   captions.attributes = {{"language", "en"}};
   annotation c1;
   c1.start = 1'250'000'000;
-  c1.end = 3'999'999'999;
+  c1.end = 3'999'000'000;
   c1.text = "Welcome, everyone — \"quoted\"\nsecond line";
   c1.markup = "<v Host>Welcome, everyone — \"quoted\"\nsecond line";
   c1.id = "c1";
   c1.attributes = {{"speaker", "Host"}};
   annotation c2;
   c2.start = 4'000'000'000;
-  c2.end = 7'123'456'789;
+  c2.end = 7'123'000'000;
   c2.text = "tab\there, comma, and a backslash \\ ünïcödé";
   c2.id = "c2";
   captions.annotations = {c1, c2};

@@ -17,14 +17,18 @@ void add_input_options(CLI::App& cmd, input_options& in) {
   cmd.add_option("--columns", in.columns,
                  "Tables: where each role is, e.g. tier=Layer,start=Begin,end=End,text=Value")
       ->type_name("ROLE=COLUMN,...");
-  cmd.add_option("--tier-name", in.tier_name,
-                 "Tables without a tier column: the tier's name (default: the file's stem)")
+  cmd.add_option(
+         "--tier-name", in.tier_name,
+         "Tables without a tier column, and WebVTT: the tier's name (default: the file's stem)")
       ->type_name("NAME");
   cmd.add_option("--time-unit", in.time_unit,
                  "Tables: unit of plain-number times: s, ms or frames (default s; clock time and "
                  "timecode are recognised by their colons)")
       ->check(CLI::IsMember({"s", "ms", "frames"}))
       ->type_name("UNIT");
+  cmd.add_flag("--strict", in.strict,
+               "WebVTT: authoring-rule violations (cue order, empty cues, timestamps, repeated "
+               "ids) are errors, not warnings");
   cmd.add_option("--rate", in.rate,
                  "Frames per second for frame numbers and timecode: 25, 30000/1001")
       ->type_name("RATE");
@@ -86,6 +90,7 @@ document load_document(const input_options& in) {
     options.columns = std::move(*map);
   }
   if (!in.rate.empty()) options.rate = parse_rate_option(in.rate);
+  options.strict = in.strict;
   options.unit = in.time_unit == "ms"       ? time_unit::milliseconds
                  : in.time_unit == "frames" ? time_unit::frames
                                             : time_unit::seconds;

@@ -31,6 +31,7 @@ struct input_options {
   std::string tier_name;
   std::string time_unit = "s";
   std::string rate;
+  bool strict = false;
 };
 
 /// Adds --from, --columns, --tier-name, --time-unit and --rate to `cmd`.

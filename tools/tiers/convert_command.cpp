@@ -2,6 +2,7 @@
 #include "convert_command.hpp"
 
 #include <algorithm>
+#include <filesystem>
 #include <memory>
 
 #include "tiers/detail/report.hpp"
@@ -68,7 +69,16 @@ int run_convert(const convert_options& o) {
   const std::string file = display_name(o.input.path);
   keep_tiers(doc, o.tiers, file);
 
-  const std::vector<std::string> losses = find_losses(doc, to);
+  std::vector<std::string> losses = find_losses(doc, to);
+  // A one-tier format keeps no tier name: read back, the tier is named after the file.
+  if (!to.carries.has(feature::several_tiers) && !doc.tiers.empty() && !o.output.empty() &&
+      o.output != "-") {
+    const std::string stem = std::filesystem::path(o.output).stem().string();
+    if (doc.tiers.front().name != stem)
+      losses.push_back("the tier name " + detail::quote_name(doc.tiers.front().name) + " (a " +
+                       std::string(to.name) + " file names no tier; read back, it is named " +
+                       detail::quote_name(stem) + " after the file)");
+  }
   for (const std::string& loss : losses) {
     diagnostic d;
     d.file = file;

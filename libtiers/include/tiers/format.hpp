@@ -34,8 +34,10 @@ enum class feature : std::uint8_t {
   annotation_attributes,  ///< name/value pairs on an annotation
   media,                  ///< media uri, duration, frame rate
   metadata,               ///< document metadata
+  inline_words,           ///< without several_tiers: still a child tier of timed words
+                          ///< inside the first tier's annotations (WebVTT cue timestamps)
 };
-inline constexpr int feature_count = 14;
+inline constexpr int feature_count = 15;
 
 std::string_view to_string(feature f);
 
@@ -77,6 +79,7 @@ struct read_options {
   column_map columns;              ///< tables: where each role is found
   time_unit unit = time_unit::seconds;
   std::optional<rational> rate;  ///< frames and timecode: frames per second
+  bool strict = false;           ///< formats with authoring rules (vtt): violations are errors
 };
 
 /// Options for writing; the writer drops what the format cannot carry.
@@ -104,6 +107,13 @@ struct format {
   void (*write)(const document& doc, byte_sink& out, const write_options& options);
   /// Losses beyond the feature list (e.g. values a table cannot tell from empty); may be null.
   void (*extra_losses)(const document& doc, std::vector<std::string>& losses);
+  /// Attribute and metadata keys the format carries even without annotation_attributes or
+  /// metadata: those starting with `own_prefix` (checked by extra_losses) and `own_keys`.
+  std::string_view own_prefix = {};
+  std::span<const std::string_view> own_keys = {};
+  /// Invalid UTF-8 is replaced by U+FFFD with a warning, as the format's spec says, instead
+  /// of rejecting the file.
+  bool replaces_invalid_utf8 = false;
 };
 
 /// Every format, in a fixed order.
@@ -118,6 +128,13 @@ std::vector<const format*> sniff_formats(std::string_view head);
 /// diagnostic (line, column, and `file` set to `file_name`).
 read_result read_document(std::string_view input, const format& fmt, const read_options& options,
                           std::string_view file_name = {});
+
+inline constexpr std::size_t no_tier = static_cast<std::size_t>(-1);
+
+/// For a format that holds one tier plus its inline words (feature::inline_words): the index
+/// of the tier it writes as the first tier's word timings — the first tier whose parent is the
+/// first tier, with relation `within` — or no_tier.
+std::size_t word_tier_index(const document& doc, const format& fmt);
 
 /// Everything in `doc` that `fmt` cannot carry, one line each (e.g. "confidence of 812
 /// annotations in tier 'words'"). Empty when writing loses nothing.

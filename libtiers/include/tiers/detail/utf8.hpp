@@ -16,4 +16,8 @@ std::size_t find_invalid_utf8(std::string_view text);
 /// bytes), the name of that encoding; else empty.
 std::string_view wide_encoding(std::string_view text);
 
+/// `text` with every maximal invalid subsequence replaced by U+FFFD (WHATWG Encoding, "UTF-8
+/// decode"); `replaced` counts them.
+std::string repair_utf8(std::string_view text, std::size_t& replaced);
+
 }  // namespace tiers::detail

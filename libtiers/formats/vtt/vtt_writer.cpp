@@ -1,0 +1,346 @@
+// Writes conforming WebVTT: one plan, shared with the loss report, decides for every cue what
+// is written and what cannot be, so that the writer never drops anything the report omits.
+#include <algorithm>
+#include <map>
+
+#include "tiers/detail/report.hpp"
+#include "vtt_format.hpp"
+#include "vtt_syntax.hpp"
+
+namespace tiers::detail {
+namespace {
+
+using namespace vtt;
+
+constexpr time_ns ms = 1'000'000;
+
+bool has_blank_line(std::string_view s) {
+  return s.empty()
+             ? false
+             : s.front() == '\n' || s.back() == '\n' || s.find("\n\n") != std::string_view::npos;
+}
+
+bool starts_with_word(std::string_view text, std::string_view word) {
+  return text.substr(0, word.size()) == word &&
+         (text.size() == word.size() || text[word.size()] == ' ' || text[word.size()] == '\t' ||
+          text[word.size()] == '\n');
+}
+
+// Blocks of comments, separated by one blank line, each a NOTE without "-->" (§4.1).
+bool valid_notes(std::string_view notes) {
+  if (notes.find("-->") != std::string_view::npos || notes.find('\r') != std::string_view::npos ||
+      notes.find('\0') != std::string_view::npos)
+    return false;
+  std::size_t begin = 0;
+  for (;;) {
+    const std::size_t end = notes.find("\n\n", begin);
+    const std::string_view block = notes.substr(begin, end - begin);
+    if (!starts_with_word(block, "NOTE") || block.empty() || block.back() == '\n') return false;
+    if (end == std::string_view::npos) return true;
+    begin = end + 2;
+  }
+}
+
+// What the plan holds for one cue.
+struct planned_cue {
+  std::size_t index;  // in the cue tier
+  std::string id;     // empty: no identifier line
+  std::string timing;
+  std::string body;
+  std::string notes;
+};
+
+struct vtt_plan {
+  std::string header;  // after "WEBVTT", possibly with header lines
+  std::string prelude, trailer;
+  std::vector<planned_cue> cues;
+  std::map<std::string, std::size_t> problems;  // reason → how many annotations
+  std::vector<std::string> other;               // losses that are not counted per annotation
+};
+
+// Cue text with inline timestamps before each word that starts after the cue, when the
+// words spell the text in order; empty when they do not.
+std::optional<std::string> karaoke(const annotation& cue,
+                                   const std::vector<const annotation*>& words) {
+  std::string out;
+  std::size_t pos = 0;
+  const std::string_view text = cue.text;
+  for (const annotation* w : words) {
+    std::size_t skip = pos;
+    while (skip < text.size() && is_space(text[skip]))
+      ++skip;
+    append_escaped(out, text.substr(pos, skip - pos));
+    if (w->text.empty() || text.substr(skip, w->text.size()) != w->text) return std::nullopt;
+    if (w->start != cue.start) out += "<" + format_timestamp(w->start) + ">";
+    append_escaped(out, w->text);
+    pos = skip + w->text.size();
+  }
+  if (text.substr(pos).find_first_not_of(" \t\n\f\r") != std::string_view::npos)
+    return std::nullopt;
+  append_escaped(out, text.substr(pos));
+  return out;
+}
+
+vtt_plan plan(const document& doc) {
+  vtt_plan p;
+  auto meta = [&](std::string_view key) -> const std::string* {
+    auto it = doc.metadata.find(key);
+    return it == doc.metadata.end() ? nullptr : &it->second;
+  };
+  for (const auto& [key, value] : doc.metadata)
+    if (key.rfind("vtt:", 0) == 0 && key != "vtt:header" && key != "vtt:prelude" &&
+        key != "vtt:trailer")
+      p.other.push_back("document metadata " + quote_name(key) +
+                        " (not a WebVTT header, prelude or trailer)");
+  if (const std::string* h = meta("vtt:header")) {
+    // The rest of the signature line, then optionally header lines (no blank line among them).
+    const std::string_view first = std::string_view(*h).substr(0, h->find('\n'));
+    const std::string_view lines =
+        h->size() > first.size() ? std::string_view(*h).substr(first.size() + 1) : "";
+    const bool ok = (first.empty() || first[0] == ' ' || first[0] == '\t') &&
+                    h->find("-->") == std::string::npos && h->find('\r') == std::string::npos &&
+                    h->find('\0') == std::string::npos &&
+                    (h->size() == first.size() || (!lines.empty() && !has_blank_line(lines)));
+    if (ok)
+      p.header = *h;
+    else
+      p.other.push_back("the WebVTT header text (it would not read back as a header)");
+  }
+  std::vector<std::string> regions;
+  if (const std::string* pre = meta("vtt:prelude")) {
+    bool ok = pre->find('\r') == std::string::npos && pre->find('\0') == std::string::npos &&
+              pre->find("-->") == std::string::npos && !pre->empty() && pre->back() != '\n' &&
+              pre->front() != '\n';
+    for (std::size_t begin = 0; ok;) {
+      const std::size_t end = pre->find("\n\n", begin);
+      const std::string_view block = std::string_view(*pre).substr(begin, end - begin);
+      const bool style = block.rfind("STYLE", 0) == 0, region = block.rfind("REGION", 0) == 0;
+      ok = !block.empty() && block.front() != '\n' &&
+           (style || region || starts_with_word(block, "NOTE"));
+      if (ok && region) {
+        const std::size_t nl = block.find('\n');
+        if (nl != std::string_view::npos)
+          if (auto id = region_identifier(block.substr(nl + 1))) regions.push_back(*id);
+      }
+      if (end == std::string_view::npos) break;
+      begin = end + 2;
+    }
+    if (ok)
+      p.prelude = *pre;
+    else
+      p.other.push_back("the WebVTT styles, regions and comments before the cues (malformed)");
+  }
+  if (const std::string* trailer = meta("vtt:trailer")) {
+    if (valid_notes(*trailer))
+      p.trailer = *trailer;
+    else
+      p.other.push_back("the WebVTT comments after the cues (malformed)");
+  }
+  if (doc.tiers.empty()) return p;
+
+  const format* vtt_format = find_format("vtt");
+  const std::size_t words_index = vtt_format ? word_tier_index(doc, *vtt_format) : no_tier;
+  const tier& cues = doc.tiers.front();
+  const tier* words = words_index == no_tier ? nullptr : &doc.tiers[words_index];
+  auto problem = [&](const std::string& reason) { ++p.problems[reason]; };
+
+  std::vector<std::size_t> order(cues.annotations.size());
+  for (std::size_t k = 0; k < order.size(); ++k)
+    order[k] = k;
+  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+    return cues.annotations[a].start < cues.annotations[b].start;
+  });
+
+  // Words go to the cue that contains them (start within [cue start, cue end)).
+  std::vector<std::vector<const annotation*>> words_in(cues.annotations.size());
+  if (words) {
+    std::vector<const annotation*> sorted;
+    for (const annotation& w : words->annotations)
+      sorted.push_back(&w);
+    std::stable_sort(sorted.begin(), sorted.end(),
+                     [](const annotation* a, const annotation* b) { return a->start < b->start; });
+    std::size_t next = 0;
+    for (std::size_t k : order) {
+      const annotation& c = cues.annotations[k];
+      while (next < sorted.size() && sorted[next]->start < c.start) {
+        problem("word timings outside every cue");
+        ++next;
+      }
+      while (next < sorted.size() && sorted[next]->start < c.end && sorted[next]->end <= c.end)
+        words_in[k].push_back(sorted[next++]);
+    }
+    for (; next < sorted.size(); ++next)
+      problem("word timings outside every cue");
+    for (const annotation* w : sorted)
+      if (w->id || w->markup || w->parent || !w->attributes.empty())
+        problem("ids, markup or attributes of word timings");
+    if (words->name != cues.name + ".words")
+      p.other.push_back("the name of the word tier " + quote_name(words->name) + " (read back as " +
+                        quote_name(cues.name + ".words") + ")");
+  }
+
+  std::vector<std::string_view> ids;
+  for (std::size_t k : order) {
+    const annotation& a = cues.annotations[k];
+    planned_cue c;
+    c.index = k;
+    if (a.start % ms != 0 || a.end % ms != 0) problem("times finer than a millisecond");
+    if (a.start < 0 || a.end < 0) problem("negative times");
+    // A cue that ends before it starts breaks an authoring rule, but parsers keep it, and so
+    // does the writer: it is data, and `tiers check` reports it.
+    c.timing = format_timestamp(std::max<time_ns>(a.start, 0) / ms * ms) + " --> " +
+               format_timestamp(std::max<time_ns>(a.end, 0) / ms * ms);
+    if (a.id) {
+      const bool ok = !a.id->empty() && a.id->find_first_of("\r\n") == std::string::npos &&
+                      a.id->find("-->") == std::string::npos &&
+                      a.id->find('\0') == std::string::npos;
+      const bool repeated = std::find(ids.begin(), ids.end(), *a.id) != ids.end();
+      if (!ok)
+        problem("ids that WebVTT cannot hold (empty, or with a line break or '-->')");
+      else if (repeated)
+        problem("repeated ids (WebVTT identifiers are unique)");
+      else
+        c.id = *a.id, ids.push_back(*a.id);
+    }
+    // Settings, in a fixed order that keeps a region (§6.3).
+    std::string settings;
+    for (std::string_view name : setting_names)
+      if (auto it = a.attributes.find("vtt:" + std::string(name)); it != a.attributes.end())
+        settings += " " + std::string(name) + ":" + it->second;
+    const settings_result parsed = parse_settings(settings, regions);
+    if (!parsed.rejected.empty()) problem("cue settings that WebVTT would drop");
+    for (const setting& s : parsed.accepted)
+      c.timing += " " + std::string(s.name) + ":" + std::string(s.value);
+    for (const auto& [key, value] : a.attributes) {
+      if (key.rfind("vtt:", 0) != 0) continue;
+      const std::string_view name = std::string_view(key).substr(4);
+      if (name != "note" && std::find(std::begin(setting_names), std::end(setting_names), name) ==
+                                std::end(setting_names))
+        problem("attributes " + quote_name(key) + " (not a WebVTT cue setting)");
+    }
+    if (auto it = a.attributes.find("vtt:note"); it != a.attributes.end()) {
+      if (valid_notes(it->second))
+        c.notes = it->second;
+      else
+        problem("malformed comments before cues");
+    }
+
+    const auto speaker = a.attributes.find("speaker");
+    bool markup_ok = false;
+    cue_text parsed_markup;
+    if (a.markup) {
+      parsed_markup = parse_cue_text(*a.markup);
+      markup_ok = !has_blank_line(*a.markup) && a.markup->find('\r') == std::string::npos &&
+                  a.markup->find('\0') == std::string::npos &&
+                  a.markup->find("-->") == std::string::npos && parsed_markup.plain == a.text &&
+                  (speaker == a.attributes.end() ? !parsed_markup.voice
+                                                 : parsed_markup.voice == speaker->second);
+      if (!markup_ok) problem("markup that no longer matches the text or speaker");
+    }
+    if (markup_ok) {
+      c.body = *a.markup;
+      if (words) {
+        const std::vector<annotation> derived = timed_words(parsed_markup, a.start, a.end);
+        bool same = derived.size() == words_in[k].size();
+        for (std::size_t w = 0; same && w < derived.size(); ++w)
+          same = derived[w].start == words_in[k][w]->start &&
+                 derived[w].end == words_in[k][w]->end && derived[w].text == words_in[k][w]->text;
+        if (!same && !words_in[k].empty())
+          problem("word timings that differ from the cue's own timestamps");
+      }
+    } else {
+      if (has_blank_line(a.text) || a.text.find('\r') != std::string::npos ||
+          a.text.find('\0') != std::string::npos)
+        problem("text with blank lines, carriage returns or NUL, which WebVTT cannot hold");
+      std::string body;
+      std::optional<std::string> timed;
+      if (!words_in[k].empty()) {
+        timed = karaoke(a, words_in[k]);
+        bool ends_ok = timed.has_value();
+        for (std::size_t w = 0; ends_ok && w < words_in[k].size(); ++w) {
+          const time_ns next = w + 1 < words_in[k].size() ? words_in[k][w + 1]->start : a.end;
+          const time_ns start = words_in[k][w]->start;
+          const time_ns previous = w == 0 ? a.start : words_in[k][w - 1]->start;
+          ends_ok = words_in[k][w]->end == next && start % ms == 0 &&
+                    (w == 0 ? start >= a.start : start > previous);
+        }
+        if (!timed)
+          problem("word timings that do not spell their cue's text");
+        else if (!ends_ok)
+          problem("word timings that karaoke timestamps cannot hold (they mark starts only)");
+      }
+      if (timed) {
+        body = *timed;
+      } else {
+        append_escaped(body, a.text);
+      }
+      if (speaker != a.attributes.end()) {
+        std::string name;
+        append_escaped(name, speaker->second);
+        std::string collapsed;
+        for (char ch : speaker->second)
+          if (!is_space(ch) || (!collapsed.empty() && collapsed.back() != ' '))
+            collapsed += is_space(ch) ? ' ' : ch;
+        if (collapsed != speaker->second || speaker->second.empty())
+          problem("speakers with white space WebVTT collapses");
+        body = "<v " + name + ">" + body;
+      }
+      // A cue text with blank lines would end the cue early: keep the lines that have text.
+      std::string compact;
+      for (std::size_t i = 0; i < body.size(); ++i) {
+        char ch = body[i] == '\r' ? '\n' : body[i];
+        if (ch == '\0') {
+          compact += "\xEF\xBF\xBD";
+          continue;
+        }
+        if (ch == '\n' && (compact.empty() || compact.back() == '\n')) continue;
+        compact += ch;
+      }
+      while (!compact.empty() && compact.back() == '\n')
+        compact.pop_back();
+      c.body = std::move(compact);
+    }
+    p.cues.push_back(std::move(c));
+  }
+  return p;
+}
+
+}  // namespace
+
+void write_vtt(const document& doc, byte_sink& out, const write_options&) {
+  const vtt_plan p = plan(doc);
+  out.write("WEBVTT");
+  out.write(p.header);
+  out.write("\n");
+  auto block = [&](std::string_view text) {
+    out.write("\n");
+    out.write(text);
+    out.write("\n");
+  };
+  if (!p.prelude.empty()) block(p.prelude);
+  for (const planned_cue& c : p.cues) {
+    if (!c.notes.empty()) block(c.notes);
+    out.write("\n");
+    if (!c.id.empty()) {
+      out.write(c.id);
+      out.write("\n");
+    }
+    out.write(c.timing);
+    out.write("\n");
+    if (!c.body.empty()) {
+      out.write(c.body);
+      out.write("\n");
+    }
+  }
+  if (!p.trailer.empty()) block(p.trailer);
+}
+
+void vtt_losses(const document& doc, std::vector<std::string>& losses) {
+  const vtt_plan p = plan(doc);
+  const std::string where = doc.tiers.empty() ? "" : " in tier " + quote_name(doc.tiers[0].name);
+  for (const auto& [reason, n] : p.problems)
+    losses.push_back(reason + " (" + plural(n, "annotation", "annotations") + where + ")");
+  losses.insert(losses.end(), p.other.begin(), p.other.end());
+}
+
+}  // namespace tiers::detail
