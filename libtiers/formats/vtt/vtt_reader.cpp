@@ -1,6 +1,7 @@
 // Reads WebVTT by the W3C specification's parser algorithm (§6.1 "WebVTT parser algorithm"
 // and "collect a WebVTT block"), from the input buffer, one line view at a time.
 #include <algorithm>
+#include <unordered_set>
 
 #include "tiers/detail/report.hpp"
 #include "vtt_format.hpp"
@@ -62,7 +63,7 @@ class vtt_reader {
   std::vector<std::string> regions_;
   std::string prelude_, pending_notes_, header_;
   time_ns last_start_ = 0;
-  std::vector<std::string> ids_;
+  std::unordered_set<std::string> ids_;
 };
 
 void vtt_reader::run() {
@@ -261,10 +262,9 @@ void vtt_reader::finish_cue(annotation& cue, std::string_view settings, std::siz
     authoring("vtt.empty", timing_offset, "cue does not end after it starts");
   last_start_ = cue.start;
   if (cue.id) {
-    if (std::find(ids_.begin(), ids_.end(), *cue.id) != ids_.end())
+    if (!ids_.insert(*cue.id).second)
       authoring("vtt.id", timing_offset,
                 "cue identifier " + quote_name(*cue.id) + " is not unique");
-    ids_.push_back(*cue.id);
   }
 
   cue_text parsed_text = parse_cue_text(cue.text);

@@ -2,6 +2,7 @@
 // is written and what cannot be, so that the writer never drops anything the report omits.
 #include <algorithm>
 #include <map>
+#include <unordered_set>
 
 #include "tiers/detail/report.hpp"
 #include "vtt_format.hpp"
@@ -179,7 +180,7 @@ vtt_plan plan(const document& doc) {
                         quote_name(cues.name + ".words") + ")");
   }
 
-  std::vector<std::string_view> ids;
+  std::unordered_set<std::string_view> ids;
   for (std::size_t k : order) {
     const annotation& a = cues.annotations[k];
     planned_cue c;
@@ -194,13 +195,13 @@ vtt_plan plan(const document& doc) {
       const bool ok = !a.id->empty() && a.id->find_first_of("\r\n") == std::string::npos &&
                       a.id->find("-->") == std::string::npos &&
                       a.id->find('\0') == std::string::npos;
-      const bool repeated = std::find(ids.begin(), ids.end(), *a.id) != ids.end();
+      const bool repeated = ids.count(*a.id) != 0;
       if (!ok)
         problem("ids that WebVTT cannot hold (empty, or with a line break or '-->')");
       else if (repeated)
         problem("repeated ids (WebVTT identifiers are unique)");
       else
-        c.id = *a.id, ids.push_back(*a.id);
+        c.id = *a.id, ids.insert(*a.id);
     }
     // Settings, in a fixed order that keeps a region (§6.3).
     std::string settings;
