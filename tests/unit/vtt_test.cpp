@@ -299,3 +299,50 @@ TEST_CASE("vtt with invalid UTF-8 is decoded with replacement, as the specificat
   CHECK(r.diagnostics[0].line == 4);
   CHECK(r.diagnostics[0].column == 4);
 }
+
+TEST_CASE("vtt reads the specification's style-block example", "[vtt]") {
+  // Source: W3C WebVTT, index.bs, section "Styling captions" (id=styling), the example of
+  // style blocks in a file, verbatim.
+  const std::string example =
+      "WEBVTT\n\nSTYLE\n::cue {\n  background-image: linear-gradient(to bottom, dimgray, "
+      "lightgray);\n  color: papayawhip;\n}\n/* Style blocks cannot use blank lines nor \"dash "
+      "dash greater than\" */\n\nNOTE comment blocks can be used between style blocks.\n\n"
+      "STYLE\n::cue(b) {\n  color: peachpuff;\n}\n\nhello\n00:00:00.000 --> 00:00:10.000\nHello "
+      "<b>world</b>.\n\nNOTE style blocks cannot appear after the first cue.\n";
+  const document doc = read_as("vtt", example);
+  REQUIRE(doc.tiers.at(0).annotations.size() == 1);
+  CHECK(cue(doc, 0).id == "hello");
+  CHECK(cue(doc, 0).end == 10 * ns_per_second);
+  CHECK(cue(doc, 0).text == "Hello world.");
+  CHECK(cue(doc, 0).markup == "Hello <b>world</b>.");
+  CHECK(doc.metadata.at("vtt:prelude").find("NOTE comment blocks") != std::string::npos);
+  CHECK(doc.metadata.at("vtt:trailer") == "NOTE style blocks cannot appear after the first cue.");
+  CHECK(write_as("vtt", doc) == example);
+}
+
+TEST_CASE("speaker tiers join into one tier of voices", "[vtt][voices]") {
+  document doc;
+  for (const char* name : {"Ana", "Bo"}) {
+    tier& t = doc.tiers.emplace_back();
+    t.name = name;
+    t.kind = std::string_view(name) == "Bo" ? tier_kind::point : tier_kind::interval;
+  }
+  annotation a;
+  a.start = 2 * ns_per_second;
+  a.end = 3 * ns_per_second;
+  a.text = "second";
+  doc.tiers[0].annotations = {a};
+  a.start = 1 * ns_per_second;
+  a.text = "first";
+  a.attributes = {{"speaker", "Bo (off screen)"}};
+  doc.tiers[1].annotations = {a};
+  std::vector<std::string> losses;
+  const document joined = join_as_voices(doc, "dialogue", losses);
+  REQUIRE(joined.tiers.size() == 1);
+  CHECK(joined.tiers[0].name == "dialogue");
+  CHECK(joined.tiers[0].annotations[0].text == "first");
+  CHECK(joined.tiers[0].annotations[0].attributes.at("speaker") == "Bo (off screen)");
+  CHECK(joined.tiers[0].annotations[1].attributes.at("speaker") == "Ana");
+  CHECK(losses == std::vector<std::string>{
+                      "the point kind of tier 'Bo' (joined into the voices of 'dialogue')"});
+}

@@ -7,6 +7,7 @@
 
 #include "tiers/detail/report.hpp"
 #include "tiers/io.hpp"
+#include "tiers/voices.hpp"
 
 namespace tiers::cli {
 
@@ -26,6 +27,9 @@ CLI::App* setup_convert(CLI::App& app, convert_options& o) {
   cmd->add_flag(
       "--allow-loss", o.allow_loss,
       "Convert even when the output format cannot carry everything; lists what is dropped");
+  cmd->add_flag("--voices", o.voices,
+                "Join the (selected) tiers into one tier of cues whose speaker is their tier's "
+                "name; WebVTT writes them as voice spans");
   add_input_options(*cmd, o.input);
   return cmd;
 }
@@ -69,7 +73,15 @@ int run_convert(const convert_options& o) {
   const std::string file = display_name(o.input.path);
   keep_tiers(doc, o.tiers, file);
 
-  std::vector<std::string> losses = find_losses(doc, to);
+  std::vector<std::string> losses;
+  if (o.voices) {
+    const std::string name = o.output.empty() || o.output == "-"
+                                 ? std::string("voices")
+                                 : std::filesystem::path(o.output).stem().string();
+    doc = join_as_voices(doc, name, losses);
+  }
+  for (std::string& loss : find_losses(doc, to))
+    losses.push_back(std::move(loss));
   // A one-tier format keeps no tier name: read back, the tier is named after the file.
   if (!to.carries.has(feature::several_tiers) && !doc.tiers.empty() && !o.output.empty() &&
       o.output != "-") {

@@ -15,6 +15,7 @@ struct convert_options {
   std::string to;
   std::vector<std::string> tiers;
   bool allow_loss = false;
+  bool voices = false;
 };
 
 /// Adds the subcommand to `app`; its options land in `options`.

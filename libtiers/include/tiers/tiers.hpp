@@ -9,3 +9,4 @@
 #include "tiers/sink.hpp"
 #include "tiers/time.hpp"
 #include "tiers/version.hpp"
+#include "tiers/voices.hpp"
