@@ -2,6 +2,7 @@
 // is written and what cannot be, so that the writer never drops anything the report omits.
 #include <algorithm>
 #include <map>
+#include <tuple>
 #include <unordered_set>
 
 #include "tiers/detail/report.hpp"
@@ -152,29 +153,59 @@ vtt_plan plan(const document& doc) {
     return cues.annotations[a].start < cues.annotations[b].start;
   });
 
-  // Words go to the cue that contains them (start within [cue start, cue end)).
-  std::vector<std::vector<const annotation*>> words_in(cues.annotations.size());
+  // Markup is written as it is when it still spells the cue's text and speaker.
+  const std::size_t n = cues.annotations.size();
+  std::vector<std::optional<cue_text>> markup(n);
+  for (std::size_t k = 0; k < n; ++k) {
+    const annotation& a = cues.annotations[k];
+    if (!a.markup) continue;
+    cue_text parsed = parse_cue_text(*a.markup);
+    const auto speaker = a.attributes.find("speaker");
+    const bool ok =
+        !has_blank_line(*a.markup) && a.markup->find('\r') == std::string::npos &&
+        a.markup->find('\0') == std::string::npos && a.markup->find("-->") == std::string::npos &&
+        parsed.plain == a.text &&
+        (speaker == a.attributes.end() ? !parsed.voice : parsed.voice == speaker->second);
+    if (ok)
+      markup[k] = std::move(parsed);
+    else
+      problem("markup that no longer matches the text or speaker");
+  }
+
+  // Words go to cues in two passes: first those that a cue's own markup yields, exactly as the
+  // reader derives them; then, for cues written from their text, the remaining words inside
+  // the latest cue that starts at or before them. What is left has no cue to go in.
+  std::vector<std::vector<const annotation*>> words_in(n);
   if (words) {
-    std::vector<const annotation*> sorted;
-    for (const annotation& w : words->annotations)
-      sorted.push_back(&w);
-    std::stable_sort(sorted.begin(), sorted.end(),
-                     [](const annotation* a, const annotation* b) { return a->start < b->start; });
-    std::size_t next = 0;
-    for (std::size_t k : order) {
-      const annotation& c = cues.annotations[k];
-      while (next < sorted.size() && sorted[next]->start < c.start) {
-        problem("word timings outside every cue");
-        ++next;
-      }
-      while (next < sorted.size() && sorted[next]->start < c.end && sorted[next]->end <= c.end)
-        words_in[k].push_back(sorted[next++]);
-    }
-    for (; next < sorted.size(); ++next)
-      problem("word timings outside every cue");
-    for (const annotation* w : sorted)
-      if (w->id || w->markup || w->parent || !w->attributes.empty())
+    using word_key = std::tuple<time_ns, time_ns, std::string_view>;
+    std::multimap<word_key, const annotation*> pool;
+    for (const annotation& w : words->annotations) {
+      pool.emplace(word_key{w.start, w.end, w.text}, &w);
+      if (w.id || w.markup || w.parent || !w.attributes.empty())
         problem("ids, markup or attributes of word timings");
+    }
+    for (std::size_t k = 0; k < n; ++k) {
+      if (!markup[k]) continue;
+      const annotation& c = cues.annotations[k];
+      for (const annotation& d : timed_words(*markup[k], c.start, c.end))
+        if (auto it = pool.find(word_key{d.start, d.end, d.text}); it != pool.end()) {
+          words_in[k].push_back(it->second);
+          pool.erase(it);
+        }
+    }
+    std::vector<time_ns> starts;
+    for (std::size_t k : order)
+      starts.push_back(cues.annotations[k].start);
+    for (const auto& [key, w] : pool) {
+      const auto after = std::upper_bound(starts.begin(), starts.end(), w->start);
+      const std::size_t k = after == starts.begin()
+                                ? no_tier
+                                : order[static_cast<std::size_t>(after - starts.begin()) - 1];
+      if (k != no_tier && !markup[k] && w->end <= cues.annotations[k].end)
+        words_in[k].push_back(w);
+      else
+        problem("word timings outside every cue, or unlike their cue's own timestamps");
+    }
     if (words->name != cues.name + ".words")
       p.other.push_back("the name of the word tier " + quote_name(words->name) + " (read back as " +
                         quote_name(cues.name + ".words") + ")");
@@ -227,28 +258,8 @@ vtt_plan plan(const document& doc) {
     }
 
     const auto speaker = a.attributes.find("speaker");
-    bool markup_ok = false;
-    cue_text parsed_markup;
-    if (a.markup) {
-      parsed_markup = parse_cue_text(*a.markup);
-      markup_ok = !has_blank_line(*a.markup) && a.markup->find('\r') == std::string::npos &&
-                  a.markup->find('\0') == std::string::npos &&
-                  a.markup->find("-->") == std::string::npos && parsed_markup.plain == a.text &&
-                  (speaker == a.attributes.end() ? !parsed_markup.voice
-                                                 : parsed_markup.voice == speaker->second);
-      if (!markup_ok) problem("markup that no longer matches the text or speaker");
-    }
-    if (markup_ok) {
+    if (markup[k]) {
       c.body = *a.markup;
-      if (words) {
-        const std::vector<annotation> derived = timed_words(parsed_markup, a.start, a.end);
-        bool same = derived.size() == words_in[k].size();
-        for (std::size_t w = 0; same && w < derived.size(); ++w)
-          same = derived[w].start == words_in[k][w]->start &&
-                 derived[w].end == words_in[k][w]->end && derived[w].text == words_in[k][w]->text;
-        if (!same && !words_in[k].empty())
-          problem("word timings that differ from the cue's own timestamps");
-      }
     } else {
       if (has_blank_line(a.text) || a.text.find('\r') != std::string::npos ||
           a.text.find('\0') != std::string::npos)
