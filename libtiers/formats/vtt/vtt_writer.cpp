@@ -1,6 +1,7 @@
 // Writes conforming WebVTT: one plan, shared with the loss report, decides for every cue what
 // is written and what cannot be, so that the writer never drops anything the report omits.
 #include <algorithm>
+#include <functional>
 #include <map>
 #include <tuple>
 #include <unordered_set>
@@ -45,8 +46,7 @@ bool valid_notes(std::string_view notes) {
 
 // What the plan holds for one cue.
 struct planned_cue {
-  std::size_t index;  // in the cue tier
-  std::string id;     // empty: no identifier line
+  std::string id;  // empty: no identifier line
   std::string timing;
   std::string body;
   std::string notes;
@@ -81,6 +81,62 @@ std::optional<std::string> karaoke(const annotation& cue,
     return std::nullopt;
   append_escaped(out, text.substr(pos));
   return out;
+}
+
+// The cue text for a cue written from its plain text: escaped, its speaker as a voice span,
+// its words as inline timestamps when they spell the text; blank lines removed.
+std::string text_body(const annotation& a, const std::vector<const annotation*>& words,
+                      const std::function<void(const std::string&)>& problem) {
+  if (has_blank_line(a.text) || a.text.find('\r') != std::string::npos ||
+      a.text.find('\0') != std::string::npos)
+    problem("text with blank lines, carriage returns or NUL, which WebVTT cannot hold");
+  std::optional<std::string> timed;
+  if (!words.empty()) {
+    timed = karaoke(a, words);
+    bool ends_ok = timed.has_value();
+    for (std::size_t w = 0; ends_ok && w < words.size(); ++w) {
+      const time_ns next = w + 1 < words.size() ? words[w + 1]->start : a.end;
+      const time_ns start = words[w]->start;
+      const time_ns previous = w == 0 ? a.start : words[w - 1]->start;
+      ends_ok = words[w]->end == next && start % ms == 0 &&
+                (w == 0 ? start >= a.start : start > previous);
+    }
+    if (!timed)
+      problem("word timings that do not spell their cue's text");
+    else if (!ends_ok)
+      problem("word timings that karaoke timestamps cannot hold (they mark starts only)");
+  }
+  std::string body;
+  if (timed)
+    body = std::move(*timed);
+  else
+    append_escaped(body, a.text);
+  if (auto speaker = a.attributes.find("speaker"); speaker != a.attributes.end()) {
+    // The tokenizer trims and collapses white space in a voice's name (§6.4).
+    std::string collapsed;
+    for (char ch : speaker->second)
+      if (!is_space(ch) || (!collapsed.empty() && collapsed.back() != ' '))
+        collapsed += is_space(ch) ? ' ' : ch;
+    if (collapsed != speaker->second || speaker->second.empty())
+      problem("speakers with white space WebVTT collapses");
+    std::string name;
+    append_escaped(name, speaker->second);
+    body = "<v " + name + ">" + body;
+  }
+  // A blank line would end the cue early: keep the lines that have text.
+  std::string compact;
+  for (char ch : body) {
+    if (ch == '\r') ch = '\n';
+    if (ch == '\0') {
+      compact += "\xEF\xBF\xBD";
+      continue;
+    }
+    if (ch == '\n' && (compact.empty() || compact.back() == '\n')) continue;
+    compact += ch;
+  }
+  while (!compact.empty() && compact.back() == '\n')
+    compact.pop_back();
+  return compact;
 }
 
 vtt_plan plan(const document& doc) {
@@ -215,7 +271,6 @@ vtt_plan plan(const document& doc) {
   for (std::size_t k : order) {
     const annotation& a = cues.annotations[k];
     planned_cue c;
-    c.index = k;
     if (a.start % ms != 0 || a.end % ms != 0) problem("times finer than a millisecond");
     if (a.start < 0 || a.end < 0) problem("negative times");
     // A cue that ends before it starts breaks an authoring rule, but parsers keep it, and so
@@ -257,60 +312,10 @@ vtt_plan plan(const document& doc) {
         problem("malformed comments before cues");
     }
 
-    const auto speaker = a.attributes.find("speaker");
     if (markup[k]) {
       c.body = *a.markup;
     } else {
-      if (has_blank_line(a.text) || a.text.find('\r') != std::string::npos ||
-          a.text.find('\0') != std::string::npos)
-        problem("text with blank lines, carriage returns or NUL, which WebVTT cannot hold");
-      std::string body;
-      std::optional<std::string> timed;
-      if (!words_in[k].empty()) {
-        timed = karaoke(a, words_in[k]);
-        bool ends_ok = timed.has_value();
-        for (std::size_t w = 0; ends_ok && w < words_in[k].size(); ++w) {
-          const time_ns next = w + 1 < words_in[k].size() ? words_in[k][w + 1]->start : a.end;
-          const time_ns start = words_in[k][w]->start;
-          const time_ns previous = w == 0 ? a.start : words_in[k][w - 1]->start;
-          ends_ok = words_in[k][w]->end == next && start % ms == 0 &&
-                    (w == 0 ? start >= a.start : start > previous);
-        }
-        if (!timed)
-          problem("word timings that do not spell their cue's text");
-        else if (!ends_ok)
-          problem("word timings that karaoke timestamps cannot hold (they mark starts only)");
-      }
-      if (timed) {
-        body = *timed;
-      } else {
-        append_escaped(body, a.text);
-      }
-      if (speaker != a.attributes.end()) {
-        std::string name;
-        append_escaped(name, speaker->second);
-        std::string collapsed;
-        for (char ch : speaker->second)
-          if (!is_space(ch) || (!collapsed.empty() && collapsed.back() != ' '))
-            collapsed += is_space(ch) ? ' ' : ch;
-        if (collapsed != speaker->second || speaker->second.empty())
-          problem("speakers with white space WebVTT collapses");
-        body = "<v " + name + ">" + body;
-      }
-      // A cue text with blank lines would end the cue early: keep the lines that have text.
-      std::string compact;
-      for (std::size_t i = 0; i < body.size(); ++i) {
-        char ch = body[i] == '\r' ? '\n' : body[i];
-        if (ch == '\0') {
-          compact += "\xEF\xBF\xBD";
-          continue;
-        }
-        if (ch == '\n' && (compact.empty() || compact.back() == '\n')) continue;
-        compact += ch;
-      }
-      while (!compact.empty() && compact.back() == '\n')
-        compact.pop_back();
-      c.body = std::move(compact);
+      c.body = text_body(a, words_in[k], problem);
     }
     p.cues.push_back(std::move(c));
   }
