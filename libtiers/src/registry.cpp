@@ -5,6 +5,7 @@
 
 #include "../formats/csv/csv_format.hpp"
 #include "../formats/json/json_format.hpp"
+#include "../formats/tiers/tiers_format.hpp"
 #include "../formats/vtt/vtt_format.hpp"
 #include "tiers/detail/report.hpp"
 #include "tiers/detail/utf8.hpp"
@@ -17,6 +18,7 @@ constexpr std::array<std::string_view, 1> json_extensions{".json"};
 constexpr std::array<std::string_view, 1> csv_extensions{".csv"};
 constexpr std::array<std::string_view, 2> tsv_extensions{".tsv", ".tab"};
 constexpr std::array<std::string_view, 1> vtt_extensions{".vtt"};
+constexpr std::array<std::string_view, 1> tiers_extensions{".tiers"};
 constexpr std::array<std::string_view, 1> vtt_keys{"speaker"};
 
 // Tables keep one row per annotation with a tier column, so they hold several tiers, but no
@@ -31,7 +33,7 @@ constexpr feature_set vtt_features{feature::empty_tiers, feature::markup, featur
                                    feature::inline_words};
 
 // To add a format: write libtiers/formats/<name>/, then add one row here (see DEVELOPERS.md).
-const std::array<format, 4> registry{{
+const std::array<format, 5> registry{{
     {"json", "tiers native JSON (lossless)", json_extensions, feature_set::all(),
      detail::sniff_json, detail::read_json, detail::write_json, nullptr},
     {"csv", "comma-separated values, one row per annotation (RFC 4180)", csv_extensions,
@@ -40,6 +42,9 @@ const std::array<format, 4> registry{{
      detail::sniff_tsv, detail::read_tsv, detail::write_tsv, detail::table_losses},
     {"vtt", "W3C WebVTT captions", vtt_extensions, vtt_features, detail::sniff_vtt,
      detail::read_vtt, detail::write_vtt, detail::vtt_losses, "vtt:", vtt_keys, true},
+    {"tiers", "tiers plain text: one annotation per line (lossless)", tiers_extensions,
+     feature_set::all(), detail::sniff_tiers_text, detail::read_tiers_text,
+     detail::write_tiers_text, nullptr},
 }};
 
 bool ends_with_ignoring_case(std::string_view s, std::string_view suffix) {

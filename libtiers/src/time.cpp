@@ -108,6 +108,32 @@ std::int64_t nominal_fps(rational r) {
   return (r.num + r.den - 1) / r.den;
 }
 
+// |t| without overflow for the most negative value.
+std::uint64_t magnitude(time_ns t) {
+  return t < 0 ? static_cast<std::uint64_t>(-(t + 1)) + 1 : static_cast<std::uint64_t>(t);
+}
+
+// ".25" for 250 ms of nanoseconds: as few digits as exactness needs; empty for zero.
+std::string fraction(std::uint64_t ns) {
+  if (ns == 0) return {};
+  char digits[10] = "000000000";
+  for (int k = 8; k >= 0; --k, ns /= 10)
+    digits[k] = static_cast<char>('0' + ns % 10);
+  int len = 9;
+  while (digits[len - 1] == '0')
+    --len;
+  return "." + std::string(digits, static_cast<std::size_t>(len));
+}
+
+// "01:02:03"; hours grow past two digits when needed.
+std::string hours_minutes_seconds(std::uint64_t secs) {
+  char buf[48];
+  const int n = std::snprintf(
+      buf, sizeof buf, "%02llu:%02llu:%02llu", static_cast<unsigned long long>(secs / 3600),
+      static_cast<unsigned long long>(secs / 60 % 60), static_cast<unsigned long long>(secs % 60));
+  return std::string(buf, static_cast<std::size_t>(n));
+}
+
 }  // namespace
 
 std::optional<rational> parse_rational(std::string_view text) {
@@ -286,23 +312,14 @@ parsed_time parse_timecode(std::string_view text, std::optional<rational> rate,
 }
 
 std::string format_seconds(time_ns t) {
-  const bool negative = t < 0;
-  const auto magnitude =
-      negative ? static_cast<std::uint64_t>(-(t + 1)) + 1 : static_cast<std::uint64_t>(t);
-  std::string s = negative ? "-" : "";
-  s += std::to_string(magnitude / ns_per_second);
-  std::uint64_t frac = magnitude % ns_per_second;
-  if (frac != 0) {
-    char digits[10] = "000000000";
-    for (int k = 8; k >= 0; --k, frac /= 10)
-      digits[k] = static_cast<char>('0' + frac % 10);
-    int len = 9;
-    while (digits[len - 1] == '0')
-      --len;
-    s += '.';
-    s.append(digits, static_cast<std::size_t>(len));
-  }
-  return s;
+  const std::uint64_t m = magnitude(t);
+  return (t < 0 ? "-" : "") + std::to_string(m / ns_per_second) + fraction(m % ns_per_second);
+}
+
+std::string format_clock_exact(time_ns t) {
+  const std::uint64_t m = magnitude(t);
+  return (t < 0 ? "-" : "") + hours_minutes_seconds(m / ns_per_second) +
+         fraction(m % ns_per_second);
 }
 
 std::string format_clock(time_ns t, int decimals) {
@@ -310,24 +327,15 @@ std::string format_clock(time_ns t, int decimals) {
   std::uint64_t unit = 1;
   for (int k = decimals; k < 9; ++k)
     unit *= 10;
-  const bool negative = t < 0;
-  std::uint64_t magnitude =
-      negative ? static_cast<std::uint64_t>(-(t + 1)) + 1 : static_cast<std::uint64_t>(t);
-  magnitude = (magnitude / unit + (magnitude % unit * 2 >= unit ? 1 : 0)) * unit;
-  const std::uint64_t secs = magnitude / ns_per_second;
-  char buf[64];
-  int n = std::snprintf(buf, sizeof buf, "%s%02llu:%02llu:%02llu", negative ? "-" : "",
-                        static_cast<unsigned long long>(secs / 3600),
-                        static_cast<unsigned long long>(secs / 60 % 60),
-                        static_cast<unsigned long long>(secs % 60));
-  std::string s(buf, static_cast<std::size_t>(n));
+  std::uint64_t m = magnitude(t);
+  m = (m / unit + (m % unit * 2 >= unit ? 1 : 0)) * unit;  // rounded at the shown precision
+  std::string s = (t < 0 ? "-" : "") + hours_minutes_seconds(m / ns_per_second);
   if (decimals > 0) {
-    std::uint64_t frac = magnitude % ns_per_second / unit;
+    std::uint64_t frac = m % ns_per_second / unit;
     std::string digits(static_cast<std::size_t>(decimals), '0');
     for (int k = decimals - 1; k >= 0; --k, frac /= 10)
       digits[static_cast<std::size_t>(k)] = static_cast<char>('0' + frac % 10);
-    s += '.';
-    s += digits;
+    s += '.' + digits;
   }
   return s;
 }

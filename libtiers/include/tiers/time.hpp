@@ -77,6 +77,11 @@ parsed_time parse_timecode(std::string_view text, std::optional<rational> rate,
 /// Exact decimal seconds with as few fraction digits as needed: `1.25`, `-0.000000001`, `3`.
 std::string format_seconds(time_ns t);
 
+/// Exact clock time: `01:02:03.25`, `00:00:00.000000001`, `-00:00:01.5`, `100:00:00` —
+/// hours at least two digits, as few fraction digits as needed. Reads back with parse_clock
+/// (after the sign).
+std::string format_clock_exact(time_ns t);
+
 /// Clock time for people: `01:02:03.250` (always hours; `decimals` fraction digits, 0–9,
 /// rounded to the nearest).
 std::string format_clock(time_ns t, int decimals = 3);

@@ -1,4 +1,4 @@
-// UTF-8 validation, shared by every reader.
+// UTF-8 validation, repair and encoding, shared by the readers.
 #pragma once
 
 #include <cstddef>
@@ -19,5 +19,8 @@ std::string_view wide_encoding(std::string_view text);
 /// `text` with every maximal invalid subsequence replaced by U+FFFD (WHATWG Encoding, "UTF-8
 /// decode"); `replaced` counts them.
 std::string repair_utf8(std::string_view text, std::size_t& replaced);
+
+/// Appends code point `cp` (at most U+10FFFF, not a surrogate) as UTF-8.
+void append_utf8(std::string& out, char32_t cp);
 
 }  // namespace tiers::detail
