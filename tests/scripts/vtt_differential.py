@@ -101,11 +101,14 @@ def generate(rng):
     return text
 
 
-def tiers_cues(tiers, path):
+def tiers_cues(tiers, path, json_dir):
     proc = subprocess.run([tiers, "convert", path, "--to", "json", "--tier-name", "t"],
                           capture_output=True)
     if proc.returncode != 0:
         return None, proc.stderr.decode(errors="replace")
+    # Kept for the schema test, which validates every JSON document the suite writes.
+    with open(os.path.join(json_dir, os.path.basename(path) + ".json"), "wb") as fh:
+        fh.write(proc.stdout)
     doc = json.loads(proc.stdout)
     cues = []
     for a in doc["tiers"][0]["annotations"]:
@@ -155,11 +158,13 @@ def main():
     expected = reference_parse(reference, paths)
 
     results = Checklist()
+    json_dir = os.path.join(work, "json")
+    os.makedirs(json_dir, exist_ok=True)
     round_trips = sample_round_trips(tiers, reference, samples, work, results)
     seen = {name: 0 for name in DEPARTURES}
     for path in paths:
         ref = expected[path]
-        ours, errors = tiers_cues(tiers, path)
+        ours, errors = tiers_cues(tiers, path, json_dir)
         signature_error = any(e.startswith("No valid signature") for e in ref["errors"])
         if ours is None:
             # tiers rejected the file: only a bad signature may do that, and the package says so.
