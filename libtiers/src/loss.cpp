@@ -61,6 +61,12 @@ bool owned_key(const format& fmt, std::string_view key) {
   return std::find(fmt.own_keys.begin(), fmt.own_keys.end(), key) != fmt.own_keys.end();
 }
 
+// A word tier that a format with inline words writes inside its parent's annotations.
+bool inline_word_tier(const format& fmt, const tier& t) {
+  return fmt.carries.has(feature::several_tiers) && fmt.carries.has(feature::inline_words) &&
+         t.parent && t.parent->rel == relation::within && t.name == t.parent->tier + ".words";
+}
+
 void feature_losses(const document& doc, const format& fmt, feature f,
                     std::vector<std::string>& out) {
   // A format with inline words carries the first tier's word tier and its parent link.
@@ -93,7 +99,10 @@ void feature_losses(const document& doc, const format& fmt, feature f,
     case feature::tier_parents:
       per_tier(
           doc, "the parent link",
-          [&](const tier& t) { return t.parent.has_value() && &t != words; }, out);
+          [&](const tier& t) {
+            return t.parent.has_value() && &t != words && !inline_word_tier(fmt, t);
+          },
+          out);
       break;
     case feature::vocabularies:
       per_tier(
@@ -101,7 +110,12 @@ void feature_losses(const document& doc, const format& fmt, feature f,
       break;
     case feature::tier_attributes:
       per_tier(
-          doc, "the attributes", [](const tier& t) { return !t.attributes.empty(); }, out);
+          doc, "the attributes",
+          [&](const tier& t) {
+            return std::any_of(t.attributes.begin(), t.attributes.end(),
+                               [&](const auto& kv) { return !owned_key(fmt, kv.first); });
+          },
+          out);
       break;
     case feature::markup:
       per_annotation(
@@ -132,7 +146,8 @@ void feature_losses(const document& doc, const format& fmt, feature f,
       std::vector<std::string> parts;
       if (doc.media.uri) parts.push_back("uri");
       if (doc.media.duration) parts.push_back("duration");
-      if (doc.media.frame_rate) parts.push_back("frame rate");
+      if (doc.media.frame_rate && !fmt.carries.has(feature::frame_rate))
+        parts.push_back("frame rate");
       if (!parts.empty()) {
         std::string s = "media ";
         for (std::size_t k = 0; k < parts.size(); ++k)
@@ -150,6 +165,10 @@ void feature_losses(const document& doc, const format& fmt, feature f,
     }
     case feature::inline_words:
       break;  // widens what several_tiers and tier_parents allow; nothing of its own
+    case feature::frame_rate:
+      if (doc.media.frame_rate && fmt.carries.has(feature::media))
+        out.push_back("media frame rate");
+      break;
   }
 }
 
@@ -198,6 +217,8 @@ std::string_view to_string(feature f) {
       return "metadata";
     case feature::inline_words:
       return "inline-words";
+    case feature::frame_rate:
+      return "frame-rate";
   }
   return "";
 }

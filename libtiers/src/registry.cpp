@@ -6,6 +6,7 @@
 #include "../formats/csv/csv_format.hpp"
 #include "../formats/json/json_format.hpp"
 #include "../formats/tiers/tiers_format.hpp"
+#include "../formats/ttml/ttml_format.hpp"
 #include "../formats/vtt/vtt_format.hpp"
 #include "tiers/detail/report.hpp"
 #include "tiers/detail/utf8.hpp"
@@ -19,6 +20,12 @@ constexpr std::array<std::string_view, 1> csv_extensions{".csv"};
 constexpr std::array<std::string_view, 2> tsv_extensions{".tsv", ".tab"};
 constexpr std::array<std::string_view, 1> vtt_extensions{".vtt"};
 constexpr std::array<std::string_view, 1> tiers_extensions{".tiers"};
+constexpr std::array<std::string_view, 3> ttml_extensions{".ttml", ".dfxp", ".xml"};
+constexpr std::array<std::string_view, 1> ttml_keys{"speaker"};
+// TTML holds every tier as a div, ids and markup, timed spans as word tiers, the frame rate,
+// speakers as agents, and its styles, regions and attributes under `ttml:`.
+constexpr feature_set ttml_features{feature::several_tiers, feature::markup, feature::ids,
+                                    feature::inline_words, feature::frame_rate};
 constexpr std::array<std::string_view, 1> vtt_keys{"speaker"};
 
 // Tables keep one row per annotation with a tier column, so they hold several tiers, but no
@@ -33,7 +40,7 @@ constexpr feature_set vtt_features{feature::empty_tiers, feature::markup, featur
                                    feature::inline_words};
 
 // To add a format: write libtiers/formats/<name>/, then add one row here (see DEVELOPERS.md).
-const std::array<format, 5> registry{{
+const std::array<format, 6> registry{{
     {"json", "tiers native JSON (lossless)", json_extensions, feature_set::all(),
      detail::sniff_json, detail::read_json, detail::write_json, nullptr},
     {"csv", "comma-separated values, one row per annotation (RFC 4180)", csv_extensions,
@@ -45,6 +52,8 @@ const std::array<format, 5> registry{{
     {"tiers", "tiers plain text: one annotation per line (lossless)", tiers_extensions,
      feature_set::all(), detail::sniff_tiers_text, detail::read_tiers_text,
      detail::write_tiers_text, nullptr},
+    {"ttml", "W3C TTML2, IMSC 1.1 Text Profile", ttml_extensions, ttml_features, detail::sniff_ttml,
+     detail::read_ttml, detail::write_ttml, detail::ttml_losses, "ttml:", ttml_keys},
 }};
 
 bool ends_with_ignoring_case(std::string_view s, std::string_view suffix) {

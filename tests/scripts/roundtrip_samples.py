@@ -52,6 +52,19 @@ def table_view(doc):
     return out
 
 
+def ttml_view(doc):
+    out = [doc.get("media", {}).get("frame_rate")]
+    for t in doc.get("tiers", []):
+        rows = []
+        for a in t.get("annotations", []):
+            start, end = Decimal(a["start"]), Decimal(a.get("end", a["start"]))
+            if end > start:
+                rows.append((start, end, a.get("text", ""), a.get("id"), (a.get("attributes") or {}).get("speaker")))
+        if rows:
+            out.append((t["name"], rows))
+    return out
+
+
 def main():
     tiers, samples, work = sys.argv[1:4]
     os.makedirs(work, exist_ok=True)
@@ -69,6 +82,15 @@ def main():
         if os.path.exists(back_json):
             with open(src, "rb") as a, open(back_json, "rb") as b:
                 results.check(a.read() == b.read(), f"{src} -> tiers -> json is not identical")
+        # TTML: what it carries — tiers with annotations that end after they start; times,
+        # texts, ids and speakers; the frame rate.
+        as_ttml = os.path.join(work, f"{stem}.ttml")
+        from_ttml = os.path.join(work, f"{stem}.from-ttml.json")
+        tiers_run(tiers, "convert", src, "-o", as_ttml, "--allow-loss")
+        tiers_run(tiers, "convert", as_ttml, "-o", from_ttml)
+        if os.path.exists(from_ttml):
+            results.check(ttml_view(load(from_ttml)) == ttml_view(original),
+                          f"{src} -> ttml -> json changed what TTML carries")
         for fmt in ("csv", "tsv"):
             table = os.path.join(work, f"{stem}.{fmt}")
             back = os.path.join(work, f"{stem}.from-{fmt}.json")

@@ -2,7 +2,7 @@
 """Differential test of tiers' WebVTT reader against an independent parser.
 
 The reference is the npm package webvtt-parser 2.2.0 — the parser behind the W3C WebVTT
-validator — pinned by tests/vtt-reference/package-lock.json and installed by
+validator — pinned by tests/npm-reference/package-lock.json and installed by
 scripts/install-deps. Both read the bundled samples and 600 generated files (valid and
 invalid, deterministic from a seed); for every file they must agree on whether the signature is
 valid and on every cue: count, identifier, start, end and cue text as written.
@@ -118,7 +118,7 @@ def tiers_cues(tiers, path, json_dir):
 
 
 def reference_parse(reference, paths):
-    proc = subprocess.run(["node", os.path.join(reference, "reference.cjs"), *paths],
+    proc = subprocess.run(["node", os.path.join(reference, "webvtt.cjs"), *paths],
                           capture_output=True, check=True)
     return {r["path"]: r for r in map(json.loads, proc.stdout.decode().splitlines())}
 

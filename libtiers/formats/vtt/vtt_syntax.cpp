@@ -491,22 +491,4 @@ std::vector<annotation> timed_words(const cue_text& parsed, time_ns cue_start, t
   return out;
 }
 
-void append_escaped(std::string& out, std::string_view text) {
-  for (char c : text) {
-    switch (c) {
-      case '&':
-        out += "&amp;";
-        break;
-      case '<':
-        out += "&lt;";
-        break;
-      case '>':
-        out += "&gt;";
-        break;
-      default:
-        out += c;
-    }
-  }
-}
-
 }  // namespace tiers::detail::vtt

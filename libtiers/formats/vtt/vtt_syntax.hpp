@@ -8,6 +8,7 @@
 #include <string_view>
 #include <vector>
 
+#include "tiers/detail/markup.hpp"
 #include "tiers/model.hpp"
 #include "tiers/time.hpp"
 
@@ -79,7 +80,6 @@ cue_text parse_cue_text(std::string_view text);
 /// the first timestamp starts with the cue. Pieces with no text but white space are left out.
 std::vector<annotation> timed_words(const cue_text& parsed, time_ns cue_start, time_ns cue_end);
 
-/// Escapes text for a cue: `&`, `<` and `>` as character references.
-void append_escaped(std::string& out, std::string_view text);
+using detail::append_escaped;  ///< cue text escapes `&`, `<` and `>` (tiers/detail/markup.hpp)
 
 }  // namespace tiers::detail::vtt

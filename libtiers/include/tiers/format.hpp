@@ -32,12 +32,14 @@ enum class feature : std::uint8_t {
   ids,                    ///< per-annotation identifiers
   parent_refs,            ///< an annotation's parent annotation id
   annotation_attributes,  ///< name/value pairs on an annotation
-  media,                  ///< media uri, duration, frame rate
+  media,                  ///< media uri and duration
   metadata,               ///< document metadata
-  inline_words,           ///< without several_tiers: still a child tier of timed words
-                          ///< inside the first tier's annotations (WebVTT cue timestamps)
+  inline_words,           ///< child tiers `NAME.words` (relation within) written inside their
+                          ///< parent's annotations (WebVTT cue timestamps, TTML timed spans);
+                          ///< without several_tiers, the first tier's only
+  frame_rate,             ///< the media frame rate
 };
-inline constexpr int feature_count = 15;
+inline constexpr int feature_count = 16;
 
 std::string_view to_string(feature f);
 

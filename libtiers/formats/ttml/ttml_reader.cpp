@@ -1,0 +1,417 @@
+// Reads TTML with pugixml (no DTD, no entity expansion, depth-limited), resolves TTML2 time
+// containment (par and seq) to absolute media times, and maps div/p/span onto tiers.
+#include <map>
+#include <pugixml.hpp>
+#include <set>
+#include <sstream>
+
+#include "tiers/detail/report.hpp"
+#include "ttml_format.hpp"
+#include "ttml_time.hpp"
+
+namespace tiers::detail {
+namespace {
+
+using namespace ttml;
+
+bool xml_space(char c) {
+  return c == ' ' || c == '\t' || c == '\n' || c == '\r';
+}
+
+std::string_view local_name(std::string_view qname) {
+  const std::size_t colon = qname.find(':');
+  return colon == std::string_view::npos ? qname : qname.substr(colon + 1);
+}
+
+std::string inner_xml(const pugi::xml_node& node) {
+  std::ostringstream out;
+  for (pugi::xml_node child : node.children())
+    child.print(out, "", pugi::format_raw);
+  return out.str();
+}
+
+struct span {
+  time_ns begin;
+  std::optional<time_ns> end;  // nullopt: indefinite
+};
+
+class ttml_reader {
+ public:
+  ttml_reader(std::string_view input, const read_options& options, read_result& out)
+      : in_(input), options_(options), out_(out) {}
+
+  void run();
+
+ private:
+  void fail(std::size_t offset, std::string code, std::string message) {
+    out_.diagnostics.push_back(
+        make_diagnostic(severity::error, std::move(code), offset, std::move(message)));
+  }
+  void warn(std::size_t offset, std::string code, std::string message) {
+    out_.diagnostics.push_back(
+        make_diagnostic(severity::warning, std::move(code), offset, std::move(message)));
+  }
+  std::size_t at(const pugi::xml_node& n) const {
+    const std::ptrdiff_t o = n.offset_debug();
+    return o < 0 ? 0 : static_cast<std::size_t>(o);
+  }
+
+  // The namespace of a prefix ("" for the default namespace), as declared on tt.
+  std::string_view ns_of(std::string_view prefix) const {
+    auto it = prefixes_.find(std::string(prefix));
+    return it == prefixes_.end() ? std::string_view{} : std::string_view(it->second);
+  }
+  // An element's local name when it is in the TTML namespace, else empty.
+  std::string_view tt_name(const pugi::xml_node& n) const {
+    const std::string_view q = n.name();
+    const std::size_t colon = q.find(':');
+    const std::string_view prefix = colon == std::string_view::npos ? "" : q.substr(0, colon);
+    return ns_of(prefix) == ns_tt ? local_name(q) : std::string_view{};
+  }
+  // An attribute's name with the canonical prefix of a TTML namespace (tts:, ttm:, ttp:).
+  std::string canonical(std::string_view q) const {
+    const std::size_t colon = q.find(':');
+    if (colon == std::string_view::npos) return std::string(q);
+    const std::string_view ns = ns_of(q.substr(0, colon));
+    const std::string_view local = q.substr(colon + 1);
+    if (ns == ns_tts) return "tts:" + std::string(local);
+    if (ns == ns_ttm) return "ttm:" + std::string(local);
+    if (ns == ns_ttp) return "ttp:" + std::string(local);
+    return std::string(q);
+  }
+  std::optional<time_ns> time_attr(const pugi::xml_node& n, const char* name) {
+    const pugi::xml_attribute a = n.attribute(name);
+    if (!a) return std::nullopt;
+    auto t = parse_time_expression(a.value(), params_);
+    if (!t) {
+      fail(at(n), "ttml.time",
+           std::string(name) + " '" + a.value() + "' is not a TTML time expression");
+      bad_time_ = true;
+    }
+    return t;
+  }
+
+  span resolve(const pugi::xml_node& n, time_ns sync, std::optional<time_ns> parent_end,
+               bool in_seq);
+  // `current` is the index of the tier of the div being read, or no_tier: nested divs add
+  // tiers, so pointers into the tier list would not stay valid.
+  void walk(const pugi::xml_node& n, const span& active, std::size_t current);
+  void read_p(const pugi::xml_node& p, const span& active, std::size_t tier_index);
+  void text_of(const pugi::xml_node& n, std::string& out, const span& active, bool preserve,
+               std::vector<annotation>* words);
+
+  std::string_view in_;
+  const read_options& options_;
+  read_result& out_;
+  std::map<std::string, std::string> prefixes_;
+  std::map<std::string, std::string> agents_;  // agent id -> name
+  std::set<std::string> generated_;            // agent ids of the writer's speakers block
+  timing_parameters params_;
+  bool bad_time_ = false;
+  std::size_t divs_ = 0;
+  std::map<std::size_t, std::vector<annotation>> words_;  // tier index -> its timed spans
+};
+
+void ttml_reader::run() {
+  pugi::xml_document doc;
+  // parse_doctype makes a DTD visible, so that it can be refused; pugixml never expands
+  // entities other than the predefined ones, so a DTD could do nothing but we refuse it plainly.
+  const pugi::xml_parse_result r = doc.load_buffer(
+      in_.data(), in_.size(), pugi::parse_default | pugi::parse_ws_pcdata | pugi::parse_doctype,
+      pugi::encoding_utf8);
+  if (!r) {
+    fail(static_cast<std::size_t>(r.offset), "ttml.xml",
+         std::string("not well-formed XML: ") + r.description());
+    return;
+  }
+  // Depth first, without recursion: a 200,000-deep document must not exhaust the stack.
+  std::size_t depth = 0;
+  for (pugi::xml_node n = doc.first_child(); n;) {
+    if (n.type() == pugi::node_doctype)
+      return fail(at(n), "ttml.dtd",
+                  "document type declarations are not processed (no DTDs, no entities)");
+    if (n.first_child()) {
+      if (++depth > max_depth)
+        return fail(at(n), "ttml.depth",
+                    "elements nest deeper than " + std::to_string(max_depth) + " levels");
+      n = n.first_child();
+      continue;
+    }
+    while (n && !n.next_sibling()) {
+      n = n.parent();
+      if (depth > 0) --depth;
+    }
+    if (n) n = n.next_sibling();
+  }
+  const pugi::xml_node tt = doc.document_element();
+  for (pugi::xml_attribute a : tt.attributes()) {
+    const std::string_view name = a.name();
+    if (name == "xmlns")
+      prefixes_[""] = a.value();
+    else if (name.rfind("xmlns:", 0) == 0)
+      prefixes_[std::string(name.substr(6))] = a.value();
+  }
+  if (tt_name(tt) != "tt")
+    return fail(at(tt), "ttml.root",
+                "not a TTML document: the root must be tt in namespace " + std::string(ns_tt));
+  auto param = [&](std::string_view local) -> std::string_view {
+    for (pugi::xml_attribute a : tt.attributes())
+      if (canonical(a.name()) == "ttp:" + std::string(local)) return a.value();
+    return {};
+  };
+  if (auto problem = read_parameters(param("frameRate"), param("frameRateMultiplier"),
+                                     param("subFrameRate"), param("tickRate"), params_))
+    return fail(at(tt), "ttml.parameter", std::string(*problem));
+  if (const std::string_view base = param("timeBase"); !base.empty() && base != "media")
+    return fail(at(tt), "ttml.parameter", "only ttp:timeBase=\"media\" is supported (IMSC 1.1)");
+  if (params_.frame_rate_given) out_.doc.media.frame_rate = params_.frame_rate;
+  for (pugi::xml_attribute a : tt.attributes()) {
+    const std::string name = canonical(a.name());
+    if (name == "xml:lang") {
+      // The writer's "und" (undetermined) is no information of its own.
+      if (std::string_view(a.value()) != "und") out_.doc.metadata.emplace("ttml:lang", a.value());
+    } else if (name == "xmlns" || name.rfind("ttp:", 0) == 0) {
+      continue;  // timing parameters are read above; the writer declares what it uses
+    } else if (name.rfind("xmlns:", 0) == 0) {
+      const std::string_view uri = a.value();
+      if (uri != ns_tt && uri != ns_ttp && uri != ns_tts && uri != ns_ttm)
+        out_.doc.metadata.emplace("ttml:" + name, uri);
+    } else {
+      out_.doc.metadata.emplace("ttml:tt:" + name, a.value());
+    }
+  }
+  const pugi::xml_node head = [&] {
+    for (pugi::xml_node c : tt.children())
+      if (tt_name(c) == "head") return c;
+    return pugi::xml_node{};
+  }();
+  if (head) {
+    // The writer puts speakers that had no agent of their own into one metadata block; it
+    // becomes speaker attributes again, not head content.
+    std::string kept;
+    for (pugi::xml_node c : head.children()) {
+      if (canonical(c.name()) != "ttm:agent" &&
+          std::string_view(c.attribute("xml:id").value()) == speakers_block) {
+        for (pugi::xml_node agent : c.children())
+          generated_.insert(agent.attribute("xml:id").value());
+        continue;
+      }
+      std::ostringstream one;
+      c.print(one, "", pugi::format_raw);
+      kept += one.str();
+    }
+    if (!kept.empty()) out_.doc.metadata.emplace("ttml:head", kept);
+    // Agents (TTML2 §12.1.1): an id and, where given, a name, for ttm:agent on p.
+    for (pugi::xpath_node x : head.select_nodes(".//*")) {
+      const pugi::xml_node n = x.node();
+      if (canonical(n.name()) != "ttm:agent") continue;
+      std::string name = n.attribute("xml:id").value();
+      for (pugi::xml_node c : n.children())
+        if (canonical(c.name()) == "ttm:name") name = collapse_space(c.text().get());
+      agents_[n.attribute("xml:id").value()] = name;
+    }
+  }
+  for (pugi::xml_node c : tt.children())
+    if (tt_name(c) == "body") {
+      const span body = resolve(c, 0, std::nullopt, false);
+      walk(c, body, no_tier);
+    }
+  if (bad_time_) return;
+  // Word tiers right after their tiers, in document order.
+  for (auto it = words_.rbegin(); it != words_.rend(); ++it) {
+    tier w;
+    w.name = out_.doc.tiers[it->first].name + ".words";
+    w.parent = parent_link{out_.doc.tiers[it->first].name, relation::within};
+    w.annotations = std::move(it->second);
+    out_.doc.tiers.insert(out_.doc.tiers.begin() + static_cast<std::ptrdiff_t>(it->first) + 1,
+                          std::move(w));
+  }
+}
+
+// The active interval of a timed element (TTML2 §10.4, SMIL subset): begin and end offsets
+// count from the sync base (the parent's begin in a par container, the previous sibling's end
+// in a seq container); dur counts from the begin; without either, a child of a par container
+// lasts as long as its parent, a child of a seq container not at all, unless it is itself a seq
+// container, which lasts until its last child ends.
+span ttml_reader::resolve(const pugi::xml_node& n, time_ns sync, std::optional<time_ns> parent_end,
+                          bool in_seq) {
+  const auto b = time_attr(n, "begin");
+  const auto e = time_attr(n, "end");
+  const auto d = time_attr(n, "dur");
+  span s{sync + b.value_or(0), std::nullopt};
+  if (e) s.end = sync + *e;
+  if (d) s.end = s.end ? std::min(*s.end, s.begin + *d) : s.begin + *d;
+  if (!s.end) {
+    if (std::string_view(n.attribute("timeContainer").value()) == "seq") {
+      time_ns last = s.begin;
+      bool indefinite = false;
+      for (pugi::xml_node c : n.children()) {
+        if (c.type() != pugi::node_element) continue;
+        const span cs = resolve(c, last, std::nullopt, true);
+        if (!cs.end) {
+          indefinite = true;
+          break;
+        }
+        last = *cs.end;
+      }
+      if (!indefinite) s.end = last;
+    } else if (in_seq) {
+      s.end = s.begin;
+    }
+  }
+  if (!s.end) s.end = parent_end;
+  if (parent_end && s.end && *s.end > *parent_end) s.end = parent_end;
+  return s;
+}
+
+void ttml_reader::walk(const pugi::xml_node& n, const span& active, std::size_t current) {
+  const bool seq = std::string_view(n.attribute("timeContainer").value()) == "seq";
+  time_ns sync = active.begin;
+  for (pugi::xml_node c : n.children()) {
+    const std::string_view name = tt_name(c);
+    if (name != "div" && name != "p") continue;
+    const span cs = resolve(c, seq ? sync : active.begin, active.end, seq);
+    if (seq) {
+      if (!cs.end) break;  // an indefinite child: later siblings never begin
+      sync = *cs.end;
+    }
+    if (name == "div") {
+      ++divs_;
+      std::size_t index = no_tier;
+      bool has_p = false;
+      for (pugi::xml_node g : c.children())
+        has_p |= tt_name(g) == "p";
+      if (has_p) {
+        index = out_.doc.tiers.size();
+        tier* t = &out_.doc.tiers.emplace_back();
+        const std::string id = c.attribute("xml:id").value();
+        t->name = id.empty() ? "div-" + std::to_string(divs_) : id;
+        for (pugi::xml_attribute a : c.attributes()) {
+          const std::string q = canonical(a.name());
+          if (q != "xml:id" && q != "begin" && q != "end" && q != "dur" && q != "timeContainer")
+            t->attributes.emplace("ttml:" + q, a.value());
+        }
+      }
+      walk(c, cs, index);
+      continue;
+    }
+    if (current == no_tier) {
+      warn(at(c), "ttml.structure", "p outside a div is not read (IMSC puts p in div)");
+      continue;
+    }
+    read_p(c, cs, current);
+  }
+}
+
+void ttml_reader::text_of(const pugi::xml_node& n, std::string& out, const span& active,
+                          bool preserve, std::vector<annotation>* words) {
+  for (pugi::xml_node c : n.children()) {
+    if (c.type() == pugi::node_pcdata || c.type() == pugi::node_cdata) {
+      // Line breaks in the source are white space; only br breaks a line (xml:space default).
+      for (const char* v = c.value(); *v; ++v)
+        out += !preserve && (*v == '\n' || *v == '\r' || *v == '\t') ? ' ' : *v;
+    } else if (c.type() == pugi::node_element) {
+      const std::string_view name = tt_name(c);
+      if (name == "br") {
+        out += '\n';
+      } else if (name == "span") {
+        const bool keep =
+            preserve || std::string_view(c.attribute("xml:space").value()) == "preserve";
+        const bool timed = c.attribute("begin") || c.attribute("end") || c.attribute("dur");
+        const span s = resolve(c, active.begin, active.end,
+                               std::string_view(n.attribute("timeContainer").value()) == "seq");
+        if (timed && words) {
+          std::string piece;
+          text_of(c, piece, s, keep, nullptr);
+          annotation w;
+          w.start = s.begin;
+          w.end = s.end.value_or(s.begin);
+          w.text = keep ? piece : collapse_space(piece);
+          if (!w.text.empty()) words->push_back(std::move(w));
+          out += piece;
+        } else {
+          text_of(c, out, s, keep, words);
+        }
+      }
+    }
+  }
+}
+
+void ttml_reader::read_p(const pugi::xml_node& p, const span& active, std::size_t index) {
+  annotation a;
+  a.start = active.begin;
+  if (!active.end) {
+    warn(at(p), "ttml.end", "p has no end (its time is indefinite): read as zero length");
+    a.end = a.start;
+  } else {
+    a.end = *active.end;
+  }
+  if (const char* id = p.attribute("xml:id").value(); *id) a.id = id;
+  const bool preserve = std::string_view(p.attribute("xml:space").value()) == "preserve";
+  std::vector<annotation> words;
+  std::string text;
+  // Spans in a seq p follow one another; text_of resolves them against p's interval.
+  text_of(p, text, active, preserve, &words);
+  a.text = preserve ? text : collapse_space(text);
+  bool plain = true;
+  for (pugi::xml_node c : p.children())
+    if (c.type() == pugi::node_element && tt_name(c) != "br") plain = false;
+  if (!plain) a.markup = inner_xml(p);
+  for (pugi::xml_attribute at_ : p.attributes()) {
+    const std::string q = canonical(at_.name());
+    // xml:space only shapes the text, which the writer shapes the same way again.
+    if (q == "xml:id" || q == "begin" || q == "end" || q == "dur" || q == "xml:space") continue;
+    if (q == "ttm:agent") {
+      std::string_view first = at_.value();
+      first = first.substr(0, first.find(' '));
+      auto it = agents_.find(std::string(first));
+      a.attributes.emplace("speaker", it == agents_.end() ? std::string(first) : it->second);
+      if (generated_.count(std::string(first)) && first == at_.value()) continue;
+    }
+    a.attributes.emplace("ttml:" + q, at_.value());
+  }
+  for (annotation& w : words)
+    words_[index].push_back(std::move(w));
+  out_.doc.tiers[index].annotations.push_back(std::move(a));
+}
+
+}  // namespace
+
+std::string ttml::collapse_space(std::string_view text) {
+  // '\n' stands for br: kept, with the spaces around it dropped.
+  std::string out;
+  bool pending = false;
+  for (char c : text) {
+    if (xml_space(c) && c != '\n') {
+      pending = true;
+      continue;
+    }
+    if (c == '\n') {
+      while (!out.empty() && out.back() == ' ')
+        out.pop_back();
+      out += '\n';
+      pending = false;
+      continue;
+    }
+    if (pending && !out.empty() && out.back() != '\n') out += ' ';
+    pending = false;
+    out += c;
+  }
+  while (!out.empty() && out.back() == ' ')
+    out.pop_back();
+  return out;
+}
+
+int sniff_ttml(std::string_view head) {
+  const std::size_t tt = head.find("<tt");
+  if (tt == std::string_view::npos) return 0;
+  return head.find(ns_tt) != std::string_view::npos ? 2 : 1;
+}
+
+read_result read_ttml(std::string_view input, const read_options& options) {
+  read_result out;
+  ttml_reader(input, options, out).run();
+  return out;
+}
+
+}  // namespace tiers::detail

@@ -1,0 +1,298 @@
+// Writes an IMSC 1.1 Text Profile document; one plan, shared with the loss report, decides
+// what each tier and annotation becomes.
+#include <map>
+#include <numeric>
+#include <pugixml.hpp>
+#include <set>
+#include <sstream>
+
+#include "tiers/detail/markup.hpp"
+#include "tiers/detail/report.hpp"
+#include "ttml_format.hpp"
+#include "ttml_time.hpp"
+
+namespace tiers::detail {
+namespace {
+
+using namespace ttml;
+
+constexpr std::string_view profile = "http://www.w3.org/ns/ttml/profile/imsc1.1/text";
+
+// XML 1.0 Name characters, ASCII only (enough for identifiers tiers writes), without ':'.
+bool is_ncname(std::string_view s) {
+  if (s.empty()) return false;
+  auto start = [](char c) {
+    return (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z') || c == '_' ||
+           static_cast<unsigned char>(c) >= 0x80;
+  };
+  if (!start(s[0])) return false;
+  for (char c : s)
+    if (!start(c) && !(c >= '0' && c <= '9') && c != '-' && c != '.') return false;
+  return true;
+}
+
+// Characters XML 1.0 cannot hold (C0 controls other than tab, LF and CR).
+bool xml_safe(std::string_view s) {
+  for (char c : s)
+    if (static_cast<unsigned char>(c) < 0x20 && c != '\t' && c != '\n' && c != '\r') return false;
+  return true;
+}
+
+// Text content needs `&`, `<`, `>` escaped; attribute values also quotes and the white
+// space that attribute normalisation would turn into spaces.
+void escape(std::string& out, std::string_view s, bool attribute) {
+  if (!attribute) return append_escaped(out, s);
+  for (char c : s) {
+    if (c == '"')
+      out += "&quot;";
+    else if (c == '\n')
+      out += "&#10;";
+    else if (c == '\t')
+      out += "&#9;";
+    else if (c == '\r')
+      out += "&#13;";
+    else
+      append_escaped(out, std::string_view(&c, 1));
+  }
+}
+
+// A time as TTML writes it: whole frames as "Nf" when the document has a frame rate and the
+// time is a frame boundary, else clock time with as many fraction digits as it needs.
+std::string time_text(time_ns t, const std::optional<rational>& rate) {
+  if (rate) {
+    __extension__ typedef __int128 wide;
+    const wide n = static_cast<wide>(t) * rate->num;
+    const wide d = static_cast<wide>(rate->den) * ns_per_second;
+    const auto frames = static_cast<std::int64_t>((n + d / 2) / d);
+    if (frame_time(frames, *rate).value == t) return std::to_string(frames) + "f";
+  }
+  return format_clock_exact(t);
+}
+
+// What a fragment of p content reads as: text (with br as '\n'); nothing when it is not
+// well-formed with the namespaces the writer declares.
+std::optional<std::string> fragment_text(std::string_view markup, const std::string& declarations) {
+  const std::string wrapped = "<p xmlns=\"" + std::string(ns_tt) + "\" xmlns:tts=\"" +
+                              std::string(ns_tts) + "\" xmlns:ttm=\"" + std::string(ns_ttm) + "\"" +
+                              declarations + ">" + std::string(markup) + "</p>";
+  pugi::xml_document doc;
+  if (!doc.load_buffer(wrapped.data(), wrapped.size(), pugi::parse_default | pugi::parse_ws_pcdata,
+                       pugi::encoding_utf8))
+    return std::nullopt;
+  std::string text;
+  const auto walk = [&](const pugi::xml_node& n, const auto& self) -> void {
+    for (pugi::xml_node c : n.children()) {
+      if (c.type() == pugi::node_pcdata || c.type() == pugi::node_cdata) {
+        for (const char* v = c.value(); *v; ++v)
+          text += *v == '\n' || *v == '\r' || *v == '\t' ? ' ' : *v;
+      } else if (std::string_view(c.name()) == "br") {
+        text += '\n';
+      } else if (std::string_view(c.name()) == "span") {
+        self(c, self);  // other elements are pruned, as the reader (and TTML processors) prune them
+      }
+    }
+  };
+  walk(doc.first_child(), walk);
+  return collapse_space(text);
+}
+
+struct plan {
+  std::string lang = "und";
+  std::string declarations;  // extra xmlns from the source document
+  std::string tt_attributes;
+  std::string head;
+  std::map<std::string, std::string> agent_ids;  // speaker -> agent id, for speakers without one
+  std::vector<std::string> problems;
+  std::map<std::string, std::size_t> counted;
+  std::set<std::size_t> skipped_tiers;  // word tiers their parent's markup already carries
+};
+
+plan make_plan(const document& doc) {
+  plan p;
+  auto problem = [&](const std::string& what) { ++p.counted[what]; };
+  for (const auto& [k, v] : doc.metadata) {
+    if (k == "ttml:lang") {
+      p.lang = v;
+    } else if (k.rfind("ttml:xmlns:", 0) == 0) {
+      std::string a = " " + k.substr(5) + "=\"";
+      escape(a, v, true);
+      p.declarations += a + "\"";
+    } else if (k.rfind("ttml:tt:", 0) == 0) {
+      std::string a = " " + k.substr(8) + "=\"";
+      escape(a, v, true);
+      p.tt_attributes += a + "\"";
+    } else if (k == "ttml:head") {
+      if (fragment_text(v, p.declarations))
+        p.head = v;
+      else
+        p.problems.push_back("the TTML head (not well-formed XML)");
+    } else if (k.rfind("ttml:", 0) == 0) {
+      p.problems.push_back("document metadata " + quote_name(k) +
+                           " (not a TTML head, language or attribute)");
+    }
+  }
+  // A word tier that the timed spans in its parent's markup already yield is not written
+  // again: reading the parent alone, as the reader would, must give exactly these words.
+  for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
+    const tier& w = doc.tiers[k];
+    if (!w.parent || w.parent->rel != relation::within) continue;
+    const tier* parent = find_tier(doc, w.parent->tier);
+    if (!parent || w.name != parent->name + ".words") continue;
+    document alone;
+    alone.media = doc.media;
+    alone.metadata = doc.metadata;
+    alone.tiers = {*parent};
+    std::string text;
+    {
+      string_sink sink(text);
+      write_ttml(alone, sink, {});
+    }
+    read_options o;
+    const read_result back = read_ttml(text, o);
+    const tier* derived = back.ok() ? find_tier(back.doc, w.name) : nullptr;
+    if (derived && derived->annotations == w.annotations)
+      p.skipped_tiers.insert(k);
+    else  // written as a div of its own, which has no parent
+      p.problems.push_back("the parent link of tier " + quote_name(w.name) +
+                           " (its words are not its parent's timed spans)");
+  }
+  std::set<std::string> ids;
+  auto take_id = [&](const std::string& id) { return is_ncname(id) && ids.insert(id).second; };
+  for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
+    const tier& t = doc.tiers[k];
+    if (p.skipped_tiers.count(k)) continue;
+    if (!take_id(t.name))
+      p.problems.push_back("the tier name " + quote_name(t.name) +
+                           " (not a unique XML identifier)");
+    if (t.annotations.empty())
+      p.problems.push_back("empty tier " + quote_name(t.name) +
+                           " (a div without p is not read back)");
+  }
+  for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
+    const tier& t = doc.tiers[k];
+    if (p.skipped_tiers.count(k)) continue;
+    for (const annotation& a : t.annotations) {
+      if (a.start < 0) problem("negative times");
+      if (a.end <= a.start)
+        problem("annotations that do not end after they start (never shown in TTML)");
+      if (a.id && !take_id(*a.id)) problem("ids that are not unique XML identifiers");
+      if (!xml_safe(a.text) || a.text.find('\r') != std::string::npos)
+        problem("text with characters XML cannot hold");
+      if (a.markup) {
+        const auto text = fragment_text(*a.markup, p.declarations);
+        if (!text || *text != a.text) problem("markup that is not TTML content spelling the text");
+      }
+      for (const auto& [key, value] : a.attributes)
+        if (key.rfind("ttml:", 0) == 0 && (key.size() == 5 || !xml_safe(value)))
+          problem("malformed ttml: attributes");
+      if (auto s = a.attributes.find("speaker");
+          s != a.attributes.end() && !a.attributes.count("ttml:ttm:agent"))
+        if (!p.agent_ids.count(s->second))
+          p.agent_ids.emplace(s->second, "agent-" + std::to_string(p.agent_ids.size() + 1));
+    }
+  }
+  return p;
+}
+
+void write_annotation(std::string& out, const annotation& a, const std::optional<rational>& rate,
+                      const plan& p) {
+  out += "      <p";
+  if (a.id) {
+    out += " xml:id=\"";
+    escape(out, *a.id, true);
+    out += '"';
+  }
+  out += " begin=\"" + time_text(std::max<time_ns>(a.start, 0), rate) + "\" end=\"" +
+         time_text(std::max<time_ns>(a.end, 0), rate) + "\"";
+  for (const auto& [key, value] : a.attributes) {
+    if (key.rfind("ttml:", 0) != 0) continue;
+    out += " " + key.substr(5) + "=\"";
+    escape(out, value, true);
+    out += '"';
+  }
+  if (auto s = a.attributes.find("speaker");
+      s != a.attributes.end() && !a.attributes.count("ttml:ttm:agent"))
+    out += " ttm:agent=\"" + p.agent_ids.at(s->second) + "\"";
+  const bool markup = a.markup && fragment_text(*a.markup, p.declarations) == a.text;
+  if (!markup && collapse_space(a.text) != a.text && !a.attributes.count("ttml:xml:space"))
+    out += " xml:space=\"preserve\"";
+  out += '>';
+  if (markup) {
+    out += *a.markup;
+  } else {
+    std::size_t begin = 0;
+    for (;;) {
+      const std::size_t nl = a.text.find('\n', begin);
+      escape(out, std::string_view(a.text).substr(begin, nl - begin), false);
+      if (nl == std::string::npos) break;
+      out += "<br/>";
+      begin = nl + 1;
+    }
+  }
+  out += "</p>\n";
+}
+
+}  // namespace
+
+void write_ttml(const document& doc, byte_sink& out, const write_options&) {
+  const plan p = make_plan(doc);
+  const std::optional<rational>& rate = doc.media.frame_rate;
+  std::string s = "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n<tt xmlns=\"" + std::string(ns_tt) +
+                  "\" xmlns:ttp=\"" + std::string(ns_ttp) + "\" xmlns:tts=\"" +
+                  std::string(ns_tts) + "\" xmlns:ttm=\"" + std::string(ns_ttm) + "\"" +
+                  p.declarations + " xml:lang=\"";
+  escape(s, p.lang, true);
+  s += "\" ttp:timeBase=\"media\" ttp:contentProfiles=\"" + std::string(profile) + "\"";
+  if (rate) {
+    // ttp:frameRate is a whole number; the multiplier carries the rest (30000/1001 = 30 ×
+    // 1000/1001).
+    const std::int64_t whole = (rate->num + rate->den - 1) / rate->den;
+    s += " ttp:frameRate=\"" + std::to_string(whole) + "\"";
+    if (whole * rate->den != rate->num) {
+      const std::int64_t g = std::gcd(rate->num, whole * rate->den);
+      s += " ttp:frameRateMultiplier=\"" + std::to_string(rate->num / g) + " " +
+           std::to_string(whole * rate->den / g) + "\"";
+    }
+  }
+  s += p.tt_attributes + ">\n  <head>";
+  s += p.head;
+  if (!p.agent_ids.empty()) {
+    s += "<metadata xml:id=\"" + std::string(speakers_block) + "\">";
+    for (const auto& [name, id] : p.agent_ids) {
+      s += "<ttm:agent xml:id=\"" + id + "\" type=\"person\"><ttm:name type=\"full\">";
+      escape(s, name, false);
+      s += "</ttm:name></ttm:agent>";
+    }
+    s += "</metadata>";
+  }
+  s += "</head>\n  <body>\n";
+  out.write(s);
+  for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
+    if (p.skipped_tiers.count(k)) continue;
+    const tier& t = doc.tiers[k];
+    s = "    <div xml:id=\"";
+    escape(s, t.name, true);
+    s += '"';
+    for (const auto& [key, value] : t.attributes) {
+      if (key.rfind("ttml:", 0) != 0) continue;
+      s += " " + key.substr(5) + "=\"";
+      escape(s, value, true);
+      s += '"';
+    }
+    s += ">\n";
+    for (const annotation& a : t.annotations)
+      write_annotation(s, a, rate, p);
+    s += "    </div>\n";
+    out.write(s);
+  }
+  out.write("  </body>\n</tt>\n");
+}
+
+void ttml_losses(const document& doc, std::vector<std::string>& losses) {
+  const plan p = make_plan(doc);
+  for (const auto& [what, n] : p.counted)
+    losses.push_back(what + " (" + plural(n, "annotation", "annotations") + ")");
+  losses.insert(losses.end(), p.problems.begin(), p.problems.end());
+}
+
+}  // namespace tiers::detail

@@ -1,0 +1,153 @@
+// TTML (W3C TTML2, IMSC 1.1 Text Profile): time containment, the mapping onto tiers, safety
+// limits, and a writer whose output reads back the same.
+#include <catch2/catch.hpp>
+
+#include "support.hpp"
+
+using namespace tiers;
+using namespace tiers::test;
+
+namespace {
+
+std::string tt(std::string_view attributes, std::string_view body, std::string_view head = "") {
+  return "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n<tt xmlns=\"http://www.w3.org/ns/ttml\" "
+         "xmlns:ttp=\"http://www.w3.org/ns/ttml#parameter\" "
+         "xmlns:ttm=\"http://www.w3.org/ns/ttml#metadata\" "
+         "xmlns:tts=\"http://www.w3.org/ns/ttml#styling\" xml:lang=\"en\" " +
+         std::string(attributes) + "><head>" + std::string(head) + "</head><body>" +
+         std::string(body) + "</body></tt>\n";
+}
+
+}  // namespace
+
+TEST_CASE("ttml: par and seq time containment resolve to media times", "[ttml]") {
+  // TTML2 §10.4 (SMIL subset): in par, begin and end count from the parent's begin; in seq,
+  // from the previous sibling's end; dur from the element's begin; the parent clips.
+  const document doc = read_as("ttml", tt("", R"(
+    <div xml:id="a" begin="10s">
+      <p begin="1s" end="2s">one</p>
+      <p begin="1.5s" dur="3s">two</p>
+      <p end="25s">clipped by the div</p>
+    </div>
+    <div xml:id="b" timeContainer="seq" begin="100s" end="120s">
+      <p dur="2s">first</p>
+      <p begin="1s" dur="2s">second</p>
+      <p dur="60s">clipped</p>
+    </div>)"));
+  REQUIRE(doc.tiers.size() == 2);
+  const auto& a = doc.tiers[0].annotations;
+  CHECK(a[0].start == 11 * ns_per_second);
+  CHECK(a[0].end == 12 * ns_per_second);
+  CHECK(a[1].start == 11'500'000'000);
+  CHECK(a[1].end == 14'500'000'000);
+  const auto& b = doc.tiers[1].annotations;
+  CHECK(b[0].start == 100 * ns_per_second);
+  CHECK(b[0].end == 102 * ns_per_second);
+  CHECK(b[1].start == 103 * ns_per_second);
+  CHECK(b[1].end == 105 * ns_per_second);
+  CHECK(b[2].end == 120 * ns_per_second);
+}
+
+TEST_CASE("ttml: frames at 30000/1001, ticks, and timed spans as a word tier", "[ttml]") {
+  const document doc = read_as(
+      "ttml",
+      tt(R"(ttp:frameRate="30" ttp:frameRateMultiplier="1000 1001" ttp:tickRate="10000000")", R"(
+    <div xml:id="cues">
+      <p begin="00:00:01:15" end="30000000t">frames and ticks</p>
+      <p begin="5s" end="9s"><span begin="0s" end="1s">Never</span> <span begin="1s" end="2.5s">drink</span><br/>liquid</p>
+    </div>)"));
+  REQUIRE(doc.tiers.size() == 2);
+  // 00:00:01:15 = 1 + 15 × 1001/30000 s (TTML2 media time, CHECKS.md; computed).
+  CHECK(doc.tiers[0].annotations[0].start == 1'500'500'000);
+  CHECK(doc.tiers[0].annotations[0].end == 3 * ns_per_second);
+  CHECK(doc.media.frame_rate == rational{30000, 1001});
+  const annotation& p = doc.tiers[0].annotations[1];
+  CHECK(p.text == "Never drink\nliquid");
+  REQUIRE(p.markup);
+  const tier& w = doc.tiers[1];
+  CHECK(w.name == "cues.words");
+  CHECK(w.parent == parent_link{"cues", relation::within});
+  REQUIRE(w.annotations.size() == 2);
+  CHECK(w.annotations[1].text == "drink");
+  CHECK(w.annotations[1].start == 6 * ns_per_second);
+  CHECK(w.annotations[1].end == 7'500'000'000);
+}
+
+TEST_CASE("ttml: agents become speakers, white space collapses, br breaks lines", "[ttml]") {
+  const document doc = read_as(
+      "ttml",
+      tt("", R"(
+    <div>
+      <p xml:id="p1" begin="0s" end="1s" ttm:agent="ana" tts:color="yellow">
+        Hello,
+        <br/>   world
+      </p>
+      <p begin="1s" end="2s" xml:space="preserve">  two  spaces</p>
+    </div>)",
+         R"(<metadata><ttm:agent xml:id="ana" type="person"><ttm:name type="full">Ana</ttm:name></ttm:agent></metadata>)"));
+  const annotation& a = doc.tiers.at(0).annotations.at(0);
+  CHECK(doc.tiers[0].name == "div-1");
+  CHECK(a.text == "Hello,\nworld");
+  CHECK(a.id == "p1");
+  CHECK(a.attributes.at("speaker") == "Ana");
+  CHECK(a.attributes.at("ttml:tts:color") == "yellow");
+  CHECK(doc.tiers[0].annotations[1].text == "  two  spaces");
+  CHECK(doc.metadata.at("ttml:lang") == "en");
+}
+
+TEST_CASE("ttml writer: IMSC 1.1 text document that reads back the same", "[ttml][writer]") {
+  document doc;
+  doc.media.frame_rate = rational{30000, 1001};
+  tier& t = doc.tiers.emplace_back();
+  t.name = "captions";
+  annotation a;
+  a.start = frame_time(45, {30000, 1001}).value;
+  a.end = 3 * ns_per_second + 1;
+  a.text = "fish & <chips>\n  second line";
+  a.id = "c1";
+  a.attributes = {{"speaker", "Cook"}};
+  t.annotations = {a};
+  CHECK(find_losses(doc, *find_format("ttml")).empty());
+  const std::string text = write_as("ttml", doc);
+  CHECK(text.find("ttp:contentProfiles=\"http://www.w3.org/ns/ttml/profile/imsc1.1/text\"") !=
+        std::string::npos);
+  CHECK(text.find("ttp:timeBase=\"media\"") != std::string::npos);
+  CHECK(text.find("ttp:frameRate=\"30\" ttp:frameRateMultiplier=\"1000 1001\"") !=
+        std::string::npos);
+  CHECK(text.find("begin=\"45f\" end=\"00:00:03.000000001\"") != std::string::npos);
+  CHECK(text.find("fish &amp; &lt;chips&gt;<br/>  second line") != std::string::npos);
+  CHECK(read_as("ttml", text) == doc);
+}
+
+TEST_CASE("ttml: DTDs, entity bombs, deep nesting and broken XML are refused",
+          "[ttml][bad-input]") {
+  std::string bomb = "<?xml version=\"1.0\"?>\n<!DOCTYPE tt [<!ENTITY a \"aaaaaaaaaa\">";
+  for (int k = 1; k < 10; ++k)
+    bomb += "<!ENTITY " + std::string(1, static_cast<char>('a' + k)) + " \"" +
+            std::string(10, '&') + "\">";
+  bomb +=
+      "]>\n<tt xmlns=\"http://www.w3.org/ns/ttml\"><body><div><p begin=\"0s\" "
+      "end=\"1s\">&j;</p></div></body></tt>";
+  CHECK(first_error("ttml", bomb).code == "ttml.dtd");
+  std::string deep = "<tt xmlns=\"http://www.w3.org/ns/ttml\"><body>";
+  for (int k = 0; k < 200'000; ++k)
+    deep += "<span>";
+  const diagnostic d =
+      first_error("ttml", deep + "x" + std::string(200'000 * 7, ' ') + "</body></tt>");
+  CHECK((d.code == "ttml.depth" || d.code == "ttml.xml"));
+  std::string nested = "<tt xmlns=\"http://www.w3.org/ns/ttml\"><body>";
+  for (int k = 0; k < 200'000; ++k)
+    nested += "<div>";
+  for (int k = 0; k < 200'000; ++k)
+    nested += "</div>";
+  nested += "</body></tt>";
+  CHECK(first_error("ttml", nested).code == "ttml.depth");
+  const diagnostic broken =
+      first_error("ttml", "<tt xmlns=\"http://www.w3.org/ns/ttml\">\n<body><div></body></tt>");
+  CHECK(broken.code == "ttml.xml");
+  CHECK(broken.line == 2);
+  CHECK(first_error("ttml", "<tt xmlns=\"urn:other\"/>").code == "ttml.root");
+  CHECK(first_error("ttml", tt("", "<div><p begin=\"1x\" end=\"2s\">x</p></div>")).code ==
+        "ttml.time");
+  CHECK(first_error("ttml", tt("ttp:frameRate=\"0\"", "")).code == "ttml.parameter");
+}
