@@ -10,7 +10,10 @@ pinned by tests/npm-reference/package-lock.json and installed by scripts/install
    ticks, seq containment, timed spans), tiers reads the TTML back, and the two must agree on
    the media time events and, from each event on, on the texts presented.
 
-Usage: ttml_reference.py TIERS REFERENCE_DIR SAMPLES_DIR INPUTS_DIR WORK_DIR
+3. Every TTML document the unit tests wrote (UNIT_OUTPUT_DIR/*.ttml) goes through the same
+   checks as 1 and 2.
+
+Usage: ttml_reference.py TIERS REFERENCE_DIR SAMPLES_DIR INPUTS_DIR WORK_DIR UNIT_OUTPUT_DIR
 """
 import glob
 import json
@@ -74,7 +77,7 @@ def norm(text):
 
 
 def main():
-    tiers, reference, samples, inputs, work = sys.argv[1:6]
+    tiers, reference, samples, inputs, work, unit_output = sys.argv[1:7]
     os.makedirs(work, exist_ok=True)
     written = []
     for src in sorted(glob.glob(os.path.join(samples, "*"))):
@@ -85,6 +88,7 @@ def main():
         results.check(proc.returncode == 0, f"tiers could not write {src} as TTML: {proc.stderr.decode()}")
         if proc.returncode == 0:
             written.append(out)
+    written += sorted(glob.glob(os.path.join(unit_output, "*.ttml")))
     handwritten = sorted(glob.glob(os.path.join(inputs, "*.ttml")))
     paths = written + handwritten
     proc = subprocess.run(["node", os.path.join(reference, "imsc.cjs"), *paths], capture_output=True, check=True)

@@ -77,6 +77,7 @@ std::string write_as(std::string_view name, const document& doc) {
     f->write(doc, sink, {});
   }
   if (name == "json") save_json_output("write_as", out);
+  if (name == "ttml") save_output("write_as", out, "ttml");
   return out;
 }
 
@@ -101,14 +102,19 @@ diagnostic first_error(std::string_view name, std::string_view text, const read_
 }
 
 void save_json_output(std::string_view label, std::string_view json) {
+  save_output(label, json, "json");
+}
+
+void save_output(std::string_view label, std::string_view text, std::string_view extension) {
   const char* dir = std::getenv("TIERS_TEST_OUTPUT");
   if (!dir || !*dir) return;
   // Test cases run as separate processes, possibly at once: the process id keeps names apart.
   static int counter = 0;
   std::filesystem::create_directories(dir);
   const std::string path = std::string(dir) + "/" + std::string(label) + "-" +
-                           std::to_string(::getpid()) + "-" + std::to_string(++counter) + ".json";
-  std::ofstream(path, std::ios::binary) << json;
+                           std::to_string(::getpid()) + "-" + std::to_string(++counter) + "." +
+                           std::string(extension);
+  std::ofstream(path, std::ios::binary) << text;
 }
 
 }  // namespace tiers::test

@@ -26,4 +26,7 @@ diagnostic first_error(std::string_view name, std::string_view text,
 /// can validate every one of them against schemas/tiers.schema.json.
 void save_json_output(std::string_view label, std::string_view json);
 
+/// The same for other outputs the reference tests read (TTML for the IMSC implementation).
+void save_output(std::string_view label, std::string_view text, std::string_view extension);
+
 }  // namespace tiers::test

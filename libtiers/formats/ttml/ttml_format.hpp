@@ -20,7 +20,8 @@ inline constexpr std::string_view ns_tt = "http://www.w3.org/ns/ttml";
 inline constexpr std::string_view ns_ttp = "http://www.w3.org/ns/ttml#parameter";
 inline constexpr std::string_view ns_tts = "http://www.w3.org/ns/ttml#styling";
 inline constexpr std::string_view ns_ttm = "http://www.w3.org/ns/ttml#metadata";
-inline constexpr std::size_t max_depth = 1000;  ///< deeper input is refused
+inline constexpr std::size_t max_depth = 1000;                  ///< deeper input is refused
+inline constexpr std::size_t max_bytes = std::size_t{1} << 30;  ///< larger input is refused
 /// xml:id of the head metadata block in which the writer defines agents for speakers.
 inline constexpr std::string_view speakers_block = "tiers-speakers";
 /// Text with runs of XML white space collapsed to one space and none around line breaks or at

@@ -113,6 +113,11 @@ class ttml_reader {
 };
 
 void ttml_reader::run() {
+  // pugixml holds the whole tree in memory, a few times the input: refuse what would not fit.
+  if (in_.size() > max_bytes)
+    return fail(0, "ttml.size",
+                "the file is larger than " + std::to_string(max_bytes >> 20) +
+                    " MiB, the most tiers reads as TTML");
   pugi::xml_document doc;
   // parse_doctype makes a DTD visible, so that it can be refused; pugixml never expands
   // entities other than the predefined ones, so a DTD could do nothing but we refuse it plainly.
