@@ -151,3 +151,30 @@ TEST_CASE("ttml: DTDs, entity bombs, deep nesting and broken XML are refused",
         "ttml.time");
   CHECK(first_error("ttml", tt("ttp:frameRate=\"0\"", "")).code == "ttml.parameter");
 }
+
+TEST_CASE("ttml: styles, regions, agents and foreign attributes survive ttml -> model -> ttml",
+          "[ttml][round-trip]") {
+  const std::string source = R"TTML(<?xml version="1.0" encoding="UTF-8"?>
+<tt xmlns="http://www.w3.org/ns/ttml" xmlns:tts="http://www.w3.org/ns/ttml#styling" xmlns:ttp="http://www.w3.org/ns/ttml#parameter" xmlns:ttm="http://www.w3.org/ns/ttml#metadata" xmlns:ex="urn:example:extension" xml:lang="fr" ttp:timeBase="media" ex:note="kept">
+  <head>
+    <styling><style xml:id="s1" tts:color="yellow"/></styling>
+    <layout><region xml:id="bottom" tts:origin="10% 80%" tts:extent="80% 15%"/></layout>
+    <metadata><ttm:agent xml:id="ana" type="person"><ttm:name type="full">Ana</ttm:name></ttm:agent></metadata>
+  </head>
+  <body>
+    <div xml:id="fr" region="bottom">
+      <p xml:id="p1" begin="1s" end="2s" style="s1" ttm:agent="ana" ex:mood="calm">Bonjour <span tts:fontStyle="italic">à tous</span></p>
+      <p xml:id="p2" begin="2s" end="3s" region="bottom">Deuxième<br/>ligne</p>
+    </div>
+  </body>
+</tt>
+)TTML";
+  const document first = read_as("ttml", source);
+  CHECK(find_losses(first, *find_format("ttml")).empty());
+  const document second = read_as("ttml", write_as("ttml", first));
+  CHECK(second == first);
+  const annotation& p1 = first.tiers.at(0).annotations.at(0);
+  CHECK(p1.text == "Bonjour \u00e0 tous");
+  CHECK(p1.attributes.at("ttml:ex:mood") == "calm");
+  CHECK(first.metadata.at("ttml:xmlns:ex") == "urn:example:extension");
+}
