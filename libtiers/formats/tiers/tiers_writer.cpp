@@ -21,8 +21,9 @@ std::string time_text(time_ns t) {
   return s;
 }
 
-void pair(std::string& line, std::string_view key, std::string_view value) {
-  line += ' ';
+// " key=value", or " @key=value" for an annotation attribute.
+void pair(std::string& line, std::string_view key, std::string_view value, bool attribute = false) {
+  line += attribute ? " @" : " ";
   append_value(line, key);
   line += '=';
   append_value(line, value);
@@ -45,12 +46,8 @@ void write_annotation(std::string& line, const annotation& a, bool point) {
     pair(line, "conf", conf);
   }
   if (a.markup) pair(line, "markup", *a.markup);
-  for (const auto& [k, v] : a.attributes) {
-    line += " @";
-    append_value(line, k);
-    line += '=';
-    append_value(line, v);
-  }
+  for (const auto& [k, v] : a.attributes)
+    pair(line, k, v, true);
   line += a.text.empty() ? " |" : " | ";
   append_text(line, a.text);
   line += '\n';

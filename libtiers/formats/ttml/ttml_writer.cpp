@@ -104,7 +104,8 @@ struct plan {
   std::map<std::string, std::string> agent_ids;  // speaker -> agent id, for speakers without one
   std::vector<std::string> problems;
   std::map<std::string, std::size_t> counted;
-  std::set<std::size_t> skipped_tiers;  // word tiers their parent's markup already carries
+  std::set<std::size_t> skipped_tiers;        // word tiers their parent's markup already carries
+  std::set<const annotation*> usable_markup;  // markup that is TTML content spelling the text
 };
 
 plan make_plan(const document& doc) {
@@ -180,7 +181,10 @@ plan make_plan(const document& doc) {
         problem("text with characters XML cannot hold");
       if (a.markup) {
         const auto text = fragment_text(*a.markup, p.declarations);
-        if (!text || *text != a.text) problem("markup that is not TTML content spelling the text");
+        if (text && *text == a.text)
+          p.usable_markup.insert(&a);
+        else
+          problem("markup that is not TTML content spelling the text");
       }
       for (const auto& [key, value] : a.attributes)
         if (key.rfind("ttml:", 0) == 0 && (key.size() == 5 || !xml_safe(value)))
@@ -213,7 +217,7 @@ void write_annotation(std::string& out, const annotation& a, const std::optional
   if (auto s = a.attributes.find("speaker");
       s != a.attributes.end() && !a.attributes.count("ttml:ttm:agent"))
     out += " ttm:agent=\"" + p.agent_ids.at(s->second) + "\"";
-  const bool markup = a.markup && fragment_text(*a.markup, p.declarations) == a.text;
+  const bool markup = p.usable_markup.count(&a) != 0;
   if (!markup && collapse_space(a.text) != a.text && !a.attributes.count("ttml:xml:space"))
     out += " xml:space=\"preserve\"";
   out += '>';
