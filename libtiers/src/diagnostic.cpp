@@ -41,27 +41,28 @@ bool is_continuation(char c) {
   return (static_cast<unsigned char>(c) & 0xC0) == 0x80;
 }
 
-// Walks `text` from `from` (a line start at `pos`) up to `offset`.
-void advance(std::string_view text, std::size_t& at, text_position& pos, std::size_t offset) {
-  offset = std::min(offset, text.size());
-  for (; at < offset; ++at) {
-    const char c = text[at];
-    if (c == '\n' || (c == '\r' && (at + 1 >= text.size() || text[at + 1] != '\n'))) {
-      ++pos.line;
-      pos.column = 1;
-    } else if (c != '\r' && !is_continuation(c)) {
-      ++pos.column;
-    }
-  }
-}
-
 }  // namespace
 
+text_position position_finder::at(std::size_t offset) {
+  offset = std::min(offset, text_.size());
+  if (offset < done_) {
+    done_ = 0;
+    pos_ = {};
+  }
+  for (; done_ < offset; ++done_) {
+    const char c = text_[done_];
+    if (c == '\n' || (c == '\r' && (done_ + 1 >= text_.size() || text_[done_ + 1] != '\n'))) {
+      ++pos_.line;
+      pos_.column = 1;
+    } else if (c != '\r' && !is_continuation(c)) {
+      ++pos_.column;
+    }
+  }
+  return pos_;
+}
+
 text_position locate(std::string_view text, std::size_t offset) {
-  text_position pos;
-  std::size_t at = 0;
-  advance(text, at, pos, offset);
-  return pos;
+  return position_finder(text).at(offset);
 }
 
 void locate_all(std::string_view text, std::vector<diagnostic>& diagnostics) {
@@ -70,12 +71,11 @@ void locate_all(std::string_view text, std::vector<diagnostic>& diagnostics) {
   std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
     return diagnostics[a].offset < diagnostics[b].offset;
   });
-  text_position pos;
-  std::size_t at = 0;
+  position_finder finder(text);
   for (std::size_t k : order) {
     diagnostic& d = diagnostics[k];
     if (d.offset == no_offset) continue;
-    advance(text, at, pos, d.offset);
+    const text_position pos = finder.at(d.offset);
     d.line = pos.line;
     d.column = pos.column;
   }

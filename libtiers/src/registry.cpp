@@ -96,6 +96,34 @@ std::vector<const format*> sniff_formats(std::string_view head) {
   return out;
 }
 
+namespace {
+
+// Makes the source map match the document index for index (a reader may leave out what it
+// cannot place), then computes every line and column in one pass.
+void locate_positions(std::string_view text, const document& doc, source_map& map) {
+  map.tiers.resize(doc.tiers.size());
+  map.annotations.resize(doc.tiers.size());
+  std::vector<source_position*> all;
+  for (std::size_t t = 0; t < doc.tiers.size(); ++t) {
+    map.annotations[t].resize(doc.tiers[t].annotations.size());
+    all.push_back(&map.tiers[t]);
+    for (source_position& p : map.annotations[t])
+      all.push_back(&p);
+  }
+  std::erase_if(all, [](const source_position* p) { return p->offset == no_offset; });
+  std::stable_sort(all.begin(), all.end(), [](const source_position* a, const source_position* b) {
+    return a->offset < b->offset;
+  });
+  position_finder finder(text);
+  for (source_position* p : all) {
+    const text_position at = finder.at(p->offset);
+    p->line = at.line;
+    p->column = at.column;
+  }
+}
+
+}  // namespace
+
 read_result read_document(std::string_view input, const format& fmt, const read_options& options,
                           std::string_view file_name) {
   read_result result;
@@ -116,7 +144,7 @@ read_result read_document(std::string_view input, const format& fmt, const read_
             "the file is not valid UTF-8: " +
                 detail::plural(replaced, "invalid sequence", "invalid sequences") +
                 " replaced by U+FFFD, as the format's specification says"));
-    locate_all(repaired, result.diagnostics);
+    locate_all(repaired, result.diagnostics);  // positions were located by the inner call
     for (diagnostic& d : result.diagnostics)
       d.file = file_name;
     return result;
@@ -131,6 +159,7 @@ read_result read_document(std::string_view input, const format& fmt, const read_
     result = fmt.read(input, options);
   }
   locate_all(input, result.diagnostics);
+  if (options.positions) locate_positions(input, result.doc, result.positions);
   for (diagnostic& d : result.diagnostics)
     d.file = file_name;
   return result;

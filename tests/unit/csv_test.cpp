@@ -155,7 +155,7 @@ TEST_CASE("bad csv is rejected with its physical line and column", "[csv][bad-in
       {"tier,start,end,text\na,1,2,\"two\nlines\"\nb,x,4,y\n", "csv.time", 4, 3,
        "'x' is not a time"},
       {"tier,start,end,text\na,,2,x\n", "csv.time", 2, 3, "empty start"},
-      {"tier,start,end,text\na,1,99999999999,x\n", "csv.time", 2, 5, "out of range"},
+      {"tier,start,end,text\na,1,99999999999,x\n", "time.range", 2, 5, "out of range"},
       {"tier,start,end,text,confidence\na,1,2,x,high\n", "csv.confidence", 2, 9, "not a number"},
       {"tier,start,end,text,confidence\na,1,2,x,1.01\n", "csv.confidence", 2, 9, "from 0 to 1"},
       {"tier,start,end,text,text\n", "csv.header", 1, 21, "appears twice"},

@@ -4,6 +4,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "support.hpp"
 #include "tiers/diagnostic.hpp"
 #include "tiers/io.hpp"
 
@@ -13,15 +14,10 @@
 #include <csignal>
 
 using namespace tiers;
+using tiers::test::slurp;
 namespace fs = std::filesystem;
 
 namespace {
-std::string slurp(const fs::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  std::stringstream ss;
-  ss << in.rdbuf();
-  return ss.str();
-}
 fs::path fresh_dir(const char* name) {
   const fs::path dir = fs::temp_directory_path() /
                        (std::string("tiers-io-") + name + "-" + std::to_string(::getpid()));

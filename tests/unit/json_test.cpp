@@ -99,10 +99,10 @@ TEST_CASE("bad json is rejected with its location", "[json][bad-input]") {
        "json.value", 2, 4, "'start' must be a number of seconds"},
       {"{\"format\": \"tiers\", \"version\": 1, \"tiers\": [{\"name\": \"t\", \"annotations\": [\n"
        "  {\"start\": 1e300, \"end\": 2}]}]}",
-       "json.value", 2, 4, "out of range"},
+       "time.range", 2, 4, "out of range"},
       {"{\"format\": \"tiers\", \"version\": 1, \"tiers\": [{\"name\": \"t\", \"annotations\": [\n"
        "  {\"start\": 99999999999999999999, \"end\": 2}]}]}",
-       "json.value", 2, 4, "out of range"},
+       "time.range", 2, 4, "out of range"},
       {"{\"format\": \"tiers\", \"version\": 1, \"tiers\": [{\"name\": \"t\", \"annotations\": [\n"
        "  {\"start\": 1, \"end\": 2, \"confidence\": 1.5}]}]}",
        "json.value", 2, 26, "'confidence' must be a number from 0 to 1"},

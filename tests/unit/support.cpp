@@ -68,6 +68,15 @@ document rich_document() {
   return doc;
 }
 
+std::string slurp(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  return {std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>()};
+}
+
+std::string sample(std::string_view name) {
+  return slurp(std::string(TIERS_SAMPLES_DIR) + "/" + std::string(name));
+}
+
 std::string write_as(std::string_view name, const document& doc) {
   const format* f = find_format(name);
   REQUIRE(f != nullptr);

@@ -12,6 +12,12 @@ namespace tiers::test {
 /// Invented demo data that exercises every field of the model at least once.
 document rich_document();
 
+/// The whole content of a file (empty when it cannot be read).
+std::string slurp(const std::string& path);
+
+/// The content of `samples/NAME`.
+std::string sample(std::string_view name);
+
 /// Writes `doc` as format `name` into a string.
 std::string write_as(std::string_view name, const document& doc);
 

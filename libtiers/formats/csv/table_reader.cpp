@@ -7,6 +7,7 @@
 
 #include "csv_format.hpp"
 #include "table_scanner.hpp"
+#include "tiers/detail/positions.hpp"
 #include "tiers/detail/report.hpp"
 
 namespace tiers::detail {
@@ -59,7 +60,8 @@ class table_reader {
                read_result& out)
       : scanner_(input, delimiter, input.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0),
         options_(options),
-        out_(out) {}
+        out_(out),
+        positions_(options, out) {}
 
   void run() {
     std::size_t offset = 0;
@@ -129,18 +131,20 @@ class table_reader {
     return s;
   }
 
-  tier& tier_for(std::string_view name) {
-    if (last_tier_ != absent && out_.doc.tiers[last_tier_].name == name)
-      return out_.doc.tiers[last_tier_];
+  // The index of the tier called `name`, made on its first row (which is where it is said to
+  // be, for messages about the tier).
+  std::size_t tier_for(std::string_view name, std::size_t row_offset) {
+    if (last_tier_ != absent && out_.doc.tiers[last_tier_].name == name) return last_tier_;
     auto it = tier_index_.find(std::string(name));
     if (it == tier_index_.end()) {
       it = tier_index_.emplace(std::string(name), out_.doc.tiers.size()).first;
       tier& t = out_.doc.tiers.emplace_back();
       t.name = name;
       t.kind = kind_;
+      positions_.tier(row_offset);
     }
     last_tier_ = it->second;
-    return out_.doc.tiers[last_tier_];
+    return last_tier_;
   }
 
   bool time_cell(std::size_t role, time_ns& value) {
@@ -149,7 +153,7 @@ class table_reader {
     if (!t) {
       if (trim(c.text).empty())
         return fail_at("csv.time", c.offset, "empty " + std::string(role_names[role]) + " time");
-      return fail_at("csv.time", c.offset,
+      return fail_at(time_code(t.status, "csv.time"), c.offset,
                      std::string(role_names[role]) + " " + quote_name(c.text) + " " +
                          std::string(describe(t.status)));
     }
@@ -178,7 +182,7 @@ class table_reader {
       time_ns d = 0;
       if (!time_cell(r_duration, d)) return false;
       if (__builtin_add_overflow(a.start, d, &a.end))
-        return fail_at("csv.time", cells_[columns_[r_duration]].offset,
+        return fail_at("time.range", cells_[columns_[r_duration]].offset,
                        "start + duration is out of range");
     }
     if (columns_[r_text] != absent) a.text = cells_[columns_[r_text]].text;
@@ -196,13 +200,16 @@ class table_reader {
     }
     for (std::size_t k : attribute_columns_)
       if (!cells_[k].text.empty()) a.attributes.emplace(header_[k], cells_[k].text);
-    tier_for(name).annotations.push_back(std::move(a));
+    const std::size_t index = tier_for(name, offset);
+    out_.doc.tiers[index].annotations.push_back(std::move(a));
+    positions_.annotation(index, offset);
     return true;
   }
 
   table_scanner scanner_;
   const read_options& options_;
   read_result& out_;
+  position_recorder positions_;
   std::vector<table_cell> cells_;
   std::vector<std::string> header_;
   std::array<std::size_t, role_count> columns_{};

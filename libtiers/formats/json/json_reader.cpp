@@ -7,6 +7,7 @@
 #include <nlohmann/json.hpp>
 
 #include "json_format.hpp"
+#include "tiers/detail/positions.hpp"
 #include "tiers/detail/report.hpp"
 
 namespace tiers::detail {
@@ -171,8 +172,9 @@ struct scalar {
 
 class handler final : public nlohmann::json_sax<json> {
  public:
-  handler(std::string_view input, std::size_t& consumed, read_result& out)
-      : input_(input), consumed_(consumed), out_(out) {}
+  handler(std::string_view input, std::size_t& consumed, const read_options& options,
+          read_result& out)
+      : input_(input), consumed_(consumed), out_(out), positions_(options, out) {}
 
   bool null() override { return on_scalar({scalar::null, {}}); }
   bool boolean(bool v) override {
@@ -289,7 +291,8 @@ class handler final : public nlohmann::json_sax<json> {
       return std::nullopt;
     }
     if (!t) {
-      fail_member(std::string(describe(t.status)));
+      fail_at(time_code(t.status, "json.value"), key_offset_,
+              quote_name(key_) + " " + std::string(describe(t.status)));
       return std::nullopt;
     }
     return t.value;
@@ -309,6 +312,7 @@ class handler final : public nlohmann::json_sax<json> {
   std::string_view input_;
   std::size_t& consumed_;
   read_result& out_;
+  position_recorder positions_;
   std::vector<frame> stack_{{ctx::top, 0}};
   std::string key_;
   std::size_t key_offset_ = 0;
@@ -370,6 +374,7 @@ bool handler::start_object(std::size_t) {
     case ctx::tiers:
       next = ctx::tier;
       out_.doc.tiers.emplace_back();
+      positions_.tier(offset);
       missing_end_ = no_offset;
       break;
     case ctx::tier:
@@ -386,6 +391,7 @@ bool handler::start_object(std::size_t) {
     case ctx::annotations:
       next = ctx::annotation;
       current_tier().annotations.emplace_back();
+      positions_.annotation(out_.doc.tiers.size() - 1, offset);
       break;
     case ctx::annotation:
       if (member_ == a_attributes) next = ctx::annotation_attributes;
@@ -633,12 +639,12 @@ int sniff_json(std::string_view head) {
   return head.find("\"tiers\"") != std::string_view::npos ? 2 : 1;
 }
 
-read_result read_json(std::string_view input, const read_options&) {
+read_result read_json(std::string_view input, const read_options& options) {
   read_result out;
   // RFC 8259 §8.1: a parser may ignore a byte order mark; editors on some systems add one.
   const std::size_t bom = input.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0;
   std::size_t consumed = bom;
-  handler h(input, consumed, out);
+  handler h(input, consumed, options, out);
   counting_iterator first{input.data() + bom, &consumed};
   counting_iterator last{input.data() + input.size(), &consumed};
   const bool ok = json::sax_parse(first, last, &h, json::input_format_t::json, true);

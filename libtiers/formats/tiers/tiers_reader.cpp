@@ -3,6 +3,7 @@
 #include <charconv>
 #include <cmath>
 
+#include "tiers/detail/positions.hpp"
 #include "tiers/detail/report.hpp"
 #include "tiers_format.hpp"
 #include "tiers_syntax.hpp"
@@ -14,7 +15,8 @@ using text_format::item;
 
 class text_reader {
  public:
-  text_reader(std::string_view input, read_result& out) : in_(input), out_(out) {}
+  text_reader(std::string_view input, const read_options& options, read_result& out)
+      : in_(input), out_(out), positions_(options, out) {}
 
   void run() {
     std::size_t pos = in_.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0;
@@ -105,7 +107,9 @@ class text_reader {
     if (negative) s.remove_prefix(1);
     const parsed_time t = s.find(':') != std::string_view::npos ? parse_clock(s) : parse_seconds(s);
     if (!t || (negative && s.empty())) {
-      bad(it, "time '" + it.key + "' " + std::string(describe(t ? time_status::syntax : t.status)));
+      const time_status status = t ? time_status::syntax : t.status;
+      fail(line_start_ + it.offset, time_code(status, "tiers.syntax"),
+           "time '" + it.key + "' " + std::string(describe(status)));
       return std::nullopt;
     }
     return negative ? -t.value : t.value;
@@ -147,6 +151,7 @@ class text_reader {
     if (items_.size() < 2 || items_.size() > 3 || items_[1].value || items_[1].attribute)
       return bad(items_[0], "expected 'tier NAME [interval|point]'");
     tier& t = out_.doc.tiers.emplace_back();
+    positions_.tier(line_start_);
     current_ = &t;
     t.name = items_[1].key;
     if (items_.size() == 3) {
@@ -240,10 +245,12 @@ class text_reader {
     }
     if (text) a.text = std::move(*text);
     current_->annotations.push_back(std::move(a));
+    positions_.annotation(out_.doc.tiers.size() - 1, line_start_);
   }
 
   std::string_view in_;
   read_result& out_;
+  position_recorder positions_;
   std::vector<item> items_;
   std::size_t line_start_ = 0;
   bool seen_signature_ = false;
@@ -263,9 +270,9 @@ int sniff_tiers_text(std::string_view head) {
   return head.substr(0, 6) == "tiers " ? 2 : 0;
 }
 
-read_result read_tiers_text(std::string_view input, const read_options&) {
+read_result read_tiers_text(std::string_view input, const read_options& options) {
   read_result out;
-  text_reader(input, out).run();
+  text_reader(input, options, out).run();
   return out;
 }
 

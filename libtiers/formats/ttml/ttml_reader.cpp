@@ -5,6 +5,7 @@
 #include <set>
 #include <sstream>
 
+#include "tiers/detail/positions.hpp"
 #include "tiers/detail/report.hpp"
 #include "ttml_format.hpp"
 #include "ttml_time.hpp"
@@ -38,7 +39,7 @@ struct span {
 class ttml_reader {
  public:
   ttml_reader(std::string_view input, const read_options& options, read_result& out)
-      : in_(input), options_(options), out_(out) {}
+      : in_(input), options_(options), out_(out), positions_(options, out) {}
 
   void run();
 
@@ -98,7 +99,7 @@ class ttml_reader {
   void walk(const pugi::xml_node& n, const span& active, std::size_t current);
   void read_p(const pugi::xml_node& p, const span& active, std::size_t tier_index);
   void text_of(const pugi::xml_node& n, std::string& out, const span& active, bool preserve,
-               std::vector<annotation>* words);
+               std::vector<annotation>* words, std::vector<std::size_t>* word_offsets);
 
   std::string_view in_;
   const read_options& options_;
@@ -109,7 +110,9 @@ class ttml_reader {
   timing_parameters params_;
   bool bad_time_ = false;
   std::size_t divs_ = 0;
-  std::map<std::size_t, std::vector<annotation>> words_;  // tier index -> its timed spans
+  std::map<std::size_t, std::vector<annotation>> words_;          // tier index -> its timed spans
+  std::map<std::size_t, std::vector<std::size_t>> word_offsets_;  // and where they are
+  position_recorder positions_;
 };
 
 void ttml_reader::run() {
@@ -228,8 +231,17 @@ void ttml_reader::run() {
     w.name = out_.doc.tiers[it->first].name + ".words";
     w.parent = parent_link{out_.doc.tiers[it->first].name, relation::within};
     w.annotations = std::move(it->second);
-    out_.doc.tiers.insert(out_.doc.tiers.begin() + static_cast<std::ptrdiff_t>(it->first) + 1,
-                          std::move(w));
+    const auto after = static_cast<std::ptrdiff_t>(it->first) + 1;
+    out_.doc.tiers.insert(out_.doc.tiers.begin() + after, std::move(w));
+    if (positions_.on()) {
+      source_map& map = out_.positions;
+      const std::vector<std::size_t>& offsets = word_offsets_[it->first];
+      map.tiers.insert(map.tiers.begin() + after, source_position{offsets.front()});
+      std::vector<source_position> words;
+      for (std::size_t offset : offsets)
+        words.push_back({offset});
+      map.annotations.insert(map.annotations.begin() + after, std::move(words));
+    }
   }
 }
 
@@ -289,6 +301,7 @@ void ttml_reader::walk(const pugi::xml_node& n, const span& active, std::size_t 
       if (has_p) {
         index = out_.doc.tiers.size();
         tier* t = &out_.doc.tiers.emplace_back();
+        positions_.tier(at(c));
         const std::string id = c.attribute("xml:id").value();
         t->name = id.empty() ? "div-" + std::to_string(divs_) : id;
         for (pugi::xml_attribute a : c.attributes()) {
@@ -309,7 +322,8 @@ void ttml_reader::walk(const pugi::xml_node& n, const span& active, std::size_t 
 }
 
 void ttml_reader::text_of(const pugi::xml_node& n, std::string& out, const span& active,
-                          bool preserve, std::vector<annotation>* words) {
+                          bool preserve, std::vector<annotation>* words,
+                          std::vector<std::size_t>* word_offsets) {
   for (pugi::xml_node c : n.children()) {
     if (c.type() == pugi::node_pcdata || c.type() == pugi::node_cdata) {
       // Line breaks in the source are white space; only br breaks a line (xml:space default).
@@ -327,15 +341,18 @@ void ttml_reader::text_of(const pugi::xml_node& n, std::string& out, const span&
                                std::string_view(n.attribute("timeContainer").value()) == "seq");
         if (timed && words) {
           std::string piece;
-          text_of(c, piece, s, keep, nullptr);
+          text_of(c, piece, s, keep, nullptr, nullptr);
           annotation w;
           w.start = s.begin;
           w.end = s.end.value_or(s.begin);
           w.text = keep ? piece : collapse_space(piece);
-          if (!w.text.empty()) words->push_back(std::move(w));
+          if (!w.text.empty()) {
+            words->push_back(std::move(w));
+            word_offsets->push_back(at(c));
+          }
           out += piece;
         } else {
-          text_of(c, out, s, keep, words);
+          text_of(c, out, s, keep, words, word_offsets);
         }
       }
     }
@@ -354,9 +371,10 @@ void ttml_reader::read_p(const pugi::xml_node& p, const span& active, std::size_
   if (const char* id = p.attribute("xml:id").value(); *id) a.id = id;
   const bool preserve = std::string_view(p.attribute("xml:space").value()) == "preserve";
   std::vector<annotation> words;
+  std::vector<std::size_t> word_offsets;
   std::string text;
   // Spans in a seq p follow one another; text_of resolves them against p's interval.
-  text_of(p, text, active, preserve, &words);
+  text_of(p, text, active, preserve, &words, &word_offsets);
   a.text = preserve ? text : collapse_space(text);
   bool plain = true;
   for (pugi::xml_node c : p.children())
@@ -377,7 +395,10 @@ void ttml_reader::read_p(const pugi::xml_node& p, const span& active, std::size_
   }
   for (annotation& w : words)
     words_[index].push_back(std::move(w));
+  for (std::size_t offset : word_offsets)
+    word_offsets_[index].push_back(offset);
   out_.doc.tiers[index].annotations.push_back(std::move(a));
+  positions_.annotation(index, at(p));
 }
 
 }  // namespace

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <unordered_set>
 
+#include "tiers/detail/positions.hpp"
 #include "tiers/detail/report.hpp"
 #include "vtt_format.hpp"
 #include "vtt_syntax.hpp"
@@ -59,6 +60,7 @@ class vtt_reader {
   const read_options& options_;
   read_result& out_;
   std::vector<annotation> cues_, words_;
+  std::vector<std::size_t> cue_offsets_, word_offsets_;  // timing line, cue text
   bool seen_cue_ = false;
   std::vector<std::string> regions_;
   std::string prelude_, pending_notes_, header_;
@@ -105,11 +107,19 @@ void vtt_reader::run() {
   tier& t = out_.doc.tiers.emplace_back();
   t.name = options_.tier_name;
   t.annotations = std::move(cues_);
+  // The cue tier is the file, whose signature says so; the words are where their cues' text is.
+  position_recorder positions(options_, out_);
+  positions.tier(in.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0);
+  for (std::size_t offset : cue_offsets_)
+    positions.annotation(0, offset);
   if (!words_.empty()) {
     tier& w = out_.doc.tiers.emplace_back();
     w.name = options_.tier_name + ".words";
     w.parent = parent_link{options_.tier_name, relation::within};
     w.annotations = std::move(words_);
+    positions.tier(word_offsets_.front());
+    for (std::size_t offset : word_offsets_)
+      positions.annotation(1, offset);
   }
 }
 
@@ -143,16 +153,17 @@ void vtt_reader::collect_block(bool in_header) {
         };
         // `bad` ends at the start of the part that fails, for the warning's column.
         std::size_t bad = 0;
+        bool too_large = false;
         skip();
         bad = p;
-        const auto start = collect_timestamp(line, p);
+        const auto start = collect_timestamp(line, p, &too_large);
         skip();
         if (start) bad = p;
         const bool arrow = start && line.substr(p, 3) == "-->";
         if (arrow) p += 3;
         skip();
         if (arrow) bad = p;
-        const auto end = arrow ? collect_timestamp(line, p) : std::nullopt;
+        const auto end = arrow ? collect_timestamp(line, p, &too_large) : std::nullopt;
         if (start && end) {
           a.start = *start;
           a.end = *end;
@@ -164,6 +175,13 @@ void vtt_reader::collect_block(bool in_header) {
           kind = block_kind::cue;
           buffer.clear();
           seen_cue_ = true;
+        } else if (too_large) {
+          // The parser would keep this cue; the model cannot hold its time, so stop.
+          note(severity::error, "time.range", line_offset + bad,
+               "timestamp " + std::string(describe(time_status::out_of_range)));
+          cue.reset();
+          kind = block_kind::none;
+          skipped = true;
         } else {
           note(severity::warning, "vtt.timing", line_offset + bad,
                "cue skipped, as a browser skips it: its timing line is not "
@@ -279,6 +297,7 @@ void vtt_reader::finish_cue(annotation& cue, std::string_view settings, std::siz
     pending_notes_.clear();
   }
   cues_.push_back(std::move(cue));
+  cue_offsets_.push_back(timing_offset);
 }
 
 // Inline timestamps (§4.2.2 "WebVTT cue timestamp") become word timings: each timestamp starts
@@ -296,8 +315,10 @@ void vtt_reader::add_words(const annotation& cue, const cue_text& parsed, std::s
     }
     previous = s.time;
   }
-  for (annotation& w : timed_words(parsed, cue.start, cue.end))
+  for (annotation& w : timed_words(parsed, cue.start, cue.end)) {
     words_.push_back(std::move(w));
+    word_offsets_.push_back(text_offset);
+  }
 }
 
 }  // namespace

@@ -141,7 +141,8 @@ std::string_view line_reader::next(bool& ended) {
   return in.substr(begin, end - begin);
 }
 
-std::optional<time_ns> collect_timestamp(std::string_view in, std::size_t& pos) {
+std::optional<time_ns> collect_timestamp(std::string_view in, std::size_t& pos,
+                                         bool* out_of_range) {
   auto digits = [&](std::int64_t& value, std::size_t& count) {
     value = 0;
     count = 0;
@@ -178,7 +179,10 @@ std::optional<time_ns> collect_timestamp(std::string_view in, std::size_t& pos) 
   // Hours are capped at 10^12 while reading: far beyond time_ns, so check the range here.
   constexpr std::int64_t max_hours =
       std::numeric_limits<time_ns>::max() / (3600 * ns_per_second) - 1;
-  if (v1 > max_hours) return std::nullopt;
+  if (v1 > max_hours) {
+    if (out_of_range) *out_of_range = true;
+    return std::nullopt;
+  }
   return ((v1 * 3600 + v2 * 60 + v3) * 1000 + v4) * 1'000'000;
 }
 

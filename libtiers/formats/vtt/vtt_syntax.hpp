@@ -25,8 +25,10 @@ struct line_reader {
 };
 
 /// "Collect a WebVTT timestamp" (§6.3): `[h…:]mm:ss.ttt`, reading from `pos` in `in` and
-/// advancing it. The first field is hours when it is not two digits or is above 59.
-std::optional<time_ns> collect_timestamp(std::string_view in, std::size_t& pos);
+/// advancing it. The first field is hours when it is not two digits or is above 59. A timestamp
+/// that is well-formed but beyond what time_ns holds sets `*out_of_range` when given.
+std::optional<time_ns> collect_timestamp(std::string_view in, std::size_t& pos,
+                                         bool* out_of_range = nullptr);
 
 /// `hh:mm:ss.ttt`; `t` must be a whole number of milliseconds, zero or more.
 std::string format_timestamp(time_ns t);

@@ -40,6 +40,19 @@ struct text_position {
 };
 text_position locate(std::string_view text, std::size_t offset);
 
+/// Locates many offsets in one pass over `text` when they come in increasing order (a smaller
+/// offset than the one before starts again from the top: correct, only slower).
+class position_finder {
+ public:
+  explicit position_finder(std::string_view text) : text_(text) {}
+  text_position at(std::size_t offset);
+
+ private:
+  std::string_view text_;
+  std::size_t done_ = 0;  ///< bytes walked so far
+  text_position pos_;     ///< of byte done_
+};
+
 /// Fills in line and column of every diagnostic that has an offset, in one pass over `text`.
 void locate_all(std::string_view text, std::vector<diagnostic>& diagnostics);
 

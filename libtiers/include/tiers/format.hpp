@@ -82,16 +82,45 @@ struct read_options {
   time_unit unit = time_unit::seconds;
   std::optional<rational> rate;  ///< frames and timecode: frames per second
   bool strict = false;           ///< formats with authoring rules (vtt): violations are errors
+  /// Record where each tier and annotation is in the input (read_result::positions), for
+  /// messages that point at them. Off by default: it costs memory per annotation.
+  bool positions = false;
 };
 
 /// Options for writing; the writer drops what the format cannot carry.
 struct write_options {};
+
+/// Where something is in the input: a byte offset, and the line and column `read_document`
+/// computes from it (both 1-based; 0 when unknown).
+struct source_position {
+  std::size_t offset = no_offset;
+  std::size_t line = 0;
+  std::size_t column = 0;
+};
+
+/// Where each tier and each annotation of a document was read from, index for index: the line
+/// that declares a tier (or its first row), and the line, row, element or object of each
+/// annotation. Filled when read_options::positions is set.
+struct source_map {
+  std::vector<source_position> tiers;
+  std::vector<std::vector<source_position>> annotations;  ///< [tier][annotation]
+
+  /// The position of tier `t`, or of its annotation `a`; unknown when out of range.
+  source_position of_tier(std::size_t t) const {
+    return t < tiers.size() ? tiers[t] : source_position{};
+  }
+  source_position of_annotation(std::size_t t, std::size_t a) const {
+    return t < annotations.size() && a < annotations[t].size() ? annotations[t][a]
+                                                               : source_position{};
+  }
+};
 
 /// What reading produced: the document and every diagnostic, located by byte offset.
 /// When `diagnostics` holds an error, `doc` is incomplete and must not be used.
 struct read_result {
   document doc;
   std::vector<diagnostic> diagnostics;
+  source_map positions;  ///< empty unless read_options::positions was set
   bool ok() const { return !has_errors(diagnostics); }
 };
 

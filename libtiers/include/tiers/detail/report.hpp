@@ -4,6 +4,7 @@
 #include <string>
 
 #include "tiers/diagnostic.hpp"
+#include "tiers/time.hpp"
 
 namespace tiers::detail {
 
@@ -15,6 +16,12 @@ inline diagnostic make_diagnostic(severity level, std::string code, std::size_t 
   d.offset = offset;
   d.message = std::move(message);
   return d;
+}
+
+/// The code of a time a reader cannot take: `time.range` for one beyond what the model holds
+/// (the same rule in every format, as `tiers check` lists it), else the format's own code.
+inline std::string time_code(time_status status, std::string_view format_code) {
+  return std::string(status == time_status::out_of_range ? "time.range" : format_code);
 }
 
 /// Names in messages: 'captions'.
