@@ -7,6 +7,7 @@
 #include "tiers/io.hpp"
 #include "tiers/model.hpp"
 #include "tiers/sink.hpp"
+#include "tiers/text.hpp"
 #include "tiers/time.hpp"
 #include "tiers/version.hpp"
 #include "tiers/voices.hpp"
