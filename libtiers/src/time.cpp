@@ -255,6 +255,38 @@ parsed_time frame_time(std::int64_t frame, rational rate) {
   return ok(static_cast<time_ns>(t));
 }
 
+time_ns duration_value::at(rational rate) const {
+  if (!frames) return ns;
+  const parsed_time t = frame_time(*frames, rate);
+  return t ? t.value : std::numeric_limits<time_ns>::max();
+}
+
+std::optional<duration_value> parse_duration(std::string_view text) {
+  duration_value d;
+  parsed_time t;
+  if (text.ends_with("ms")) {
+    t = parse_milliseconds(text.substr(0, text.size() - 2));
+  } else if (text.ends_with("f")) {
+    std::int64_t n = 0;
+    const std::string_view digits = text.substr(0, text.size() - 1);
+    auto [p, ec] = std::from_chars(digits.data(), digits.data() + digits.size(), n);
+    if (digits.empty() || ec != std::errc{} || p != digits.data() + digits.size() || n < 0)
+      return std::nullopt;
+    d.frames = n;
+    return d;
+  } else {
+    t = parse_seconds(text.ends_with("s") ? text.substr(0, text.size() - 1) : text);
+  }
+  if (!t || t.value < 0) return std::nullopt;
+  d.ns = t.value;
+  return d;
+}
+
+std::string format_duration(const duration_value& d) {
+  if (d.frames) return std::to_string(*d.frames) + "f";
+  return format_seconds(d.ns) + "s";
+}
+
 parsed_time parse_frames(std::string_view text, std::optional<rational> rate) {
   std::int64_t frame = 0;
   const char* end = text.data() + text.size();

@@ -50,6 +50,7 @@ def read(path, default=b""):
 
 def main():
     tiers, case, samples, output_dir = sys.argv[1:5]
+    tiers = os.path.abspath(tiers)  # the command runs in a scratch folder
     update = "--update" in sys.argv[5:]
     name = os.path.basename(os.path.normpath(case))
     with open(os.path.join(case, "cmd")) as fh:

@@ -1,17 +1,24 @@
 #!/usr/bin/python3
-"""Validates tiers JSON documents against schemas/tiers.schema.json.
+"""Validates every JSON document the tests wrote against the schema of its kind.
 
-The validator is python3-jsonschema (Debian), Draft 2020-12: an implementation independent of
-tiers, so that a writer bug and a schema bug cannot hide each other.
+The validator is python3-jsonschema (Debian): an implementation independent of tiers, so that a
+writer bug and a schema bug cannot hide each other. The kind is the document's `format` member:
+`tiers` (schemas/tiers.schema.json), `tiers-profile` (profile.schema.json), `tiers-check`
+(check.schema.json), all Draft 2020-12. SARIF logs (`"version": "2.1.0"` with `runs`) are
+validated against the OASIS SARIF 2.1.0 schema (Draft 4) when --sarif names it; without it
+they are counted as skipped. A document of another kind fails.
 
-Usage: validate_json.py SCHEMA PATH... (folders are searched for *.json; at least one file
-must be found, so that an empty run cannot pass).
+Usage: validate_json.py SCHEMA_DIR [--sarif SCHEMA] PATH... (folders are searched for *.json;
+at least one file must be found, so that an empty run cannot pass).
 """
 import json
 import os
 import sys
 
 import jsonschema
+
+KINDS = {"tiers": "tiers.schema.json", "tiers-profile": "profile.schema.json",
+         "tiers-check": "check.schema.json"}
 
 
 def files(paths):
@@ -25,22 +32,47 @@ def files(paths):
             yield p
 
 
-def main():
-    with open(sys.argv[1]) as fh:
+def validator(path, draft):
+    with open(path) as fh:
         schema = json.load(fh)
-    jsonschema.Draft202012Validator.check_schema(schema)
-    validator = jsonschema.Draft202012Validator(schema)
-    count = 0
-    bad = 0
-    for path in files(sys.argv[2:]):
+    draft.check_schema(schema)
+    return draft(schema)
+
+
+def main():
+    args = sys.argv[1:]
+    schema_dir = args.pop(0)
+    sarif = None
+    if args and args[0] == "--sarif":
+        args.pop(0)
+        sarif_path = args.pop(0)
+        if os.path.exists(sarif_path):
+            sarif = validator(sarif_path, jsonschema.Draft4Validator)
+    validators = {k: validator(os.path.join(schema_dir, v), jsonschema.Draft202012Validator)
+                  for k, v in KINDS.items()}
+    count = bad = skipped = 0
+    for path in files(args):
         with open(path, encoding="utf-8") as fh:
             doc = json.load(fh)
+        if isinstance(doc, dict) and doc.get("version") == "2.1.0" and "runs" in doc:
+            if sarif is None:
+                skipped += 1
+                continue
+            v = sarif
+        elif isinstance(doc, dict) and doc.get("format") in validators:
+            v = validators[doc["format"]]
+        else:
+            print(f"{path}: not a document of a kind with a schema")
+            bad += 1
+            count += 1
+            continue
         count += 1
-        errors = sorted(validator.iter_errors(doc), key=lambda e: list(e.path))
+        errors = sorted(v.iter_errors(doc), key=lambda e: list(e.path))
         for e in errors[:5]:
             print(f"{path}: {'/'.join(map(str, e.path))}: {e.message}")
         bad += bool(errors)
-    print(f"{count - bad} passed, {bad} failed")
+    print(f"{count - bad} passed, {bad} failed" +
+          (f", {skipped} SARIF logs skipped (no SARIF schema)" if skipped else ""))
     if count == 0:
         print("no JSON files found")
         return 1

@@ -178,3 +178,22 @@ TEST_CASE("clock time for people rounds at the shown precision", "[time]") {
   CHECK(format_clock(-1'500'000'000, 1) == "-00:00:01.5");
   CHECK(format_clock(90 * ns_per_second, 0) == "00:01:30");
 }
+
+TEST_CASE("durations take a unit: s, ms or frames", "[time]") {
+  CHECK(parse_duration("1.5s")->ns == 1'500'000'000);
+  CHECK(parse_duration("1.5")->ns == 1'500'000'000);  // plain numbers are seconds
+  CHECK(parse_duration("250ms")->ns == 250'000'000);
+  CHECK(parse_duration("0.833333333s")->ns == 833'333'333);
+  const auto two = parse_duration("2f");
+  REQUIRE(two);
+  CHECK(two->frames == 2);
+  CHECK(two->at({25, 1}) == 80'000'000);
+  // 2 × 1001/30000 s = 66,733,333.3… ns, rounded to the nearest (computed).
+  CHECK(two->at({30000, 1001}) == 66'733'333);
+  for (const char* bad : {"", "s", "-1s", "1.5 s", "2.5f", "f", "ms", "1e999s", "abc"}) {
+    INFO(bad);
+    CHECK_FALSE(parse_duration(bad));
+  }
+  CHECK(format_duration(*parse_duration("2f")) == "2f");
+  CHECK(format_duration(*parse_duration("250ms")) == "0.25s");
+}

@@ -59,29 +59,24 @@ rational parse_rate_option(const std::string& text) {
   throw usage_error("--rate: '" + text + "' is not a positive frame rate such as 25 or 30000/1001");
 }
 
-namespace {
-
-const format& choose_input_format(const input_options& in, std::string_view content) {
-  if (!in.from.empty()) return format_named(in.from);
-  if (in.path != "-")
-    if (const format* f = format_for_path(in.path)) return *f;
+const format* input_format(const input_options& in, const std::string& path,
+                           std::string_view content, diagnostic& why) {
+  if (!in.from.empty()) return &format_named(in.from);
+  if (path != "-")
+    if (const format* f = format_for_path(path)) return f;
   const auto sniffed = sniff_formats(content.substr(0, 4096));
-  if (!sniffed.empty()) return *sniffed.front();
-  const std::string ext = in.path == "-" ? "" : std::filesystem::path(in.path).extension().string();
-  diagnostic d;
-  d.file = display_name(in.path);
-  d.code = "input.format";
-  d.message =
+  if (!sniffed.empty()) return sniffed.front();
+  const std::string ext = path == "-" ? "" : std::filesystem::path(path).extension().string();
+  why.file = display_name(path);
+  why.code = "input.format";
+  why.message =
       std::string("cannot tell the format: ") +
       (ext.empty() ? "the name has no extension" : "no format uses the extension '" + ext + "'") +
       ", and the content looks like none of " + format_names() + "; name it with --from";
-  report(d);
-  throw rejected();
+  return nullptr;
 }
 
-}  // namespace
-
-document load_document(const input_options& in) {
+read_options reading_options(const input_options& in, const std::string& path) {
   read_options options;
   if (!in.columns.empty()) {
     std::string problem;
@@ -96,13 +91,22 @@ document load_document(const input_options& in) {
                                             : time_unit::seconds;
   if (!in.tier_name.empty())
     options.tier_name = in.tier_name;
-  else if (in.path != "-")
-    options.tier_name = std::filesystem::path(in.path).stem().string();
+  else if (path != "-")
+    options.tier_name = std::filesystem::path(path).stem().string();
   if (!in.from.empty()) format_named(in.from);  // a usage error before any input is read
+  return options;
+}
 
+document load_document(const input_options& in) {
+  const read_options options = reading_options(in, in.path);
   const std::string content = read_input(in.path);
-  const format& fmt = choose_input_format(in, content);
-  read_result result = read_document(content, fmt, options, display_name(in.path));
+  diagnostic why;
+  const format* fmt = input_format(in, in.path, content, why);
+  if (!fmt) {
+    report(why);
+    throw rejected();
+  }
+  read_result result = read_document(content, *fmt, options, display_name(in.path));
   for (const diagnostic& d : result.diagnostics)
     report(d);
   if (!result.ok()) throw rejected();

@@ -37,6 +37,15 @@ struct input_options {
 /// Adds --from, --columns, --tier-name, --time-unit and --rate to `cmd`.
 void add_input_options(CLI::App& cmd, input_options& in);
 
+/// The reading options of `in` for the file `path` (a table or WebVTT tier is named after the
+/// file's stem unless --tier-name says otherwise); throws usage_error on bad option values.
+read_options reading_options(const input_options& in, const std::string& path);
+
+/// The format to read `path` with: --from, else the extension, else the content. Null when none
+/// fits, with `why` saying so.
+const format* input_format(const input_options& in, const std::string& path,
+                           std::string_view content, diagnostic& why);
+
 /// Reads and parses the input, printing every diagnostic; throws rejected on errors.
 document load_document(const input_options& in);
 

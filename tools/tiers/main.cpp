@@ -3,6 +3,7 @@
 #include <cstdio>
 #include <new>
 
+#include "check_command.hpp"
 #include "cli_common.hpp"
 #include "convert_command.hpp"
 #include "info_command.hpp"
@@ -21,13 +22,16 @@ int main(int argc, char** argv) {
   app.fallthrough(false);
   convert_options convert;
   info_options info;
+  check_options check;
   const CLI::App* convert_cmd = setup_convert(app, convert);
   const CLI::App* info_cmd = setup_info(app, info);
+  const CLI::App* check_cmd = setup_check(app, check);
 
   try {
     app.parse(argc, argv);
     if (convert_cmd->parsed()) return run_convert(convert);
     if (info_cmd->parsed()) return run_info(info);
+    if (check_cmd->parsed()) return run_check(check);
   } catch (const CLI::CallForHelp& e) {
     return app.exit(e);
   } catch (const CLI::CallForAllHelp& e) {

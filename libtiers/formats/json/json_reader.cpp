@@ -6,37 +6,13 @@
 #include <limits>
 #include <nlohmann/json.hpp>
 
+#include "../../src/json_sax.hpp"
 #include "json_format.hpp"
 #include "tiers/detail/positions.hpp"
 #include "tiers/detail/report.hpp"
 
 namespace tiers::detail {
 namespace {
-
-// Counts the bytes the parser has consumed, so that SAX events can be located.
-struct counting_iterator {
-  using iterator_category = std::input_iterator_tag;
-  using value_type = char;
-  using difference_type = std::ptrdiff_t;
-  using pointer = const char*;
-  using reference = const char&;
-
-  const char* p = nullptr;
-  std::size_t* consumed = nullptr;
-
-  reference operator*() const { return *p; }
-  counting_iterator& operator++() {
-    ++p;
-    ++*consumed;
-    return *this;
-  }
-  counting_iterator operator++(int) {
-    counting_iterator old = *this;
-    ++*this;
-    return old;
-  }
-  bool operator==(const counting_iterator& o) const { return p == o.p; }
-};
 
 using json = nlohmann::json;
 
@@ -215,22 +191,9 @@ class handler final : public nlohmann::json_sax<json> {
 
   bool parse_error(std::size_t, const std::string&,
                    const nlohmann::detail::exception& ex) override {
-    std::string what = ex.what();
-    // "[json.exception.parse_error.101] parse error at line 1, column 7: syntax error while
-    // parsing value - unexpected end of input; ..." — keep what follows the location.
-    if (auto at = what.find(": "); at != std::string::npos) what = what.substr(at + 2);
-    if (auto dash = what.find(" - ");
-        what.rfind("syntax error", 0) == 0 && dash != std::string::npos)
-      what = what.substr(dash + 3);
-    if (auto last = what.find("; last read:"); last != std::string::npos) {
-      const std::size_t close = what.find("'; ", last + 14);
-      what.erase(last, close == std::string::npos ? std::string::npos : close + 1 - last);
-    }
-    // The parser stops on the offending byte, or at the end of the input.
-    const bool at_end =
-        consumed_ >= input_.size() && what.find("end of input") != std::string::npos;
-    const std::size_t where = at_end ? input_.size() : here();
-    return fail_at("json.syntax", std::min(where, input_.size()), "invalid JSON: " + what);
+    const std::string what = parse_error_text(ex);
+    return fail_at("json.syntax", parse_error_offset(what, consumed_, input_.size()),
+                   "invalid JSON: " + what);
   }
 
   bool failed() const { return failed_; }
@@ -326,16 +289,7 @@ class handler final : public nlohmann::json_sax<json> {
 bool handler::key(string_t& k) {
   key_ = std::move(k);
   // The parser has just read the closing quote; the key starts at the matching opening one.
-  std::size_t q = here();
-  while (q > 0) {
-    --q;
-    if (input_[q] != '"') continue;
-    std::size_t backslashes = 0;
-    while (q >= backslashes + 1 && input_[q - backslashes - 1] == '\\')
-      ++backslashes;
-    if (backslashes % 2 == 0) break;
-  }
-  key_offset_ = q;
+  key_offset_ = opening_quote(input_, here());
   frame& f = stack_.back();
   const auto names = members_of(f.where);
   member_ = -1;

@@ -74,6 +74,22 @@ parsed_time parse_frames(std::string_view text, std::optional<rational> rate);
 parsed_time parse_timecode(std::string_view text, std::optional<rational> rate,
                            std::int64_t* frames = nullptr);
 
+/// A length of time as options and profiles write it: `250ms`, `1.5s`, `2f` (whole frames, at
+/// a frame rate known only later), or a plain number, which is seconds. Never negative.
+struct duration_value {
+  time_ns ns = 0;                      ///< the length, unless it is counted in frames
+  std::optional<std::int64_t> frames;  ///< the length in frames, when written with `f`
+  /// The length in nanoseconds: frames at `rate`, rounded to the nearest nanosecond.
+  time_ns at(rational rate) const;
+  friend bool operator==(const duration_value&, const duration_value&) = default;
+};
+
+/// Parses a duration; nothing for malformed, negative or out-of-range text.
+std::optional<duration_value> parse_duration(std::string_view text);
+
+/// `2f`, `1.5s`, `0.25s`: what parse_duration reads back.
+std::string format_duration(const duration_value& d);
+
 /// Exact decimal seconds with as few fraction digits as needed: `1.25`, `-0.000000001`, `3`.
 std::string format_seconds(time_ns t);
 

@@ -1,0 +1,115 @@
+// Checking documents and datasets: the problems `tiers check` reports, and its reports in JSON
+// and SARIF.
+#pragma once
+
+#include <cstddef>
+#include <optional>
+#include <span>
+#include <string>
+#include <vector>
+
+#include "tiers/diagnostic.hpp"
+#include "tiers/format.hpp"
+#include "tiers/lag.hpp"
+#include "tiers/model.hpp"
+#include "tiers/profile.hpp"
+#include "tiers/sink.hpp"
+
+namespace tiers {
+
+/// One problem found by a check: a diagnostic whose code is a rule id, plus what it is about.
+struct problem {
+  diagnostic diag;                     ///< rule id (code), severity, message, file, line, column
+  std::string tier;                    ///< the tier it is about; empty when about the file
+  std::optional<time_ns> start, end;   ///< the annotation's times, or the span's
+  std::optional<double> value, limit;  ///< what was measured and its bound, for threshold rules
+};
+
+/// `FILE:LINE:COLUMN: severity: message [rule]`; without a line, the tier and time come
+/// first in the message (`tier 'captions' at 00:00:03.200: …`).
+std::string format_problem(const problem& p);
+
+/// What a check needs to know beyond the document: which tiers play which role (unset roles
+/// come from the profile), and what the file's format could not say.
+struct check_context {
+  std::optional<std::string> captions;  ///< the caption tier
+  std::optional<std::string> words;     ///< the word timings: a tier of the same document,
+  const document* words_doc = nullptr;  ///< or of this document, read from another file
+  std::string words_file;
+  const source_map* words_positions = nullptr;
+  /// Whether the file's format tells point tiers from intervals (format feature point_tiers).
+  /// When it cannot (tables, captions), a tier whose every annotation is an instant is taken
+  /// as a point tier rather than reported.
+  bool point_tiers = true;
+};
+
+/// How the captions compared with the words.
+struct lag_report {
+  std::string captions, words;  ///< the tiers compared
+  lag_statistics stats;
+  std::size_t tokens = 0;   ///< caption words
+  std::size_t matched = 0;  ///< caption words found among the timed words
+};
+
+/// Everything a check found in one file.
+struct file_report {
+  std::string path;
+  std::vector<problem> problems;  ///< in the order of the file (those without a line first)
+  std::optional<lag_report> lag;
+  std::size_t count(severity level) const;
+};
+
+/// Checks one document read from `file` against the rule catalogue and `p`. `positions` (from
+/// read_options::positions, possibly empty) locates the problems; `read` are the reader's own
+/// diagnostics, kept as problems (except the format's authoring rules that the model's rules
+/// report as well: WebVTT cue order, empty cues and repeated ids).
+file_report check_document(const document& doc, const source_map& positions,
+                           const std::string& file, const profile& p,
+                           const check_context& context = {},
+                           const std::vector<diagnostic>& read = {});
+
+/// A report for a file that could not be read: its diagnostics as problems.
+file_report unreadable_file(const std::string& file, const std::vector<diagnostic>& read);
+
+/// What a file's tiers look like, kept to compare the files of a dataset.
+struct tier_shape {
+  std::string name;
+  tier_kind kind = tier_kind::interval;
+  std::optional<std::vector<std::string>> vocabulary;
+  source_position where;
+};
+std::vector<tier_shape> shape_of(const document& doc, const source_map& positions);
+
+/// Compares the files of a dataset with one another: a tier that most files have but one
+/// lacks, or has with another kind or vocabulary, is reported in that file
+/// (dataset.inconsistent). `shapes[k]` belongs to `reports[k]`; files without a shape (not
+/// read) are left out. Needs at least three files to tell what most files do.
+void check_dataset(std::span<file_report> reports,
+                   std::span<const std::optional<std::vector<tier_shape>>> shapes,
+                   const profile& p);
+
+/// Totals over the reports of a check.
+struct check_summary {
+  std::size_t files = 0;
+  std::size_t files_with_errors = 0;
+  std::size_t files_with_warnings = 0;
+  std::size_t errors = 0, warnings = 0, notes = 0;
+  struct rule_count {
+    std::string rule;
+    severity level = severity::error;
+    std::size_t problems = 0;
+    std::size_t files = 0;
+  };
+  std::vector<rule_count> by_rule;  ///< most problems first
+};
+check_summary summarize(std::span<const file_report> reports);
+
+/// The report as JSON: {"files": [{"path", "problems": […], "lag": {…}}], "summary": {…}}
+/// (docs/cli.md, "check").
+void write_check_json(std::span<const file_report> reports, byte_sink& out);
+
+/// The report as one SARIF 2.1.0 log: one run, the rule catalogue as the driver's rules, one
+/// result per problem.
+void write_check_sarif(std::span<const file_report> reports, byte_sink& out);
+
+}  // namespace tiers

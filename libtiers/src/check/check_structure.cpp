@@ -1,0 +1,164 @@
+// Rules on how tiers hang together: parent tiers, children inside (or partitioning) their
+// parent annotations, references by id, unique ids, and labels from a vocabulary.
+#include <algorithm>
+#include <map>
+#include <numeric>
+#include <unordered_map>
+#include <unordered_set>
+
+#include "checker.hpp"
+#include "tiers/detail/report.hpp"
+
+namespace tiers::detail {
+namespace {
+
+std::optional<std::size_t> index_of(const document& doc, std::string_view name) {
+  for (std::size_t k = 0; k < doc.tiers.size(); ++k)
+    if (doc.tiers[k].name == name) return k;
+  return std::nullopt;
+}
+
+// Parent annotations by start, and for each the latest end among it and those before it: a
+// child [s, e] lies inside some parent exactly when the parent found for s reaches e.
+struct parent_index {
+  std::vector<std::size_t> order;
+  std::vector<time_ns> starts;
+  std::vector<std::size_t> reach;  // index (into order) of the farthest-ending parent so far
+
+  explicit parent_index(const std::vector<annotation>& ps) : order(ps.size()) {
+    std::iota(order.begin(), order.end(), std::size_t{0});
+    std::stable_sort(order.begin(), order.end(),
+                     [&](std::size_t a, std::size_t b) { return ps[a].start < ps[b].start; });
+    for (std::size_t k = 0; k < order.size(); ++k) {
+      starts.push_back(ps[order[k]].start);
+      const bool further = k == 0 || ps[order[k]].end > ps[order[reach[k - 1]]].end;
+      reach.push_back(further ? k : reach[k - 1]);
+    }
+  }
+  // The parent annotation that contains [s, e], or no_index.
+  std::size_t containing(const std::vector<annotation>& ps, time_ns s, time_ns e) const {
+    const auto it = std::upper_bound(starts.begin(), starts.end(), s);
+    if (it == starts.begin()) return no_index;
+    const std::size_t k = reach[static_cast<std::size_t>(it - starts.begin()) - 1];
+    return ps[order[k]].end >= e ? order[k] : no_index;
+  }
+};
+
+}  // namespace
+
+void checker::check_structure(std::size_t t) {
+  const tier& tr = doc_.tiers[t];
+  const auto& as = tr.annotations;
+
+  if (on("structure.duplicate-id")) {
+    std::unordered_map<std::string_view, std::size_t> ids;
+    for (std::size_t a = 0; a < as.size(); ++a) {
+      if (!as[a].id) continue;
+      auto [it, added] = ids.emplace(*as[a].id, a);
+      if (!added) {
+        const std::string there = where(t, it->second);
+        emit("structure.duplicate-id", t, a,
+             "id " + quote_name(*as[a].id) + " is used again" +
+                 (there.empty() ? "" : " (first at " + there + ")"));
+      }
+    }
+  }
+
+  const tier_spec* spec = profile_.find_tier(tr.name);
+  const std::optional<std::vector<std::string>>& vocabulary =
+      spec && spec->vocabulary ? spec->vocabulary : tr.vocabulary;
+  if (vocabulary && on("structure.vocabulary")) {
+    const std::unordered_set<std::string_view> allowed(vocabulary->begin(), vocabulary->end());
+    std::string listed;
+    for (std::size_t k = 0; k < vocabulary->size() && k < 8; ++k)
+      listed += (k ? ", " : "") + (*vocabulary)[k];
+    if (vocabulary->size() > 8) listed += ", …";
+    for (std::size_t a = 0; a < as.size(); ++a)
+      if (!as[a].text.empty() && !allowed.count(as[a].text))
+        emit("structure.vocabulary", t, a,
+             "label " + quote_name(as[a].text) + " is not in the vocabulary of " +
+                 quote_name(tr.name) + " (" + (listed.empty() ? "no labels" : listed) + ")");
+  }
+
+  // A tier without a parent of its own takes the one its profile declares (a table cannot say).
+  const std::optional<parent_link>& link = tr.parent ? tr.parent : spec ? spec->parent : tr.parent;
+  if (!link) return;
+  const auto p = index_of(doc_, link->tier);
+  if (!p && !tr.parent) return;  // the profile's parent tier is missing: dataset.tier-missing
+  if (!p || *p == t) {
+    emit("structure.parent-tier", t, no_index,
+         "tier " + quote_name(tr.name) + " names " + quote_name(link->tier) + " as its parent, " +
+             (p ? "which is itself" : "which is not in the file"));
+    return;
+  }
+  // A parent chain that comes back to this tier is a cycle: no annotation can be placed.
+  std::size_t up = *p;
+  for (std::size_t steps = 0; steps < doc_.tiers.size(); ++steps) {
+    const std::optional<parent_link>& next = doc_.tiers[up].parent;
+    if (!next) break;
+    const auto n = index_of(doc_, next->tier);
+    if (!n) break;
+    if (*n == t) {
+      emit(
+          "structure.parent-tier", t, no_index,
+          "tier " + quote_name(tr.name) + " is its own ancestor through " + quote_name(link->tier));
+      return;
+    }
+    up = *n;
+  }
+
+  const std::vector<annotation>& ps = doc_.tiers[*p].annotations;
+  if (link->rel == relation::refers) {
+    if (!on("structure.missing-parent")) return;
+    std::unordered_set<std::string_view> ids;
+    for (const annotation& x : ps)
+      if (x.id) ids.insert(*x.id);
+    for (std::size_t a = 0; a < as.size(); ++a) {
+      if (!as[a].parent)
+        emit("structure.missing-parent", t, a,
+             "refers to no annotation of its parent tier " + quote_name(link->tier));
+      else if (!ids.count(*as[a].parent))
+        emit("structure.missing-parent", t, a,
+             "refers to " + quote_name(*as[a].parent) + ", which tier " + quote_name(link->tier) +
+                 " does not have");
+    }
+    return;
+  }
+
+  const parent_index index(ps);
+  std::map<std::size_t, std::vector<std::size_t>> children;  // parent annotation -> children
+  for (std::size_t a = 0; a < as.size(); ++a) {
+    if (as[a].end < as[a].start) continue;  // reported by time.reversed
+    const std::size_t in = index.containing(ps, as[a].start, as[a].end);
+    if (in == no_index)
+      emit("structure.outside-parent", t, a,
+           "lies outside every annotation of its parent tier " + quote_name(link->tier) + " (" +
+               clock(as[a].start) + " to " + clock(as[a].end) + ")");
+    else
+      children[in].push_back(a);
+  }
+  if (link->rel != relation::partition || !on("structure.partition")) return;
+  for (auto& [parent, kids] : children) {
+    std::stable_sort(kids.begin(), kids.end(),
+                     [&](std::size_t a, std::size_t b) { return as[a].start < as[b].start; });
+    time_ns covered = ps[parent].start;
+    const std::string of =
+        "of its parent (" + clock(ps[parent].start) + " to " + clock(ps[parent].end) + ")";
+    for (std::size_t a : kids) {
+      if (as[a].start > covered)
+        emit("structure.partition", t, a,
+             "leaves " + clock(covered) + " to " + clock(as[a].start) + " " + of + " uncovered");
+      else if (as[a].start < covered)
+        emit("structure.partition", t, a,
+             "overlaps its sibling by " + seconds(std::min(covered, as[a].end) - as[a].start) +
+                 " where the children must partition their parent");
+      covered = std::max(covered, as[a].end);
+    }
+    if (covered < ps[parent].end)
+      emit("structure.partition", t, kids.back(),
+           "leaves " + clock(covered) + " to " + clock(ps[parent].end) + " " + of +
+               " uncovered after it");
+  }
+}
+
+}  // namespace tiers::detail

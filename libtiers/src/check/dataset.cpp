@@ -1,0 +1,112 @@
+// Comparing the files of a dataset with one another: what most files have, each file should.
+#include <algorithm>
+#include <map>
+
+#include "checker.hpp"
+#include "tiers/check.hpp"
+#include "tiers/detail/report.hpp"
+
+namespace tiers {
+namespace {
+
+using detail::quote_name;
+
+// Two thirds: with fewer files agreeing there is no clear rule to hold the others to.
+bool most(std::size_t part, std::size_t whole) {
+  return whole >= 3 && part * 3 >= whole * 2;
+}
+
+std::string vocabulary_key(const std::optional<std::vector<std::string>>& v) {
+  if (!v) return "\x01none";
+  std::vector<std::string> sorted = *v;
+  std::sort(sorted.begin(), sorted.end());
+  std::string key;
+  for (const std::string& s : sorted)
+    key += s + '\0';
+  return key;
+}
+
+void add(file_report& r, const std::string& tier, source_position at, severity level,
+         std::string message) {
+  problem& p = r.problems.emplace_back();
+  p.diag.level = level;
+  p.diag.code = "dataset.inconsistent";
+  p.diag.message = std::move(message);
+  p.diag.file = r.path;
+  p.diag.offset = at.offset;
+  p.diag.line = at.line;
+  p.diag.column = at.column;
+  p.tier = tier;
+}
+
+}  // namespace
+
+std::vector<tier_shape> shape_of(const document& doc, const source_map& positions) {
+  std::vector<tier_shape> out;
+  for (std::size_t t = 0; t < doc.tiers.size(); ++t)
+    out.push_back(
+        {doc.tiers[t].name, doc.tiers[t].kind, doc.tiers[t].vocabulary, positions.of_tier(t)});
+  return out;
+}
+
+void check_dataset(std::span<file_report> reports,
+                   std::span<const std::optional<std::vector<tier_shape>>> shapes,
+                   const profile& p) {
+  const rule_level level = p.level("dataset.inconsistent");
+  if (level == rule_level::off) return;
+  const severity sev = severity_of(level);
+  std::size_t files = 0;
+  // tier name -> files that have it, and its kinds and vocabularies with their counts
+  struct seen {
+    std::size_t files = 0;
+    std::map<tier_kind, std::size_t> kinds;
+    std::map<std::string, std::size_t> vocabularies;
+  };
+  std::map<std::string, seen> tiers;
+  for (const auto& s : shapes) {
+    if (!s) continue;
+    ++files;
+    std::vector<std::string_view> names;
+    for (const tier_shape& t : *s) {
+      if (std::find(names.begin(), names.end(), t.name) != names.end()) continue;
+      names.push_back(t.name);
+      seen& x = tiers[t.name];
+      ++x.files;
+      ++x.kinds[t.kind];
+      ++x.vocabularies[vocabulary_key(t.vocabulary)];
+    }
+  }
+  for (std::size_t k = 0; k < reports.size() && k < shapes.size(); ++k) {
+    if (!shapes[k]) continue;
+    const std::vector<tier_shape>& mine = *shapes[k];
+    for (const auto& [name, x] : tiers) {
+      if (p.find_tier(name)) continue;  // the profile's own rules hold it to account
+      const auto it = std::find_if(mine.begin(), mine.end(),
+                                   [&](const tier_shape& t) { return t.name == name; });
+      if (it == mine.end()) {
+        if (most(x.files, files))
+          add(reports[k], "", {}, sev,
+              "no tier " + quote_name(name) + ", which " + std::to_string(x.files) + " of " +
+                  std::to_string(files) + " files have");
+        continue;
+      }
+      for (const auto& [kind, n] : x.kinds)
+        if (kind != it->kind && most(n, x.files))
+          add(reports[k], name, it->where, sev,
+              "tier " + quote_name(name) + " is a " + std::string(to_string(it->kind)) +
+                  " tier here, a " + std::string(to_string(kind)) + " tier in " +
+                  std::to_string(n) + " of the " + std::to_string(x.files) + " files that have it");
+      const std::string mine_key = vocabulary_key(it->vocabulary);
+      for (const auto& [key, n] : x.vocabularies)
+        if (key != mine_key && most(n, x.files))
+          add(reports[k], name, it->where, sev,
+              "tier " + quote_name(name) +
+                  (it->vocabulary ? " declares other labels" : " declares no labels") +
+                  " than in " + std::to_string(n) + " of the " + std::to_string(x.files) +
+                  " files that have it");
+    }
+    detail::sort_problems(reports[k].problems);
+  }
+}
+
+}  // namespace tiers

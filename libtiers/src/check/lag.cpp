@@ -1,0 +1,194 @@
+// Banded alignment of caption words with timed words (see lag.hpp), and lag statistics.
+#include "tiers/lag.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdint>
+#include <numeric>
+#include <string>
+#include <unordered_map>
+
+#include "tiers/text.hpp"
+
+namespace tiers {
+namespace {
+
+// Tokens become small integers, so that the inner loop compares numbers, not strings.
+class interner {
+ public:
+  std::uint32_t operator()(std::string token) {
+    auto [it, added] = ids_.try_emplace(std::move(token), static_cast<std::uint32_t>(ids_.size()));
+    return it->second;
+  }
+
+ private:
+  std::unordered_map<std::string, std::uint32_t> ids_;
+};
+
+struct token {
+  std::uint32_t id;
+  std::size_t owner;  // the cue or word annotation it comes from
+};
+
+// The annotations of `t` in start-time order (ties keep the tier's order).
+std::vector<std::size_t> by_start(const tier& t) {
+  std::vector<std::size_t> order(t.annotations.size());
+  std::iota(order.begin(), order.end(), std::size_t{0});
+  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+    return t.annotations[a].start < t.annotations[b].start;
+  });
+  return order;
+}
+
+std::vector<token> tokens_of(const tier& t, const std::vector<std::size_t>& order, interner& ids) {
+  std::vector<token> out;
+  for (std::size_t k : order)
+    for (std::string& w : word_tokens(t.annotations[k].text))
+      out.push_back({ids(std::move(w)), k});
+  return out;
+}
+
+time_ns saturating_add(time_ns a, time_ns b) {
+  time_ns r = 0;
+  if (__builtin_add_overflow(a, b, &r)) return b > 0 ? INT64_MAX : INT64_MIN;
+  return r;
+}
+
+}  // namespace
+
+caption_alignment align_captions(const tier& captions, const tier& words, lag_window window) {
+  caption_alignment out;
+  out.cues.resize(captions.annotations.size());
+  interner ids;
+  const std::vector<std::size_t> cue_order = by_start(captions);
+  const std::vector<std::size_t> word_order = by_start(words);
+  const std::vector<token> cap = tokens_of(captions, cue_order, ids);
+  const std::vector<token> wrd = tokens_of(words, word_order, ids);
+  out.tokens = cap.size();
+  for (const token& t : cap)
+    ++out.cues[t.owner].tokens;
+  const std::size_t m = cap.size(), n = wrd.size();
+  if (m == 0 || n == 0) return out;
+
+  // The band of caption token i: words (1-based) a[i]..b[i], both non-decreasing in i.
+  std::vector<std::size_t> a(m + 1), b(m + 1);
+  std::vector<time_ns> word_start(n);
+  for (std::size_t j = 0; j < n; ++j)
+    word_start[j] = words.annotations[wrd[j].owner].start;
+  for (std::size_t i = 1; i <= m; ++i) {
+    const annotation& cue = captions.annotations[cap[i - 1].owner];
+    const time_ns from = saturating_add(cue.start, -window.before);
+    const time_ns to = saturating_add(std::max(cue.end, cue.start), window.after);
+    const auto lo = std::lower_bound(word_start.begin(), word_start.end(), from);
+    const auto hi = std::upper_bound(word_start.begin(), word_start.end(), to);
+    a[i] = std::max<std::size_t>(static_cast<std::size_t>(lo - word_start.begin()) + 1, a[i - 1]);
+    b[i] = std::max<std::size_t>(static_cast<std::size_t>(hi - word_start.begin()), b[i - 1]);
+    b[i] = std::max(b[i], a[i] - 1);
+  }
+
+  // Row i keeps columns a[i]-1 .. b[i]: the column before the band stands for every word
+  // before it, since token i cannot match those. Beyond b[i] nothing changes, so a later row
+  // reads row i's value at min(j, b[i]).
+  enum move : std::uint8_t { from_left, from_above, diagonal };
+  std::vector<std::size_t> row_start(m + 2);
+  row_start[1] = 0;
+  for (std::size_t i = 1; i <= m; ++i)
+    row_start[i + 1] = row_start[i] + (b[i] - a[i] + 2);
+  std::vector<std::uint8_t> moves(row_start[m + 1]);
+  std::vector<std::uint32_t> previous, current;
+  std::size_t prev_first = 0, prev_last = n;  // row 0: every column is 0
+  previous.assign(n + 1, 0);
+  for (std::size_t i = 1; i <= m; ++i) {
+    const std::size_t first = a[i] - 1, last = b[i];
+    auto prev = [&](std::size_t j) { return previous[std::min(j, prev_last) - prev_first]; };
+    current.assign(last - first + 1, 0);
+    std::uint8_t* mv = moves.data() + row_start[i];
+    current[0] = prev(first);
+    mv[0] = from_above;
+    const std::uint32_t tok = cap[i - 1].id;
+    for (std::size_t j = first + 1; j <= last; ++j) {
+      std::uint32_t best = prev(j);
+      std::uint8_t how = from_above;
+      if (current[j - 1 - first] > best) {
+        best = current[j - 1 - first];
+        how = from_left;
+      }
+      if (wrd[j - 1].id == tok && prev(j - 1) + 1 > best) {
+        best = prev(j - 1) + 1;
+        how = diagonal;
+      }
+      current[j - first] = best;
+      mv[j - first] = how;
+    }
+    previous.swap(current);
+    prev_first = first;
+    prev_last = last;
+  }
+
+  // Back from the last cell, collecting the matches.
+  std::vector<std::optional<std::size_t>> match(m + 1);
+  std::size_t i = m, j = b[m];
+  while (i > 0) {
+    const std::size_t col = std::min(j, b[i]);
+    if (col < a[i]) {  // before the band: token i is unmatched
+      j = col;
+      --i;
+      continue;
+    }
+    const std::uint8_t how = moves[row_start[i] + (col - (a[i] - 1))];
+    if (how == diagonal) {
+      match[i] = col;
+      j = col - 1;
+      --i;
+    } else if (how == from_left) {
+      j = col - 1;
+    } else {
+      j = col;
+      --i;
+    }
+  }
+
+  for (std::size_t k = 1; k <= m; ++k) {
+    if (!match[k]) continue;
+    cue_alignment& c = out.cues[cap[k - 1].owner];
+    const std::size_t word = wrd[*match[k] - 1].owner;
+    ++c.matched;
+    ++out.matched;
+    if (!c.first_word) c.first_word = word;
+    c.last_word = word;
+  }
+  for (std::size_t k = 0; k < out.cues.size(); ++k) {
+    cue_alignment& c = out.cues[k];
+    if (c.first_word)
+      c.lag = captions.annotations[k].start - words.annotations[*c.first_word].start;
+  }
+  return out;
+}
+
+time_ns quantile(std::vector<time_ns>& values, double q) {
+  if (values.empty()) return 0;
+  std::sort(values.begin(), values.end());
+  const double rank = q * static_cast<double>(values.size() - 1);
+  const auto lo = static_cast<std::size_t>(std::floor(rank));
+  const std::size_t hi = std::min(lo + 1, values.size() - 1);
+  const double frac = rank - static_cast<double>(lo);
+  // The difference fits a double exactly enough: it is rounded to the nanosecond once.
+  const double step = static_cast<double>(values[hi] - values[lo]) * frac;
+  return values[lo] + static_cast<time_ns>(std::llround(step));
+}
+
+lag_statistics summarize_lag(const caption_alignment& alignment) {
+  lag_statistics s;
+  std::vector<time_ns> lags;
+  for (const cue_alignment& c : alignment.cues)
+    if (c.lag) lags.push_back(*c.lag);
+  s.cues = lags.size();
+  s.coverage = alignment.coverage();
+  if (lags.empty()) return s;
+  s.max = *std::max_element(lags.begin(), lags.end());
+  s.median = quantile(lags, 0.5);
+  s.p90 = quantile(lags, 0.9);
+  return s;
+}
+
+}  // namespace tiers

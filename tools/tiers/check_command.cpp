@@ -1,0 +1,217 @@
+// `tiers check IN… [--profile P] [--format text|json|sarif] [-o OUT] [--jobs N]`.
+#include "check_command.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+
+#include "check_inputs.hpp"
+#include "text_table.hpp"
+#include "tiers/io.hpp"
+
+namespace tiers::cli {
+
+CLI::App* setup_check(CLI::App& app, check_options& o) {
+  CLI::App* cmd = app.add_subcommand(
+      "check", "Validate tier files or whole folders: times, structure, text, captions, lag");
+  cmd->add_option("inputs", o.paths, "Files or folders (searched recursively), or - for stdin")
+      ->type_name("PATH");
+  cmd->add_option("--profile", o.profile,
+                  "A profile: a built-in name (see --list-profiles) or a JSON file")
+      ->type_name("PROFILE");
+  cmd->add_option("--captions", o.captions,
+                  "The caption tier: caption rules apply, and its lag is measured against --words")
+      ->type_name("TIER");
+  cmd->add_option("--words", o.words,
+                  "The word timings: a tier of each file, or FILE or FILE:TIER for another file")
+      ->type_name("TIER|FILE[:TIER]");
+  cmd->add_option("--format", o.format, "Report as text (default), json or sarif")
+      ->check(CLI::IsMember({"text", "json", "sarif"}))
+      ->type_name("FORMAT");
+  cmd->add_option("-o,--output", o.output, "Write the report to this file (default: stdout)")
+      ->type_name("FILE");
+  cmd->add_option("--jobs", o.jobs, "Files checked at once (default: one per core)")
+      ->type_name("N");
+  cmd->add_option("--max-warnings", o.max_warnings,
+                  "Fail (exit status 1) when there are more warnings than this")
+      ->check(CLI::NonNegativeNumber)
+      ->type_name("N");
+  cmd->add_flag("--list-rules", o.list_rules,
+                "List the rules, one a line: id, severity (with --profile: the profile's), "
+                "summary");
+  cmd->add_flag("--list-profiles", o.list_profiles, "List the built-in profiles");
+  add_input_options(*cmd, o.input);
+  return cmd;
+}
+
+namespace {
+
+profile load(const check_options& o) {
+  if (o.profile.empty()) return {};
+  profile_result r = load_profile(o.profile);
+  for (const diagnostic& d : r.diagnostics)
+    report(d);
+  if (!r.ok()) throw rejected();
+  return std::move(r.value);
+}
+
+std::string limits_of(const rule_info& r, const profile& p) {
+  const check_limits& l = p.limits;
+  const std::string id(r.id);
+  auto dur = [](time_ns t) { return format_seconds(t) + "s"; };
+  if (id == "caption.cps") return fmt::format("max {:g}", l.max_cps);
+  if (id == "caption.wpm") return fmt::format("max {:g}", l.max_wpm);
+  if (id == "caption.line-length") return fmt::format("max {}", l.max_line_length);
+  if (id == "caption.lines") return fmt::format("max {}", l.max_lines);
+  if (id == "caption.min-duration") return "min " + dur(l.min_duration);
+  if (id == "caption.max-duration") return "max " + dur(l.max_duration);
+  if (id == "caption.gap") return "min " + format_duration(l.min_gap);
+  if (id == "lag.late") return "max " + dur(l.max_late);
+  if (id == "lag.early") return "max " + dur(l.max_early);
+  if (id == "lag.coverage") return fmt::format("min {:g}", l.min_coverage);
+  if (id == "text.all-caps")
+    return fmt::format("share {:g}, min_letters {}", l.caps_share, l.caps_min_letters);
+  return "";
+}
+
+int list_rules(const profile& p) {
+  std::string text;
+  std::size_t width = 0;
+  for (const rule_info& r : rules())
+    width = std::max(width, r.id.size());
+  for (const rule_info& r : rules()) {
+    std::string line =
+        fmt::format("{:<{}}  {:<7}  {}", r.id, width, to_string(p.level(r.id)), r.summary);
+    if (const std::string l = limits_of(r, p); !l.empty()) line += " [" + l + "]";
+    text += line + "\n";
+  }
+  stdout_sink out;
+  out.write(text);
+  out.flush();
+  return exit_ok;
+}
+
+std::string seconds_text(time_ns t) {
+  return fmt::format("{:.3f} s", static_cast<double>(t) / 1e9);
+}
+
+// The summary for people: totals, problems by rule, the worst files, and the lag.
+std::string summary_text(const std::vector<file_report>& reports) {
+  const check_summary s = summarize(reports);
+  std::string text = fmt::format("checked {} file{}: ", s.files, s.files == 1 ? "" : "s");
+  if (s.errors + s.warnings + s.notes == 0) return text + "no problems\n";
+  text +=
+      fmt::format("{} error{}, {} warning{}, {} note{}; {} file{} with errors, {} with warnings\n",
+                  s.errors, s.errors == 1 ? "" : "s", s.warnings, s.warnings == 1 ? "" : "s",
+                  s.notes, s.notes == 1 ? "" : "s", s.files_with_errors,
+                  s.files_with_errors == 1 ? "" : "s", s.files_with_warnings);
+  text_table by_rule({"rule", "severity", ">problems", ">files"});
+  for (const auto& r : s.by_rule)
+    by_rule.add_row({r.rule, std::string(to_string(r.level)), std::to_string(r.problems),
+                     std::to_string(r.files)});
+  text += "\n" + by_rule.render();
+  std::vector<const file_report*> worst;
+  for (const file_report& r : reports)
+    if (!r.problems.empty()) worst.push_back(&r);
+  std::stable_sort(worst.begin(), worst.end(), [](const file_report* a, const file_report* b) {
+    return std::pair(a->count(severity::error), a->count(severity::warning)) >
+           std::pair(b->count(severity::error), b->count(severity::warning));
+  });
+  if (reports.size() > 1) {
+    text_table files({"worst files", ">errors", ">warnings", ">notes"});
+    for (std::size_t k = 0; k < worst.size() && k < 5; ++k)
+      files.add_row({worst[k]->path, std::to_string(worst[k]->count(severity::error)),
+                     std::to_string(worst[k]->count(severity::warning)),
+                     std::to_string(worst[k]->count(severity::note))});
+    text += "\n" + files.render();
+  }
+  return text;
+}
+
+std::string lag_text(const std::vector<file_report>& reports) {
+  text_table lag({"lag of captions", "tiers", ">median", ">p90", ">max", ">words found"});
+  bool any = false;
+  for (const file_report& r : reports) {
+    if (!r.lag) continue;
+    any = true;
+    const lag_statistics& s = r.lag->stats;
+    const bool known = s.cues > 0;
+    lag.add_row({r.path, r.lag->captions + " / " + r.lag->words,
+                 known ? seconds_text(s.median) : "-", known ? seconds_text(s.p90) : "-",
+                 known ? seconds_text(s.max) : "-",
+                 fmt::format("{:.1f} % of {}", s.coverage * 100, r.lag->tokens)});
+  }
+  return any ? "\n" + lag.render() : "";
+}
+
+void write_report(const check_options& o, const std::vector<file_report>& reports) {
+  auto emit = [&](byte_sink& out, bool with_problems) {
+    if (o.format == "json") return write_check_json(reports, out);
+    if (o.format == "sarif") return write_check_sarif(reports, out);
+    if (with_problems)
+      for (const file_report& r : reports)
+        for (const problem& p : r.problems)
+          out.write(format_problem(p) + "\n");
+    out.write(summary_text(reports) + lag_text(reports));
+  };
+  if (!o.output.empty() && o.output != "-") {
+    atomic_file out(o.output);
+    emit(out, true);
+    out.commit();
+    return;
+  }
+  if (o.format == "text")
+    for (const file_report& r : reports)
+      for (const problem& p : r.problems)
+        std::fprintf(stderr, "%s\n", format_problem(p).c_str());
+  stdout_sink out;
+  emit(out, false);
+  out.flush();
+}
+
+}  // namespace
+
+int run_check(const check_options& o) {
+  const profile p = load(o);
+  if (o.list_profiles) {
+    std::string text;
+    for (std::string_view name : builtin_profiles()) {
+      const profile b = load_profile(std::string(name)).value;
+      text += fmt::format("{}\n    {}\n", name, b.description);
+    }
+    stdout_sink out;
+    out.write(text);
+    out.flush();
+    return exit_ok;
+  }
+  if (o.list_rules) return list_rules(p);
+  if (o.paths.empty()) throw usage_error("check: name the files or folders to check");
+  reading_options(o.input, "");  // bad option values are usage errors before any work
+
+  check_context roles;
+  if (!o.captions.empty()) roles.captions = o.captions;
+  std::optional<words_file> words;
+  if (!o.words.empty()) {
+    words = words_file_of(o.words, roles.words);
+    if (words) {
+      roles.words_doc = &words->doc;
+      roles.words_file = words->path;
+      roles.words = words->tier;
+    }
+  }
+  const std::vector<std::string> files = expand_inputs(o.paths);
+  if (files.empty()) throw usage_error("check: the folders named hold no tier files");
+  const std::vector<file_report> reports = check_files(files, o, p, roles);
+  write_report(o, reports);
+
+  const check_summary s = summarize(reports);
+  if (s.errors > 0) return exit_rejected;
+  if (o.max_warnings >= 0 && s.warnings > static_cast<std::size_t>(o.max_warnings)) {
+    std::fprintf(stderr, "tiers: error: %zu warnings, more than --max-warnings %ld allows\n",
+                 s.warnings, o.max_warnings);
+    return exit_rejected;
+  }
+  return exit_ok;
+}
+
+}  // namespace tiers::cli
