@@ -192,7 +192,7 @@ int run_check(const check_options& o) {
   if (!o.captions.empty()) roles.captions = o.captions;
   std::optional<words_file> words;
   if (!o.words.empty()) {
-    words = words_file_of(o.words, roles.words);
+    words = words_file_of(o.words, o.input, roles.words);
     if (words) {
       roles.words_doc = &words->doc;
       roles.words_file = words->path;

@@ -45,7 +45,8 @@ std::vector<std::string> expand_inputs(const std::vector<std::string>& paths) {
   return unique;
 }
 
-std::optional<words_file> words_file_of(const std::string& spec, std::optional<std::string>& tier) {
+std::optional<words_file> words_file_of(const std::string& spec, const input_options& reading,
+                                        std::optional<std::string>& tier) {
   std::error_code ec;
   std::string path = spec;
   std::optional<std::string> name;
@@ -59,7 +60,7 @@ std::optional<words_file> words_file_of(const std::string& spec, std::optional<s
     path = spec.substr(0, colon);
     name = spec.substr(colon + 1);
   }
-  input_options in;
+  input_options in = reading;
   in.path = path;
   words_file w{path, name, load_document(in)};
   return w;

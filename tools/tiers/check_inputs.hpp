@@ -22,9 +22,11 @@ struct words_file {
   document doc;
 };
 
-/// Splits `--words`: a file that exists, or FILE:TIER with a file that exists, is a words file;
-/// anything else names a tier of each checked document.
-std::optional<words_file> words_file_of(const std::string& spec, std::optional<std::string>& tier);
+/// Splits `--words`: a file that exists, or FILE:TIER with a file that exists, is a words file,
+/// read with the same reading options as the checked files; anything else names a tier of each
+/// checked document.
+std::optional<words_file> words_file_of(const std::string& spec, const input_options& reading,
+                                        std::optional<std::string>& tier);
 
 /// Checks every file on `jobs` threads (a progress bar on standard error when it is a
 /// terminal) and returns the reports in the order of `files`, dataset rules applied.
