@@ -54,6 +54,18 @@ const format& format_named(const std::string& name) {
   throw usage_error("unknown format '" + name + "' (formats: " + format_names() + ")");
 }
 
+time_ns parse_duration_option(const std::string& option, const std::string& text,
+                              duration_kind kind) {
+  const bool negative = kind == duration_kind::offset && !text.empty() && text[0] == '-';
+  const auto d = parse_duration(negative ? text.substr(1) : text);
+  if (!d || d->frames || (kind == duration_kind::positive && d->ns == 0))
+    throw usage_error(option + ": '" + text + "' is not " +
+                      (kind == duration_kind::offset     ? "an offset such as -0.5s or 250ms"
+                       : kind == duration_kind::positive ? "a positive duration such as 10ms or 1s"
+                                                         : "a duration such as 1.5s or 250ms"));
+  return negative ? -d->ns : d->ns;
+}
+
 rational parse_rate_option(const std::string& text) {
   if (auto r = parse_rational(text)) return *r;
   throw usage_error("--rate: '" + text + "' is not a positive frame rate such as 25 or 30000/1001");
@@ -95,6 +107,51 @@ read_options reading_options(const input_options& in, const std::string& path) {
     options.tier_name = std::filesystem::path(path).stem().string();
   if (!in.from.empty()) format_named(in.from);  // a usage error before any input is read
   return options;
+}
+
+const format& output_format(const std::string& to, const std::string& output) {
+  if (!to.empty()) return format_named(to);
+  if (output.empty() || output == "-")
+    throw usage_error("name the output format with --to when writing to standard output");
+  if (const format* f = format_for_path(output)) return *f;
+  throw usage_error("cannot tell the output format from '" + output + "'; name it with --to (" +
+                    format_names() + ")");
+}
+
+void write_output(const document& doc, const format& to, const std::string& output, bool allow_loss,
+                  const std::string& file, std::vector<std::string> losses) {
+  for (std::string& loss : find_losses(doc, to))
+    losses.push_back(std::move(loss));
+  // A one-tier format keeps no tier name: read back, the tier is named after the file.
+  if (!to.carries.has(feature::several_tiers) && !doc.tiers.empty() && !output.empty() &&
+      output != "-") {
+    const std::string stem = std::filesystem::path(output).stem().string();
+    if (doc.tiers.front().name != stem)
+      losses.push_back("the tier name " + detail::quote_name(doc.tiers.front().name) + " (a " +
+                       std::string(to.name) + " file names no tier; read back, it is named " +
+                       detail::quote_name(stem) + " after the file)");
+  }
+  for (const std::string& loss : losses) {
+    diagnostic d;
+    d.file = file;
+    d.level = allow_loss ? severity::warning : severity::error;
+    d.code = "convert.loss";
+    d.message = std::string(to.name) + (allow_loss ? " drops " : " cannot carry ") + loss;
+    report(d);
+  }
+  if (!losses.empty() && !allow_loss) {
+    std::fprintf(stderr, "tiers: note: nothing was written; --allow-loss converts anyway\n");
+    throw rejected();
+  }
+  if (output.empty() || output == "-") {
+    stdout_sink out;
+    to.write(doc, out, {});
+    out.flush();
+  } else {
+    atomic_file out(output);
+    to.write(doc, out, {});
+    out.commit();
+  }
 }
 
 document load_document(const input_options& in) {

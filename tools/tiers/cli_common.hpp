@@ -49,6 +49,17 @@ const format* input_format(const input_options& in, const std::string& path,
 /// Reads and parses the input, printing every diagnostic; throws rejected on errors.
 document load_document(const input_options& in);
 
+/// The output format: --to, else the extension of `output`; throws usage_error when neither
+/// tells (writing to standard output needs --to).
+const format& output_format(const std::string& to, const std::string& output);
+
+/// Writes `doc` as `fmt` to `output` (`-` or empty: standard output), atomically. When the
+/// format cannot carry everything (plus `losses` found earlier), lists each loss as an error
+/// and writes nothing (throws rejected), or with `allow_loss` as warnings and writes.
+/// Diagnostics name `file`.
+void write_output(const document& doc, const format& fmt, const std::string& output,
+                  bool allow_loss, const std::string& file, std::vector<std::string> losses = {});
+
 /// Prints one diagnostic to standard error.
 void report(const diagnostic& d);
 
@@ -60,6 +71,15 @@ const format& format_named(const std::string& name);
 
 /// A comma-separated list of every format name.
 std::string format_names();
+
+/// What a duration option may be.
+enum class duration_kind { length, positive, offset };
+
+/// Parses a duration option (`1.5s`, `250ms`, plain seconds): a `length` is zero or more, a
+/// `positive` one more than zero, an `offset` may be negative (`-0.48s`). Frames are not taken
+/// here. Throws usage_error naming `option`.
+time_ns parse_duration_option(const std::string& option, const std::string& text,
+                              duration_kind kind = duration_kind::length);
 
 /// Parses a --rate value, or throws usage_error.
 rational parse_rate_option(const std::string& text);

@@ -36,15 +36,6 @@ CLI::App* setup_convert(CLI::App& app, convert_options& o) {
 
 namespace {
 
-const format& output_format(const convert_options& o) {
-  if (!o.to.empty()) return format_named(o.to);
-  if (o.output.empty() || o.output == "-")
-    throw usage_error("name the output format with --to when writing to standard output");
-  if (const format* f = format_for_path(o.output)) return *f;
-  throw usage_error("cannot tell the output format from '" + o.output + "'; name it with --to (" +
-                    format_names() + ")");
-}
-
 void keep_tiers(document& doc, const std::vector<std::string>& names, const std::string& file) {
   if (names.empty()) return;
   for (const std::string& n : names)
@@ -68,7 +59,7 @@ void keep_tiers(document& doc, const std::vector<std::string>& names, const std:
 }  // namespace
 
 int run_convert(const convert_options& o) {
-  const format& to = output_format(o);  // usage errors first, before reading anything
+  const format& to = output_format(o.to, o.output);  // usage errors first, before reading
   document doc = load_document(o.input);
   const std::string file = display_name(o.input.path);
   keep_tiers(doc, o.tiers, file);
@@ -80,39 +71,7 @@ int run_convert(const convert_options& o) {
                                  : std::filesystem::path(o.output).stem().string();
     doc = join_as_voices(doc, name, losses);
   }
-  for (std::string& loss : find_losses(doc, to))
-    losses.push_back(std::move(loss));
-  // A one-tier format keeps no tier name: read back, the tier is named after the file.
-  if (!to.carries.has(feature::several_tiers) && !doc.tiers.empty() && !o.output.empty() &&
-      o.output != "-") {
-    const std::string stem = std::filesystem::path(o.output).stem().string();
-    if (doc.tiers.front().name != stem)
-      losses.push_back("the tier name " + detail::quote_name(doc.tiers.front().name) + " (a " +
-                       std::string(to.name) + " file names no tier; read back, it is named " +
-                       detail::quote_name(stem) + " after the file)");
-  }
-  for (const std::string& loss : losses) {
-    diagnostic d;
-    d.file = file;
-    d.level = o.allow_loss ? severity::warning : severity::error;
-    d.code = "convert.loss";
-    d.message = std::string(to.name) + (o.allow_loss ? " drops " : " cannot carry ") + loss;
-    report(d);
-  }
-  if (!losses.empty() && !o.allow_loss) {
-    std::fprintf(stderr, "tiers: note: nothing was written; --allow-loss converts anyway\n");
-    return exit_rejected;
-  }
-
-  if (o.output.empty() || o.output == "-") {
-    stdout_sink out;
-    to.write(doc, out, {});
-    out.flush();
-  } else {
-    atomic_file out(o.output);
-    to.write(doc, out, {});
-    out.commit();
-  }
+  write_output(doc, to, o.output, o.allow_loss, file, std::move(losses));
   return exit_ok;
 }
 

@@ -3,10 +3,12 @@
 #include <cstdio>
 #include <new>
 
+#include "agree_command.hpp"
 #include "check_command.hpp"
 #include "cli_common.hpp"
 #include "convert_command.hpp"
 #include "info_command.hpp"
+#include "merge_command.hpp"
 #include "tiers/io.hpp"
 #include "tiers/version.hpp"
 
@@ -23,15 +25,21 @@ int main(int argc, char** argv) {
   convert_options convert;
   info_options info;
   check_options check;
+  merge_options merge;
+  agree_options agree;
   const CLI::App* convert_cmd = setup_convert(app, convert);
   const CLI::App* info_cmd = setup_info(app, info);
   const CLI::App* check_cmd = setup_check(app, check);
+  const CLI::App* merge_cmd = setup_merge(app, merge);
+  const CLI::App* agree_cmd = setup_agree(app, agree);
 
   try {
     app.parse(argc, argv);
     if (convert_cmd->parsed()) return run_convert(convert);
     if (info_cmd->parsed()) return run_info(info);
     if (check_cmd->parsed()) return run_check(check);
+    if (merge_cmd->parsed()) return run_merge(merge);
+    if (agree_cmd->parsed()) return run_agree(agree);
   } catch (const CLI::CallForHelp& e) {
     return app.exit(e);
   } catch (const CLI::CallForAllHelp& e) {

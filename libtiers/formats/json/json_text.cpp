@@ -93,4 +93,31 @@ void write_json_media(byte_sink& out, const media_info& m) {
   out.put('}');
 }
 
+byte_sink& json_members::key(std::string_view k) {
+  if (!first_) out_.write(", ");
+  first_ = false;
+  write_json_string(out_, k);
+  out_.write(": ");
+  return out_;
+}
+
+void json_members::string(std::string_view k, std::string_view v) {
+  write_json_string(key(k), v);
+}
+
+void json_members::number(std::string_view k, double v) {
+  if (v != v)
+    key(k).write("null");
+  else
+    write_json_double(key(k), v);
+}
+
+void json_members::count(std::string_view k, std::uint64_t n) {
+  key(k).write(std::to_string(n));
+}
+
+void json_members::seconds(std::string_view k, time_ns t) {
+  write_json_seconds(key(k), t);
+}
+
 }  // namespace tiers::detail

@@ -1,0 +1,139 @@
+// Agreement: how far a candidate tier (a machine's, or a second annotator's) agrees with a
+// reference tier, frame by frame and segment by segment, and agreement among several
+// annotators (Krippendorff's alpha).
+#pragma once
+
+#include <cstddef>
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "tiers/model.hpp"
+#include "tiers/sink.hpp"
+
+namespace tiers {
+
+/// Frames of `step` from `start` to `end` (the last frame may run past `end`).
+struct time_grid {
+  time_ns start = 0;
+  time_ns end = 0;
+  time_ns step = 10'000'000;  ///< 10 ms
+  std::size_t frames() const;
+};
+
+/// The label of every frame of `grid` in each tier, as indices into `labels` (-1: no label).
+/// A frame takes the label of the annotation that covers its middle (of the one starting last,
+/// where several do); a point annotation labels the frame it falls in.
+struct framed_tiers {
+  std::vector<std::string> labels;
+  std::vector<std::vector<std::int32_t>> frames;  ///< one per tier
+};
+framed_tiers frame_labels(const std::vector<const tier*>& tiers, const time_grid& grid);
+
+/// Per-label scores of a candidate against a reference, frame by frame.
+struct label_scores {
+  std::string label;
+  std::uint64_t reference = 0;               ///< frames the reference gives this label
+  std::uint64_t candidate = 0;               ///< frames the candidate gives it
+  std::uint64_t agreed = 0;                  ///< frames both give it
+  double precision = 0, recall = 0, f1 = 0;  ///< NaN where undefined (no frames)
+};
+
+/// Frame-based agreement. The confusion matrix has a row per reference label and a column
+/// per candidate label, "none" last for frames without a label.
+struct frame_agreement {
+  time_grid grid;
+  std::vector<std::string> labels;                    ///< the matrix's labels; "none" last
+  std::vector<std::vector<std::uint64_t>> confusion;  ///< [reference][candidate]
+  double observed = 0;  ///< p_o: share of frames with the same label (none counts)
+  double expected = 0;  ///< p_e: the same by chance, from the two sides' label shares
+  double kappa = 0;     ///< Cohen's kappa (p_o − p_e) / (1 − p_e); NaN when p_e is 1
+  /// Over the frames with a label (micro-averaged): precision = agreed / candidate-labelled,
+  /// recall = agreed / reference-labelled.
+  double precision = 0, recall = 0, f1 = 0;
+  std::vector<label_scores> scores;  ///< per label, without "none"
+};
+frame_agreement compare_frames(const tier& reference, const tier& candidate, const time_grid& grid);
+
+/// Cohen's kappa of a square confusion matrix (rows: one rater, columns: the other).
+/// NaN when the expected agreement is 1 or the matrix is empty.
+double cohen_kappa(const std::vector<std::vector<std::uint64_t>>& confusion);
+
+/// How segments are matched one to one.
+struct segment_options {
+  enum class criterion : std::uint8_t {
+    boundaries,  ///< onset and offset each within `collar` of the reference's
+    overlap,     ///< intersection over union at least `min_overlap`
+  };
+  criterion by = criterion::boundaries;
+  time_ns collar = 200'000'000;  ///< 200 ms
+  double min_overlap = 0.5;
+  bool same_label = true;  ///< only segments with the same label can match
+};
+
+struct segment_match {
+  std::size_t reference, candidate;  ///< annotation indices
+  time_ns onset, offset;             ///< candidate − reference
+};
+
+/// Segment-based agreement: an optimal one-to-one matching (as many matches as possible, then
+/// the least total deviation: |Δonset| + |Δoffset|, or 1 − overlap), found exactly by
+/// min-cost flow on each group of segments that could match one another — not greedily.
+struct segment_agreement {
+  std::vector<segment_match> matches;
+  std::size_t reference = 0, candidate = 0;  ///< segments on each side
+  double precision = 0, recall = 0, f1 = 0;  ///< NaN where undefined
+  /// Median and 90th percentile of |Δonset| and |Δoffset| over the matches.
+  time_ns onset_median = 0, onset_p90 = 0, offset_median = 0, offset_p90 = 0;
+};
+segment_agreement compare_segments(const tier& reference, const tier& candidate,
+                                   const segment_options& options = {});
+
+/// Krippendorff's alpha over `units` (rows) rated by several coders (columns; nothing where a
+/// coder gave no value). Units with fewer than two values do not count. Nominal: any two
+/// different values disagree equally; interval: disagreement is the squared difference.
+/// NaN when undefined (fewer than two values in all, or a single value throughout).
+enum class alpha_metric : std::uint8_t { nominal, interval };
+double krippendorff_alpha(const std::vector<std::vector<std::optional<double>>>& units,
+                          alpha_metric metric);
+
+/// Where a compared tier comes from, for reports.
+struct tier_origin {
+  std::string file, tier;
+};
+
+/// Everything `tiers agree` reports of a candidate against a reference.
+struct agreement_report {
+  tier_origin reference, candidate;
+  frame_agreement frames;
+  segment_options matching;
+  segment_agreement segments;
+};
+agreement_report compare_tiers(const tier& reference, const tier& candidate, const time_grid& grid,
+                               const segment_options& matching = {});
+
+/// Agreement among several annotators' tiers on one grid: Krippendorff's alpha (every frame a
+/// unit, no annotation a missing value), nominal, and interval too when every label is a
+/// number; and Cohen's kappa of every pair.
+struct annotators_report {
+  std::string file;
+  std::vector<std::string> tiers;
+  time_grid grid;
+  std::size_t pairable = 0;  ///< frames with two values or more
+  double alpha = 0;
+  std::optional<double> alpha_interval;  ///< when every label is a number
+  struct pair {
+    std::string a, b;
+    double kappa;
+  };
+  std::vector<pair> pairwise;
+};
+annotators_report compare_annotators(const std::vector<const tier*>& tiers, const time_grid& grid);
+
+/// The reports as JSON (docs/agreement.md): `kappa`, `precision`, `recall`, `f1` and `alpha`
+/// at the top level; undefined measures as null.
+void write_agreement_json(const agreement_report& r, byte_sink& out);
+void write_annotators_json(const annotators_report& r, byte_sink& out);
+
+}  // namespace tiers

@@ -1,0 +1,116 @@
+// Merging: the tiers of several documents of one recording in one document, and a human and a
+// machine tier combined into one, every annotation keeping its origin.
+#pragma once
+
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "tiers/diagnostic.hpp"
+#include "tiers/model.hpp"
+
+namespace tiers {
+
+/// How a human and a machine tier become one.
+enum class combine_strategy : std::uint8_t {
+  human_first,   ///< every human annotation as it is; machine ones only where no human one is,
+                 ///< trimmed at human boundaries (not dropped)
+  union_,        ///< both: machine annotations give way only where a human one has their label
+  intersection,  ///< human annotations, where a machine one has the same label
+};
+std::string_view to_string(combine_strategy s);
+std::optional<combine_strategy> parse_combine_strategy(std::string_view text);
+
+/// One combination: `human` and `machine` tiers into a new tier `into`.
+struct combine_step {
+  std::string into, human, machine;
+  combine_strategy strategy = combine_strategy::human_first;
+  double min_confidence = 0;          ///< machine annotations with a lower confidence are left out
+  time_ns min_duration = 0;           ///< trimmed pieces shorter than this are dropped
+  std::optional<std::string> review;  ///< a tier marking every span where the sides disagree
+};
+
+/// A time correction before combining: a constant, or an offset estimated against a tier.
+struct shift_step {
+  std::string tier;
+  std::optional<time_ns> by;
+  std::optional<std::string> align_to;
+  time_ns max_offset = 10 * ns_per_second;  ///< how far the estimate looks
+};
+
+/// What to do when two inputs have a tier of the same name.
+enum class clash_rule : std::uint8_t {
+  fail,           ///< stop, naming the tiers
+  prefix_file,    ///< rename each clashing tier `STEM:NAME` after its file's stem
+  prefix_source,  ///< rename each clashing tier `AGENT:NAME` (or `human:`/`machine:`; a tier
+                  ///< without a source takes its file's stem)
+};
+std::string_view to_string(clash_rule r);
+std::optional<clash_rule> parse_clash_rule(std::string_view text);
+
+/// A merge plan (schemas/merge-plan.schema.json): everything a merge does, so that it can be
+/// repeated. Tier names in shifts and combinations are the names after clash renaming.
+struct merge_plan {
+  std::vector<std::string> inputs;  ///< files, relative to the plan's folder
+  clash_rule clash = clash_rule::fail;
+  std::vector<shift_step> shifts;
+  std::vector<combine_step> combine;
+};
+
+/// Reads a plan; problems are located in `file` (codes `plan.value`, `plan.member`, `json.*`).
+struct plan_result {
+  merge_plan value;
+  std::vector<diagnostic> diagnostics;
+  bool ok() const { return !has_errors(diagnostics); }
+};
+plan_result read_merge_plan(std::string_view text, const std::string& file);
+
+/// The plan as JSON, in the form read_merge_plan reads (one line, stable member order).
+std::string plan_json(const merge_plan& plan);
+
+/// An offset between two tiers of the same events: the median of the differences between each
+/// annotation's start and the nearest start, within `max_offset`, of an annotation with the
+/// same label in the reference (of any label when no label is shared); the spread is the
+/// median absolute deviation of those differences.
+struct offset_estimate {
+  time_ns offset = 0;  ///< add this to the moving tier's times
+  time_ns spread = 0;
+  std::size_t pairs = 0;
+  bool by_label = true;  ///< false when labels were ignored
+};
+std::optional<offset_estimate> estimate_offset(const tier& moving, const tier& reference,
+                                               time_ns max_offset);
+
+/// Combines two interval tiers (see combine_strategy). Every annotation of the result has the
+/// attribute `origin` = `human` or `machine`; machine ones keep their confidence. A machine
+/// annotation cut into several pieces gives each an id `ID.1`, `ID.2`, ….
+struct combined_tiers {
+  tier merged;
+  std::optional<tier> review;       ///< when the step names one
+  std::size_t machine_kept = 0;     ///< machine annotations kept whole
+  std::size_t machine_trimmed = 0;  ///< machine pieces that were cut at human boundaries
+  std::size_t machine_dropped = 0;  ///< below min_confidence, or left with nothing long enough
+};
+combined_tiers combine_tiers(const tier& human, const tier& machine, const combine_step& step);
+
+/// One input of a merge: a document, and the name of its file (for messages and prefixes).
+struct merge_input {
+  std::string file;
+  document doc;
+};
+
+/// Merges the inputs as the plan says: media and metadata joined (different media are an
+/// error), tiers renamed by the clash rule, shifts applied, combinations added after the input
+/// tiers. The result's metadata records the inputs (`merge:inputs`), the plan (`merge:plan`)
+/// and every shift (`merge:shift:TIER`). Notes (shifts, trimmed pieces) and errors are in
+/// `diagnostics` (codes `merge.*`); with an error, the document must not be used.
+struct merge_result {
+  document doc;
+  std::vector<diagnostic> diagnostics;
+  bool ok() const { return !has_errors(diagnostics); }
+};
+merge_result merge_documents(std::vector<merge_input> inputs, const merge_plan& plan);
+
+}  // namespace tiers

@@ -1,0 +1,193 @@
+// Combining a human and a machine tier: the time line is cut at every boundary of either
+// side; in each piece the strategy decides which annotations stand; the runs of pieces where
+// an annotation stands become its (possibly trimmed) copies.
+#include <algorithm>
+#include <map>
+#include <set>
+
+#include "tiers/merge.hpp"
+
+namespace tiers {
+namespace {
+
+struct source_annotation {
+  const annotation* a;
+  bool human;
+};
+
+// The labels of a set of annotations, sorted and unique, for comparing two sides.
+std::vector<std::string_view> labels_of(const std::vector<const source_annotation*>& active) {
+  std::vector<std::string_view> out;
+  for (const source_annotation* s : active)
+    out.push_back(s->a->text);
+  std::sort(out.begin(), out.end());
+  out.erase(std::unique(out.begin(), out.end()), out.end());
+  return out;
+}
+
+std::string joined(const std::vector<std::string_view>& labels) {
+  std::string s;
+  for (std::string_view l : labels)
+    s += (s.empty() ? "" : ", ") + std::string(l);
+  return s;
+}
+
+}  // namespace
+
+std::string_view to_string(combine_strategy s) {
+  switch (s) {
+    case combine_strategy::human_first:
+      return "human-first";
+    case combine_strategy::union_:
+      return "union";
+    case combine_strategy::intersection:
+      return "intersection";
+  }
+  return "human-first";
+}
+
+std::optional<combine_strategy> parse_combine_strategy(std::string_view text) {
+  for (auto s :
+       {combine_strategy::human_first, combine_strategy::union_, combine_strategy::intersection})
+    if (to_string(s) == text) return s;
+  return std::nullopt;
+}
+
+combined_tiers combine_tiers(const tier& human, const tier& machine, const combine_step& step) {
+  combined_tiers out;
+  out.merged.name = step.into;
+  out.merged.attributes = {{"merge:human", human.name},
+                           {"merge:machine", machine.name},
+                           {"merge:strategy", std::string(to_string(step.strategy))}};
+  std::vector<source_annotation> all;
+  for (const annotation& a : human.annotations)
+    all.push_back({&a, true});
+  for (const annotation& a : machine.annotations) {
+    // No confidence is no evidence against an annotation: it stays.
+    if (a.confidence && *a.confidence < step.min_confidence) {
+      ++out.machine_dropped;
+      continue;
+    }
+    all.push_back({&a, false});
+  }
+
+  // The elementary pieces: between consecutive boundaries of annotations with a length.
+  std::set<time_ns> cuts;
+  for (const source_annotation& s : all)
+    if (s.a->end > s.a->start) {
+      cuts.insert(s.a->start);
+      cuts.insert(s.a->end);
+    }
+  const std::vector<time_ns> times(cuts.begin(), cuts.end());
+  std::map<time_ns, std::vector<const source_annotation*>> starting;
+  for (const source_annotation& s : all)
+    if (s.a->end > s.a->start) starting[s.a->start].push_back(&s);
+
+  // For every annotation, the pieces where it stands, as runs [from, to).
+  std::map<const source_annotation*, std::vector<std::pair<time_ns, time_ns>>> runs;
+  std::vector<const source_annotation*> active;
+  struct disagreement {
+    time_ns from, to;
+    std::vector<std::string_view> human, machine;
+  };
+  std::vector<disagreement> review;
+  for (std::size_t k = 0; k + 1 < times.size(); ++k) {
+    const time_ns from = times[k], to = times[k + 1];
+    std::erase_if(active, [&](const source_annotation* s) { return s->a->end <= from; });
+    if (auto it = starting.find(from); it != starting.end())
+      active.insert(active.end(), it->second.begin(), it->second.end());
+    std::vector<const source_annotation*> h, m;
+    for (const source_annotation* s : active)
+      (s->human ? h : m).push_back(s);
+    const std::vector<std::string_view> hl = labels_of(h), ml = labels_of(m);
+    auto stands = [&](const source_annotation* s) {
+      const bool human_label = std::binary_search(hl.begin(), hl.end(), s->a->text);
+      const bool machine_label = std::binary_search(ml.begin(), ml.end(), s->a->text);
+      switch (step.strategy) {
+        case combine_strategy::human_first:
+          return s->human || h.empty();
+        case combine_strategy::union_:
+          return s->human || !human_label;
+        case combine_strategy::intersection:
+          return s->human && machine_label;
+      }
+      return false;
+    };
+    for (const source_annotation* s : active) {
+      if (!stands(s)) continue;
+      auto& r = runs[s];
+      if (!r.empty() && r.back().second == from)
+        r.back().second = to;
+      else
+        r.emplace_back(from, to);
+    }
+    if ((!h.empty() || !m.empty()) && hl != ml) {
+      if (!review.empty() && review.back().to == from && review.back().human == hl &&
+          review.back().machine == ml)
+        review.back().to = to;
+      else
+        review.push_back({from, to, hl, ml});
+    }
+  }
+
+  for (const source_annotation& s : all) {
+    const annotation& a = *s.a;
+    if (a.end <= a.start) {
+      // Instants cover no time: human ones stand in the strategies that keep human annotations.
+      if (s.human && step.strategy != combine_strategy::intersection) {
+        annotation copy = a;
+        copy.attributes["origin"] = "human";
+        out.merged.annotations.push_back(std::move(copy));
+      }
+      continue;
+    }
+    const auto it = runs.find(&s);
+    const bool whole =
+        it != runs.end() && it->second.size() == 1 && it->second[0] == std::pair(a.start, a.end);
+    std::vector<std::pair<time_ns, time_ns>> pieces;
+    if (it != runs.end())
+      for (const auto& p : it->second)
+        if (whole || p.second - p.first >= step.min_duration) pieces.push_back(p);
+    if (!s.human) {
+      if (whole)
+        ++out.machine_kept;
+      else if (pieces.empty())
+        ++out.machine_dropped;
+      else
+        out.machine_trimmed += pieces.size();
+    }
+    for (std::size_t k = 0; k < pieces.size(); ++k) {
+      annotation copy = a;
+      copy.start = pieces[k].first;
+      copy.end = pieces[k].second;
+      if (copy.id && pieces.size() > 1) *copy.id += "." + std::to_string(k + 1);
+      copy.attributes["origin"] = s.human ? "human" : "machine";
+      out.merged.annotations.push_back(std::move(copy));
+    }
+  }
+  std::stable_sort(out.merged.annotations.begin(), out.merged.annotations.end(),
+                   [](const annotation& a, const annotation& b) { return a.start < b.start; });
+
+  if (step.review) {
+    tier& r = out.review.emplace();
+    r.name = *step.review;
+    r.attributes = {{"merge:human", human.name}, {"merge:machine", machine.name}};
+    for (const disagreement& d : review) {
+      annotation a;
+      a.start = d.from;
+      a.end = d.to;
+      const std::string hs = d.human.empty() ? "none" : joined(d.human);
+      const std::string ms = d.machine.empty() ? "none" : joined(d.machine);
+      a.text = "human: " + hs + "; machine: " + ms;
+      if (!d.human.empty()) a.attributes["human"] = joined(d.human);
+      if (!d.machine.empty()) a.attributes["machine"] = joined(d.machine);
+      a.attributes["disagreement"] = d.human.empty()     ? "machine only"
+                                     : d.machine.empty() ? "human only"
+                                                         : "labels";
+      r.annotations.push_back(std::move(a));
+    }
+  }
+  return out;
+}
+
+}  // namespace tiers

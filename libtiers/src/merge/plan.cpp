@@ -1,0 +1,211 @@
+// Merge plans: read from the located JSON tree (every mistake shown where it is), and written
+// back as the canonical one-line form recorded in a merge's output.
+#include <cmath>
+
+#include "../json_tree.hpp"
+#include "tiers/detail/json_text.hpp"
+#include "tiers/detail/report.hpp"
+#include "tiers/merge.hpp"
+#include "tiers/sink.hpp"
+
+namespace tiers {
+namespace {
+
+using detail::json_fields;
+using detail::json_node;
+using detail::quote_name;
+
+std::optional<time_ns> duration_member(json_fields& f, std::string_view key) {
+  const json_node* n = f.get(key);
+  if (!n) return std::nullopt;
+  std::optional<duration_value> d;
+  if (n->kind == json_node::type::string || n->kind == json_node::type::number)
+    d = parse_duration(n->text);
+  if (!d || d->frames) {
+    f.bad(*n, quote_name(key) + " must be a duration: a number of seconds, or \"1.5s\", \"250ms\"");
+    return std::nullopt;
+  }
+  return d->ns;
+}
+
+// A signed offset: "-0.5s" as well as "0.5s".
+std::optional<time_ns> offset_member(json_fields& f, std::string_view key) {
+  const json_node* n = f.get(key);
+  if (!n) return std::nullopt;
+  std::string text = n->text;
+  const bool negative = !text.empty() && text[0] == '-';
+  if (negative) text.erase(0, 1);
+  std::optional<duration_value> d;
+  if (n->kind == json_node::type::string || n->kind == json_node::type::number)
+    d = parse_duration(text);
+  if (!d || d->frames) {
+    f.bad(*n, quote_name(key) + " must be an offset: seconds, or \"-0.5s\", \"250ms\"");
+    return std::nullopt;
+  }
+  return negative ? -d->ns : d->ns;
+}
+
+void read_shift(const json_node& n, merge_plan& plan, std::vector<diagnostic>& problems) {
+  if (n.kind != json_node::type::object) {
+    problems.push_back(detail::make_diagnostic(severity::error, "plan.value", n.offset,
+                                               "each shift must be an object"));
+    return;
+  }
+  json_fields f(n, "a shift", "plan", problems);
+  shift_step s;
+  if (f.require("tier"))
+    if (auto t = f.string("tier")) s.tier = *t;
+  s.by = offset_member(f, "by");
+  s.align_to = f.string("align_to");
+  if (auto m = duration_member(f, "max")) s.max_offset = *m;
+  if (s.by.has_value() == s.align_to.has_value())
+    problems.push_back(detail::make_diagnostic(severity::error, "plan.value", n.offset,
+                                               "a shift has either 'by' or 'align_to'"));
+  f.finish();
+  plan.shifts.push_back(std::move(s));
+}
+
+void read_combine(const json_node& n, merge_plan& plan, std::vector<diagnostic>& problems) {
+  if (n.kind != json_node::type::object) {
+    problems.push_back(detail::make_diagnostic(severity::error, "plan.value", n.offset,
+                                               "each combination must be an object"));
+    return;
+  }
+  json_fields f(n, "a combination", "plan", problems);
+  combine_step c;
+  for (auto [key, into] :
+       {std::pair{"into", &c.into}, std::pair{"human", &c.human}, std::pair{"machine", &c.machine}})
+    if (f.require(key))
+      if (auto v = f.string(key)) *into = *v;
+  if (auto s = f.string("strategy")) {
+    if (auto strategy = parse_combine_strategy(*s))
+      c.strategy = *strategy;
+    else
+      f.bad(*f.get("strategy"), "'strategy' is \"human-first\", \"union\" or \"intersection\"");
+  }
+  if (auto m = f.number("min_confidence")) {
+    if (*m >= 0 && *m <= 1)
+      c.min_confidence = *m;
+    else
+      f.bad(*f.get("min_confidence"), "'min_confidence' is a number from 0 to 1");
+  }
+  if (auto d = duration_member(f, "min_duration")) c.min_duration = *d;
+  c.review = f.string("review");
+  f.finish();
+  plan.combine.push_back(std::move(c));
+}
+
+void write_duration(byte_sink& out, time_ns t) {
+  out.put('"');
+  out.write(format_seconds(t));
+  out.write("s\"");
+}
+
+}  // namespace
+
+plan_result read_merge_plan(std::string_view text, const std::string& file) {
+  plan_result r;
+  std::vector<diagnostic>& problems = r.diagnostics;
+  std::optional<json_node> root = detail::parse_json_tree(text, problems, 32);
+  if (root && root->kind != json_node::type::object) {
+    problems.push_back(detail::make_diagnostic(severity::error, "plan.value", root->offset,
+                                               "a merge plan is a JSON object"));
+    root.reset();
+  }
+  if (root) {
+    json_fields f(*root, "the plan", "plan", problems);
+    if (auto fmt = f.string("format"); fmt && *fmt != "tiers-merge-plan")
+      f.bad(*f.get("format"), "'format' must be \"tiers-merge-plan\"");
+    if (const json_node* v = f.get("version");
+        v && (v->kind != json_node::type::number || v->text != "1"))
+      f.bad(*v, "'version' must be 1");
+    if (const json_node* in = f.array("inputs"))
+      for (const json_node& i : in->items) {
+        if (i.kind != json_node::type::string)
+          problems.push_back(detail::make_diagnostic(severity::error, "plan.value", i.offset,
+                                                     "inputs are file names"));
+        else
+          r.value.inputs.push_back(i.text);
+      }
+    if (auto c = f.string("clash")) {
+      if (auto rule = parse_clash_rule(*c))
+        r.value.clash = *rule;
+      else
+        f.bad(*f.get("clash"), "'clash' is \"fail\", \"prefix-file\" or \"prefix-source\"");
+    }
+    if (const json_node* s = f.array("shift"))
+      for (const json_node& x : s->items)
+        read_shift(x, r.value, problems);
+    if (const json_node* c = f.array("combine"))
+      for (const json_node& x : c->items)
+        read_combine(x, r.value, problems);
+    f.finish();
+  }
+  locate_all(text, problems);
+  for (diagnostic& d : problems)
+    d.file = file;
+  return r;
+}
+
+std::string plan_json(const merge_plan& plan) {
+  std::string text;
+  string_sink out(text);
+  using detail::write_json_double;
+  using detail::write_json_string;
+  out.write("{\"format\": \"tiers-merge-plan\", \"version\": 1");
+  if (!plan.inputs.empty()) {
+    out.write(", \"inputs\": [");
+    for (std::size_t k = 0; k < plan.inputs.size(); ++k) {
+      if (k) out.write(", ");
+      write_json_string(out, plan.inputs[k]);
+    }
+    out.put(']');
+  }
+  out.write(", \"clash\": ");
+  write_json_string(out, to_string(plan.clash));
+  out.write(", \"shift\": [");
+  for (std::size_t k = 0; k < plan.shifts.size(); ++k) {
+    const shift_step& s = plan.shifts[k];
+    out.write(k ? ", {\"tier\": " : "{\"tier\": ");
+    write_json_string(out, s.tier);
+    if (s.by) {
+      out.write(", \"by\": ");
+      out.put('"');
+      out.write(*s.by < 0 ? "-" + format_seconds(-*s.by) : format_seconds(*s.by));
+      out.write("s\"");
+    }
+    if (s.align_to) {
+      out.write(", \"align_to\": ");
+      write_json_string(out, *s.align_to);
+      out.write(", \"max\": ");
+      write_duration(out, s.max_offset);
+    }
+    out.put('}');
+  }
+  out.write("], \"combine\": [");
+  for (std::size_t k = 0; k < plan.combine.size(); ++k) {
+    const combine_step& c = plan.combine[k];
+    out.write(k ? ", {\"into\": " : "{\"into\": ");
+    write_json_string(out, c.into);
+    out.write(", \"human\": ");
+    write_json_string(out, c.human);
+    out.write(", \"machine\": ");
+    write_json_string(out, c.machine);
+    out.write(", \"strategy\": ");
+    write_json_string(out, to_string(c.strategy));
+    out.write(", \"min_confidence\": ");
+    write_json_double(out, c.min_confidence);
+    out.write(", \"min_duration\": ");
+    write_duration(out, c.min_duration);
+    if (c.review) {
+      out.write(", \"review\": ");
+      write_json_string(out, *c.review);
+    }
+    out.put('}');
+  }
+  out.write("]}");
+  out.flush();
+  return text;
+}
+
+}  // namespace tiers

@@ -1,0 +1,147 @@
+// Agreement measures against worked examples from outside the project (sources named), and
+// segment matching on hand-built cases.
+#include <catch2/catch.hpp>
+#include <cmath>
+
+#include "tiers/agree.hpp"
+
+using namespace tiers;
+
+namespace {
+
+annotation seg(double start, double end, std::string label) {
+  annotation a;
+  a.start = std::llround(start * 1e9);
+  a.end = std::llround(end * 1e9);
+  a.text = std::move(label);
+  return a;
+}
+
+tier tier_of(std::vector<annotation> as) {
+  tier t;
+  t.annotations = std::move(as);
+  return t;
+}
+
+// Two raters' yes/no judgements of n units as one-second annotations, from a 2×2 table.
+std::pair<tier, tier> from_table(int yy, int yn, int ny, int nn) {
+  tier a, b;
+  double t = 0;
+  auto add = [&](int count, const char* x, const char* y) {
+    for (int k = 0; k < count; ++k, t += 1) {
+      a.annotations.push_back(seg(t, t + 1, x));
+      b.annotations.push_back(seg(t, t + 1, y));
+    }
+  };
+  add(yy, "yes", "yes");
+  add(yn, "yes", "no");
+  add(ny, "no", "yes");
+  add(nn, "no", "no");
+  return {a, b};
+}
+
+double kappa_of_table(int yy, int yn, int ny, int nn) {
+  const auto [a, b] = from_table(yy, yn, ny, nn);
+  const time_grid grid{0, static_cast<time_ns>(yy + yn + ny + nn) * ns_per_second, ns_per_second};
+  return compare_frames(a, b, grid).kappa;
+}
+
+}  // namespace
+
+TEST_CASE("Cohen's kappa reproduces the worked examples", "[agree]") {
+  // A tutorial's worked example (CHECKS.md, read): 20/5/10/15 of 50 → p_o 0.7, p_e 0.5, κ 0.4.
+  const auto [a, b] = from_table(20, 5, 10, 15);
+  const frame_agreement f = compare_frames(a, b, {0, 50 * ns_per_second, ns_per_second});
+  CHECK(f.observed == Approx(0.7).margin(1e-12));
+  CHECK(f.expected == Approx(0.5).margin(1e-12));
+  CHECK(f.kappa == Approx(0.4).margin(1e-12));
+  // The kappa paradox tables (CHECKS.md, memory; arithmetic verified): 45/15/25/15 → 3/23,
+  // 25/35/5/35 → 7/27.
+  CHECK(kappa_of_table(45, 15, 25, 15) == Approx(3.0 / 23).margin(1e-12));
+  CHECK(kappa_of_table(25, 35, 5, 35) == Approx(7.0 / 27).margin(1e-12));
+  // Perfect agreement on one label only: p_e = 1, kappa undefined.
+  CHECK(std::isnan(kappa_of_table(10, 0, 0, 0)));
+}
+
+TEST_CASE("Krippendorff's alpha reproduces the 2011 paper's reliability data", "[agree]") {
+  // K. Krippendorff, "Computing Krippendorff's Alpha-Reliability" (2011): 4 coders × 12 units
+  // (CHECKS.md): nominal 0.743, interval 0.849 (the paper's values, from memory; recomputed
+  // 0.7434, 0.8491).
+  const std::optional<double> _;
+  const std::vector<std::vector<std::optional<double>>> coders{
+      {1, 2, 3, 3, 2, 1, 4, 1, 2, _, _, _},
+      {1, 2, 3, 3, 2, 2, 4, 1, 2, 5, _, 3},
+      {_, 3, 3, 3, 2, 3, 4, 2, 2, 5, 1, _},
+      {1, 2, 3, 3, 2, 4, 4, 1, 2, 5, 1, _},
+  };
+  std::vector<std::vector<std::optional<double>>> units(12);
+  for (std::size_t u = 0; u < 12; ++u)
+    for (const auto& c : coders)
+      units[u].push_back(c[u]);
+  CHECK(krippendorff_alpha(units, alpha_metric::nominal) == Approx(0.7434).margin(5e-5));
+  CHECK(krippendorff_alpha(units, alpha_metric::interval) == Approx(0.8491).margin(5e-5));
+  CHECK(std::isnan(krippendorff_alpha({{1.0, {}}, {{}, 2.0}}, alpha_metric::nominal)));
+}
+
+TEST_CASE("frames take the label of the annotation over their middle", "[agree]") {
+  const tier t = tier_of({seg(0.004, 0.016, "a"), seg(0.03, 0.03, "p")});
+  const framed_tiers f = frame_labels({&t}, {0, 40'000'000, 10'000'000});
+  // Frame middles at 5, 15, 25, 35 ms: [4, 16) covers the first two; the point at 30 ms falls
+  // in the fourth frame.
+  CHECK(f.frames[0] == std::vector<std::int32_t>{0, 0, -1, 1});
+}
+
+TEST_CASE("precision, recall and F1 over labelled frames, per label", "[agree]") {
+  const tier ref = tier_of({seg(0, 4, "stroke"), seg(6, 8, "hold")});
+  const tier cand = tier_of({seg(1, 4, "stroke"), seg(6, 7, "stroke")});
+  const frame_agreement f = compare_frames(ref, cand, {0, 10 * ns_per_second, ns_per_second});
+  // Reference labels 6 frames, the candidate 4; 3 agree.
+  CHECK(f.precision == Approx(0.75));
+  CHECK(f.recall == Approx(0.5));
+  CHECK(f.f1 == Approx(0.6));
+  REQUIRE(f.scores.size() == 2);
+  CHECK(f.scores[0].label == "stroke");
+  CHECK(f.scores[0].precision == Approx(0.75));
+  CHECK(f.scores[0].recall == Approx(0.75));
+  CHECK(f.scores[1].label == "hold");
+  CHECK(std::isnan(f.scores[1].precision));  // the candidate never says "hold"
+  CHECK(f.labels.back() == "none");
+  CHECK(f.confusion[1][0] == 1);  // hold judged stroke
+  CHECK(f.confusion[1][2] == 1);  // hold judged none
+}
+
+TEST_CASE("segments match one to one, optimally rather than greedily", "[agree]") {
+  // Greedy matching of the reference in order would give ref 0 its closest candidate (1.10),
+  // leaving ref 1 with nothing within the collar; the optimal matching pairs both.
+  const tier ref = tier_of({seg(1.00, 2.00, "beat"), seg(1.25, 2.25, "beat")});
+  const tier cand = tier_of({seg(0.85, 1.85, "beat"), seg(1.10, 2.10, "beat")});
+  const segment_agreement s = compare_segments(ref, cand);
+  REQUIRE(s.matches.size() == 2);
+  CHECK(s.matches[0].candidate == 0);
+  CHECK(s.matches[1].candidate == 1);
+  CHECK(s.precision == 1.0);
+  CHECK(s.recall == 1.0);
+  CHECK(s.onset_median == 150'000'000);
+}
+
+TEST_CASE("segment matching by collar, by overlap, and by label", "[agree]") {
+  const tier ref = tier_of({seg(1, 2, "beat"), seg(5, 6, "beat"), seg(9, 10, "point")});
+  const tier cand = tier_of(
+      {seg(1.1, 2.15, "beat"), seg(5.3, 6.0, "beat"), seg(9, 10, "beat"), seg(12, 13, "x")});
+  segment_agreement s = compare_segments(ref, cand);
+  // Within 200 ms: only the first; the second starts 300 ms late; the third has another label.
+  CHECK(s.matches.size() == 1);
+  CHECK(s.precision == Approx(0.25));
+  CHECK(s.recall == Approx(1.0 / 3));
+  CHECK(s.f1 == Approx(2 * 0.25 / 3 / (0.25 + 1.0 / 3)));
+  CHECK(s.onset_median == 100'000'000);
+  CHECK(s.offset_median == 150'000'000);
+
+  segment_options by_overlap;
+  by_overlap.by = segment_options::criterion::overlap;
+  s = compare_segments(ref, cand, by_overlap);
+  CHECK(s.matches.size() == 2);  // IoU 0.9/1.15 and 0.7
+  by_overlap.same_label = false;
+  s = compare_segments(ref, cand, by_overlap);
+  CHECK(s.matches.size() == 3);
+}

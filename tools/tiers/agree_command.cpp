@@ -1,0 +1,227 @@
+// `tiers agree REF CAND [--tier T | --ref-tier A --cand-tier B] [--step D] [--json]` and
+// `tiers agree FILE --tiers A,B,C… [--step D] [--json]`: loads, calls libtiers, prints.
+#include "agree_command.hpp"
+
+#include <fmt/format.h>
+
+#include <cmath>
+
+#include "text_table.hpp"
+#include "tiers/agree.hpp"
+#include "tiers/detail/report.hpp"
+#include "tiers/io.hpp"
+
+namespace tiers::cli {
+
+CLI::App* setup_agree(CLI::App& app, agree_options& o) {
+  CLI::App* cmd = app.add_subcommand(
+      "agree", "How far a candidate tier agrees with a reference, or annotators with each other");
+  cmd->add_option("files", o.paths, "REF CAND, or one FILE with both tiers (or with --tiers)")
+      ->required()
+      ->expected(1, 2)
+      ->type_name("FILE");
+  cmd->add_option("--tier", o.tier, "The tier compared, when both files call it the same")
+      ->type_name("NAME");
+  cmd->add_option("--ref-tier", o.ref_tier, "The reference tier")->type_name("NAME");
+  cmd->add_option("--cand-tier", o.cand_tier, "The candidate tier")->type_name("NAME");
+  cmd->add_option("--tiers", o.tiers, "Several annotators' tiers of one file: Krippendorff's alpha")
+      ->type_name("A,B,C...");
+  cmd->add_option("--step", o.step, "The time grid's step (default 10ms)")->type_name("DURATION");
+  cmd->add_option("--match", o.match,
+                  "Segments match by boundaries (default: onset and offset within --collar) or "
+                  "by overlap (at least --min-overlap of their union)")
+      ->check(CLI::IsMember({"boundaries", "overlap"}))
+      ->type_name("HOW");
+  cmd->add_option("--collar", o.collar, "Boundary tolerance for --match boundaries (200ms)")
+      ->type_name("DURATION");
+  cmd->add_option("--min-overlap", o.min_overlap, "Least overlap ratio for --match overlap (0.5)")
+      ->check(CLI::Range(0.0, 1.0))
+      ->type_name("X");
+  cmd->add_flag("--any-label", o.any_label, "Segments match whatever their labels");
+  cmd->add_option("--min-confidence", o.min_confidence,
+                  "Leave out candidate annotations below this confidence (0-1): a higher "
+                  "threshold trades recall for precision")
+      ->check(CLI::Range(0.0, 1.0))
+      ->type_name("X");
+  cmd->add_flag("--json", o.json, "Print JSON for scripts");
+  add_input_options(*cmd, o.input);
+  return cmd;
+}
+
+namespace {
+
+using detail::quote_name;
+
+struct loaded {
+  std::string file;
+  document doc;
+};
+
+loaded load(const agree_options& o, const std::string& path) {
+  input_options in = o.input;
+  in.path = path;
+  return {display_name(path), load_document(in)};
+}
+
+const tier& tier_in(const loaded& l, const std::string& name) {
+  if (name.empty()) {
+    if (l.doc.tiers.size() == 1) return l.doc.tiers.front();
+    std::string names;
+    for (const tier& t : l.doc.tiers)
+      names += (names.empty() ? "" : ", ") + quote_name(t.name);
+    throw usage_error(l.file + " has " + std::to_string(l.doc.tiers.size()) +
+                      " tiers; name one with --tier, --ref-tier or --cand-tier (" + names + ")");
+  }
+  if (const tier* t = find_tier(l.doc, name)) return *t;
+  diagnostic d;
+  d.file = l.file;
+  d.code = "agree.tier";
+  d.message = "no tier " + quote_name(name);
+  report(d);
+  throw rejected();
+}
+
+// The grid: from zero to the media's end when a document knows it, else to the last end.
+time_grid grid_for(const std::vector<const document*>& docs, const std::vector<const tier*>& tiers,
+                   const std::string& step) {
+  time_grid g;
+  g.step = parse_duration_option("--step", step, duration_kind::positive);
+  for (const document* d : docs)
+    if (d->media.duration) g.end = std::max(g.end, *d->media.duration);
+  if (g.end == 0)
+    for (const tier* t : tiers)
+      for (const annotation& a : t->annotations)
+        g.end = std::max({g.end, a.end, a.start + 1});
+  return g;
+}
+
+std::string num(double v) {
+  return std::isnan(v) ? "-" : fmt::format("{:.3f}", v);
+}
+
+std::string text_report(const agreement_report& r, std::size_t ref_count, std::size_t cand_count) {
+  const frame_agreement& f = r.frames;
+  const segment_agreement& s = r.segments;
+  const time_grid& g = f.grid;
+  std::string text;
+  text += fmt::format("reference  {}: {} ({} annotations)\n", r.reference.file, r.reference.tier,
+                      ref_count);
+  text += fmt::format("candidate  {}: {} ({} annotations)\n", r.candidate.file, r.candidate.tier,
+                      cand_count);
+  text += fmt::format("frames     {} of {} s, {} to {}\n\n", g.frames(), format_seconds(g.step),
+                      format_clock(g.start),
+                      format_clock(g.start + static_cast<time_ns>(g.frames()) * g.step));
+  text += fmt::format("frames     kappa {}  (observed {}, by chance {})\n", num(f.kappa),
+                      num(f.observed), num(f.expected));
+  text += fmt::format("           precision {}  recall {}  f1 {}  (frames with a label)\n\n",
+                      num(f.precision), num(f.recall), num(f.f1));
+  text_table labels(
+      {"label", ">reference", ">candidate", ">agreed", ">precision", ">recall", ">f1"});
+  for (const label_scores& l : f.scores)
+    labels.add_row({l.label, std::to_string(l.reference), std::to_string(l.candidate),
+                    std::to_string(l.agreed), num(l.precision), num(l.recall), num(l.f1)});
+  text += labels.render() + "\n";
+  std::vector<std::string> titles{"reference \\ candidate"};
+  for (const std::string& l : f.labels)
+    titles.push_back(">" + l);
+  text_table confusion(titles);
+  for (std::size_t i = 0; i < f.labels.size(); ++i) {
+    std::vector<std::string> row{f.labels[i]};
+    for (std::uint64_t n : f.confusion[i])
+      row.push_back(std::to_string(n));
+    confusion.add_row(row);
+  }
+  text += confusion.render() + "\n";
+  const segment_options& m = r.matching;
+  const std::string how = m.by == segment_options::criterion::boundaries
+                              ? "onset and offset within " + format_seconds(m.collar) + " s"
+                              : fmt::format("overlap at least {:g} of the union", m.min_overlap);
+  text += fmt::format("segments   {} matched one to one ({}{}) of {} reference, {} candidate\n",
+                      s.matches.size(), how, m.same_label ? ", same label" : "", s.reference,
+                      s.candidate);
+  text += fmt::format("           precision {}  recall {}  f1 {}\n", num(s.precision),
+                      num(s.recall), num(s.f1));
+  if (!s.matches.empty())
+    text +=
+        fmt::format("           |onset| median {} s, p90 {} s; |offset| median {} s, p90 {} s\n",
+                    format_seconds(s.onset_median), format_seconds(s.onset_p90),
+                    format_seconds(s.offset_median), format_seconds(s.offset_p90));
+  return text;
+}
+
+int two_tiers(const agree_options& o) {
+  const loaded ref = load(o, o.paths[0]);
+  const loaded cand = o.paths.size() > 1 ? load(o, o.paths[1]) : ref;
+  const std::string rn = !o.ref_tier.empty() ? o.ref_tier : o.tier;
+  const std::string cn = !o.cand_tier.empty() ? o.cand_tier : o.tier;
+  if (o.paths.size() == 1 && (rn.empty() || cn.empty() || rn == cn))
+    throw usage_error("with one file, name two of its tiers: --ref-tier A --cand-tier B");
+  const tier& r = tier_in(ref, rn);
+  tier c = tier_in(cand, cn);
+  const std::size_t cand_count = c.annotations.size();
+  std::erase_if(c.annotations, [&](const annotation& a) {
+    return a.confidence && *a.confidence < o.min_confidence;
+  });
+  segment_options matching;
+  matching.by = o.match == "overlap" ? segment_options::criterion::overlap
+                                     : segment_options::criterion::boundaries;
+  matching.collar = parse_duration_option("--collar", o.collar, duration_kind::positive);
+  matching.min_overlap = o.min_overlap;
+  matching.same_label = !o.any_label;
+  agreement_report report =
+      compare_tiers(r, c, grid_for({&ref.doc, &cand.doc}, {&r, &c}, o.step), matching);
+  report.reference.file = ref.file;
+  report.candidate.file = cand.file;
+  stdout_sink out;
+  if (o.json)
+    write_agreement_json(report, out);
+  else
+    out.write(text_report(report, r.annotations.size(), cand_count));
+  out.flush();
+  return exit_ok;
+}
+
+int many_tiers(const agree_options& o) {
+  if (o.paths.size() != 1) throw usage_error("--tiers compares the tiers of one file");
+  const loaded file = load(o, o.paths[0]);
+  std::vector<const tier*> tiers;
+  for (std::size_t from = 0; from <= o.tiers.size();) {
+    const std::size_t comma = std::min(o.tiers.find(',', from), o.tiers.size());
+    tiers.push_back(&tier_in(file, o.tiers.substr(from, comma - from)));
+    from = comma + 1;
+  }
+  if (tiers.size() < 2) throw usage_error("--tiers needs two tiers or more, e.g. --tiers A,B,C");
+  annotators_report r = compare_annotators(tiers, grid_for({&file.doc}, tiers, o.step));
+  r.file = file.file;
+  stdout_sink out;
+  if (o.json) {
+    write_annotators_json(r, out);
+    out.flush();
+    return exit_ok;
+  }
+  std::string names;
+  for (const std::string& t : r.tiers)
+    names += (names.empty() ? "" : ", ") + t;
+  std::string text = fmt::format("annotators {} ({})\n", names, r.file);
+  text += fmt::format("frames     {} of {} s, {} with two values or more\n", r.grid.frames(),
+                      format_seconds(r.grid.step), r.pairable);
+  text += fmt::format("alpha      {} nominal", num(r.alpha));
+  if (r.alpha_interval) text += fmt::format(", {} interval", num(*r.alpha_interval));
+  text += " (Krippendorff; no annotation counts as a missing value)\n\n";
+  text_table kappas({"pair", ">kappa"});
+  for (const auto& p : r.pairwise)
+    kappas.add_row({p.a + " / " + p.b, num(p.kappa)});
+  out.write(text + kappas.render());
+  out.flush();
+  return exit_ok;
+}
+
+}  // namespace
+
+int run_agree(const agree_options& o) {
+  reading_options(o.input, "");
+  if (!o.tiers.empty()) return many_tiers(o);
+  return two_tiers(o);
+}
+
+}  // namespace tiers::cli

@@ -1,0 +1,186 @@
+// `tiers merge IN… -o OUT [--plan PLAN] [--clash R] [--shift T=D] [--align T=REF]
+// [--into N --human T --machine T …]`: the options are shorthand for a plan.
+#include "merge_command.hpp"
+
+#include <algorithm>
+#include <filesystem>
+
+#include "tiers/io.hpp"
+#include "tiers/merge.hpp"
+
+namespace tiers::cli {
+
+CLI::App* setup_merge(CLI::App& app, merge_options& o) {
+  CLI::App* cmd = app.add_subcommand(
+      "merge", "Join the tiers of several files of one recording; combine human and machine tiers");
+  cmd->add_option("inputs", o.paths, "Files to merge (after the plan's inputs, if any)")
+      ->type_name("FILE");
+  cmd->add_option("-o,--output", o.output, "Output file, or - for standard output (with --to)")
+      ->type_name("FILE");
+  cmd->add_option("--to", o.to, "Output format (" + format_names() + "); default: by -o")
+      ->type_name("FORMAT");
+  cmd->add_option("--plan", o.plan, "A merge plan (JSON); the options below add to it")
+      ->type_name("PLAN");
+  cmd->add_option("--clash", o.clash,
+                  "When inputs share a tier name: fail (default), prefix-file (STEM:NAME) or "
+                  "prefix-source (AGENT:NAME)")
+      ->check(CLI::IsMember({"fail", "prefix-file", "prefix-source"}))
+      ->type_name("RULE");
+  cmd->add_option("--shift", o.shifts, "Shift a tier by an offset, e.g. detector=-0.48s")
+      ->allow_extra_args(false)
+      ->type_name("TIER=OFFSET");
+  cmd->add_option("--align", o.aligns,
+                  "Shift a tier by the offset estimated against another, e.g. detector=gestures")
+      ->allow_extra_args(false)
+      ->type_name("TIER=REFERENCE");
+  cmd->add_option("--max-offset", o.max_offset, "How far --align looks (default 10s)")
+      ->type_name("DURATION");
+  cmd->add_option("--into", o.into, "Combine --human and --machine into a new tier of this name")
+      ->type_name("NAME");
+  cmd->add_option("--human", o.human, "The human tier to combine")->type_name("TIER");
+  cmd->add_option("--machine", o.machine, "The machine tier to combine")->type_name("TIER");
+  cmd->add_option("--strategy", o.strategy, "human-first (default), union or intersection")
+      ->check(CLI::IsMember({"human-first", "union", "intersection"}))
+      ->type_name("S");
+  cmd->add_option("--min-confidence", o.min_confidence,
+                  "Leave out machine annotations below this confidence (0-1)")
+      ->type_name("X");
+  cmd->add_option("--min-duration", o.min_duration, "Drop trimmed machine pieces shorter than this")
+      ->type_name("DURATION");
+  cmd->add_option("--review", o.review,
+                  "Also write a tier marking every span where human and machine disagree")
+      ->type_name("NAME");
+  cmd->add_flag("--print-plan", o.print_plan,
+                "Print the plan these options and --plan make, and merge nothing");
+  cmd->add_flag("--allow-loss", o.allow_loss,
+                "Write even when the output format cannot carry everything; lists the loss");
+  add_input_options(*cmd, o.input);
+  return cmd;
+}
+
+namespace {
+
+namespace fs = std::filesystem;
+
+std::pair<std::string, std::string> split_pair(const std::string& option, const std::string& text) {
+  const std::size_t eq = text.rfind('=');
+  if (eq == std::string::npos || eq == 0 || eq + 1 == text.size())
+    throw usage_error(option + ": expected TIER=VALUE, got '" + text + "'");
+  return {text.substr(0, eq), text.substr(eq + 1)};
+}
+
+merge_plan make_plan(const merge_options& o) {
+  merge_plan plan;
+  if (!o.plan.empty()) {
+    const std::string text = read_input(o.plan);
+    plan_result r = read_merge_plan(text, display_name(o.plan));
+    for (const diagnostic& d : r.diagnostics)
+      report(d);
+    if (!r.ok()) throw rejected();
+    plan = std::move(r.value);
+    // A plan's inputs are beside it: never outside its folder.
+    const fs::path base = fs::path(o.plan).parent_path();
+    for (std::string& in : plan.inputs) {
+      const fs::path rel(in);
+      if (!rel.is_relative() ||
+          std::any_of(rel.begin(), rel.end(), [](const auto& p) { return p == ".."; })) {
+        diagnostic d;
+        d.file = display_name(o.plan);
+        d.code = "plan.value";
+        d.message = "input '" + in + "' is outside the plan's folder; name it on the command line";
+        report(d);
+        throw rejected();
+      }
+      in = (base / rel).string();
+    }
+  }
+  for (const std::string& p : o.paths)
+    plan.inputs.push_back(p);
+  if (!o.clash.empty()) plan.clash = *parse_clash_rule(o.clash);
+  const time_ns max_offset =
+      o.max_offset.empty()
+          ? 10 * ns_per_second
+          : parse_duration_option("--max-offset", o.max_offset, duration_kind::positive);
+  for (const std::string& s : o.shifts) {
+    auto [tier_name, offset] = split_pair("--shift", s);
+    shift_step step;
+    step.tier = tier_name;
+    step.by = parse_duration_option("--shift", offset, duration_kind::offset);
+    plan.shifts.push_back(step);
+  }
+  for (const std::string& s : o.aligns) {
+    auto [tier_name, reference] = split_pair("--align", s);
+    shift_step step;
+    step.tier = tier_name;
+    step.align_to = reference;
+    step.max_offset = max_offset;
+    plan.shifts.push_back(step);
+  }
+  const bool combining = !o.into.empty() || !o.human.empty() || !o.machine.empty();
+  if (combining) {
+    if (o.into.empty() || o.human.empty() || o.machine.empty())
+      throw usage_error("combining needs --into, --human and --machine together");
+    combine_step c;
+    c.into = o.into;
+    c.human = o.human;
+    c.machine = o.machine;
+    if (!o.strategy.empty()) c.strategy = *parse_combine_strategy(o.strategy);
+    if (!o.min_confidence.empty()) {
+      char* end = nullptr;
+      c.min_confidence = std::strtod(o.min_confidence.c_str(), &end);
+      if (*end != '\0' || !(c.min_confidence >= 0 && c.min_confidence <= 1))
+        throw usage_error("--min-confidence: '" + o.min_confidence +
+                          "' is not a number from 0 to 1");
+    }
+    if (!o.min_duration.empty())
+      c.min_duration = parse_duration_option("--min-duration", o.min_duration);
+    if (!o.review.empty()) c.review = o.review;
+    plan.combine.push_back(c);
+  } else if (!o.strategy.empty() || !o.min_confidence.empty() || !o.min_duration.empty() ||
+             !o.review.empty()) {
+    throw usage_error("--strategy, --min-confidence, --min-duration and --review go with --into");
+  }
+  return plan;
+}
+
+}  // namespace
+
+int run_merge(const merge_options& o) {
+  reading_options(o.input, "");  // bad option values are usage errors before any work
+  const merge_plan plan = make_plan(o);
+  if (o.print_plan) {
+    stdout_sink out;
+    out.write(plan_json(plan) + "\n");
+    out.flush();
+    return exit_ok;
+  }
+  if (o.output.empty()) throw usage_error("merge: name the output with -o");
+  const format& to = output_format(o.to, o.output);
+  if (plan.inputs.empty()) throw usage_error("merge: name the files to merge");
+
+  std::vector<merge_input> inputs;
+  bool failed = false;
+  for (const std::string& path : plan.inputs) {
+    input_options in = o.input;
+    in.path = path;
+    try {
+      inputs.push_back({display_name(path), load_document(in)});
+    } catch (const rejected&) {
+      failed = true;  // every input's problems are shown before stopping
+    } catch (const error& e) {
+      report(e.diag());
+      failed = true;
+    }
+  }
+  if (failed) return exit_rejected;
+  merge_result r = merge_documents(std::move(inputs), plan);
+  for (diagnostic& d : r.diagnostics) {
+    if (d.file.empty()) d.file = "merge";
+    report(d);
+  }
+  if (!r.ok()) return exit_rejected;
+  write_output(r.doc, to, o.output, o.allow_loss, "merge");
+  return exit_ok;
+}
+
+}  // namespace tiers::cli

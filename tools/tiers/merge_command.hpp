@@ -1,0 +1,32 @@
+// `tiers merge`: tiers of several files of one recording in one file, and human and machine
+// tiers combined.
+#pragma once
+
+#include <CLI/CLI.hpp>
+#include <string>
+#include <vector>
+
+#include "cli_common.hpp"
+
+namespace tiers::cli {
+
+struct merge_options {
+  input_options input;  ///< reading options for every input (path unused)
+  std::vector<std::string> paths;
+  std::string output;
+  std::string to;
+  std::string plan;
+  std::string clash;
+  std::vector<std::string> shifts;  ///< TIER=OFFSET
+  std::vector<std::string> aligns;  ///< TIER=REFERENCE
+  std::string max_offset;
+  std::string into, human, machine, strategy, min_confidence, min_duration, review;
+  bool print_plan = false;
+  bool allow_loss = false;
+};
+
+/// Adds the subcommand to `app`; its options land in `options`.
+CLI::App* setup_merge(CLI::App& app, merge_options& options);
+int run_merge(const merge_options& options);
+
+}  // namespace tiers::cli
