@@ -1,6 +1,8 @@
 // Exact parsing and formatting of times, frame numbers, timecodes and rationals.
 #include "tiers/time.hpp"
 
+#include "tiers/detail/exact.hpp"
+
 #include <charconv>
 #include <cstdio>
 #include <limits>
@@ -9,9 +11,10 @@
 namespace tiers {
 namespace {
 
-__extension__ typedef __int128 i128;  // products of frame counts and rates need 128 bits
+using detail::i128;
+using detail::round_div;
+using detail::time_max;
 constexpr std::int64_t rational_limit = std::int64_t{1} << 32;
-constexpr i128 time_max = std::numeric_limits<time_ns>::max();
 
 bool is_digit(char c) {
   return c >= '0' && c <= '9';
@@ -22,11 +25,6 @@ parsed_time ok(time_ns v) {
 }
 parsed_time fail(time_status s) {
   return {0, s};
-}
-
-// n / d rounded to the nearest integer, ties away from zero; d > 0.
-i128 round_div(i128 n, i128 d) {
-  return n >= 0 ? (n + d / 2) / d : -((-n + d / 2) / d);
 }
 
 // A decimal number `[-+]digits[.digits][e[-+]digits]` (either digit run may be empty, not both),

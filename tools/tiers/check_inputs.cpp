@@ -45,27 +45,6 @@ std::vector<std::string> expand_inputs(const std::vector<std::string>& paths) {
   return unique;
 }
 
-std::optional<words_file> words_file_of(const std::string& spec, const input_options& reading,
-                                        std::optional<std::string>& tier) {
-  std::error_code ec;
-  std::string path = spec;
-  std::optional<std::string> name;
-  if (!fs::is_regular_file(path, ec)) {
-    const std::size_t colon = spec.rfind(':');
-    if (colon == std::string::npos || colon == 0 ||
-        !fs::is_regular_file(spec.substr(0, colon), ec)) {
-      tier = spec;
-      return std::nullopt;
-    }
-    path = spec.substr(0, colon);
-    name = spec.substr(colon + 1);
-  }
-  input_options in = reading;
-  in.path = path;
-  words_file w{path, name, load_document(in)};
-  return w;
-}
-
 namespace {
 
 struct checked {

@@ -34,6 +34,20 @@ void add_input_options(CLI::App& cmd, input_options& in) {
       ->type_name("RATE");
 }
 
+void add_output_options(CLI::App& cmd, std::string& output, std::string& to, bool& allow_loss,
+                        const char* output_help) {
+  CLI::Option* o = cmd.add_option("-o,--output", output,
+                                  output_help ? output_help
+                                              : "Output file, or - for standard output (with --to)")
+                       ->type_name("FILE");
+  if (!output_help) o->required();
+  cmd.add_option("--to", to,
+                 "Output format (" + format_names() + "); default: by the extension of -o")
+      ->type_name("FORMAT");
+  cmd.add_flag("--allow-loss", allow_loss,
+               "Write even when the output format cannot carry everything; lists what is dropped");
+}
+
 std::string display_name(const std::string& path) {
   return path == "-" ? "<stdin>" : path;
 }
@@ -152,6 +166,27 @@ void write_output(const document& doc, const format& to, const std::string& outp
     to.write(doc, out, {});
     out.commit();
   }
+}
+
+std::optional<words_file> words_file_of(const std::string& spec, const input_options& reading,
+                                        std::optional<std::string>& tier) {
+  std::error_code ec;
+  std::string path = spec;
+  std::optional<std::string> name;
+  if (!std::filesystem::is_regular_file(path, ec)) {
+    const std::size_t colon = spec.rfind(':');
+    if (colon == std::string::npos || colon == 0 ||
+        !std::filesystem::is_regular_file(spec.substr(0, colon), ec)) {
+      tier = spec;
+      return std::nullopt;
+    }
+    path = spec.substr(0, colon);
+    name = spec.substr(colon + 1);
+  }
+  input_options in = reading;
+  in.path = path;
+  words_file w{path, name, load_document(in)};
+  return w;
 }
 
 document load_document(const input_options& in) {

@@ -2,6 +2,7 @@
 #pragma once
 
 #include <CLI/CLI.hpp>
+#include <optional>
 #include <stdexcept>
 #include <string>
 #include <vector>
@@ -34,6 +35,11 @@ struct input_options {
   bool strict = false;
 };
 
+/// Adds -o/--output (with `output_help`; required unless `output_help` is given), --to and
+/// --allow-loss, for the commands that write a document.
+void add_output_options(CLI::App& cmd, std::string& output, std::string& to, bool& allow_loss,
+                        const char* output_help = nullptr);
+
 /// Adds --from, --columns, --tier-name, --time-unit and --rate to `cmd`.
 void add_input_options(CLI::App& cmd, input_options& in);
 
@@ -59,6 +65,19 @@ const format& output_format(const std::string& to, const std::string& output);
 /// Diagnostics name `file`.
 void write_output(const document& doc, const format& fmt, const std::string& output,
                   bool allow_loss, const std::string& file, std::vector<std::string> losses = {});
+
+/// A word-timing tier in another file (`--words FILE[:TIER]` of check and retime).
+struct words_file {
+  std::string path;
+  std::optional<std::string> tier;
+  document doc;
+};
+
+/// Splits `--words`: a file that exists, or FILE:TIER with a file that exists, is a words file,
+/// read with the same reading options as the checked files; anything else names a tier of each
+/// checked document.
+std::optional<words_file> words_file_of(const std::string& spec, const input_options& reading,
+                                        std::optional<std::string>& tier);
 
 /// Prints one diagnostic to standard error.
 void report(const diagnostic& d);

@@ -16,21 +16,15 @@ CLI::App* setup_convert(CLI::App& app, convert_options& o) {
   cmd->add_option("input", o.input.path, "Input file, or - for standard input")
       ->required()
       ->type_name("FILE");
-  cmd->add_option("-o,--output", o.output, "Output file, or - for standard output (default)")
-      ->type_name("FILE");
-  cmd->add_option("--to", o.to,
-                  "Output format (" + format_names() + "); default: by the extension of -o")
-      ->type_name("FORMAT");
   cmd->add_option("--tier", o.tiers, "Convert only this tier (repeatable)")
       ->allow_extra_args(false)
       ->type_name("NAME");
-  cmd->add_flag(
-      "--allow-loss", o.allow_loss,
-      "Convert even when the output format cannot carry everything; lists what is dropped");
   cmd->add_flag("--voices", o.voices,
                 "Join the (selected) tiers into one tier of cues whose speaker is their tier's "
                 "name; WebVTT writes them as voice spans");
   add_input_options(*cmd, o.input);
+  add_output_options(*cmd, o.output, o.to, o.allow_loss,
+                     "Output file, or - for standard output (the default)");
   return cmd;
 }
 

@@ -7,8 +7,11 @@
 #include "check_command.hpp"
 #include "cli_common.hpp"
 #include "convert_command.hpp"
+#include "derive_command.hpp"
+#include "edit_command.hpp"
 #include "info_command.hpp"
 #include "merge_command.hpp"
+#include "retime_command.hpp"
 #include "tiers/io.hpp"
 #include "tiers/version.hpp"
 
@@ -18,7 +21,7 @@ int main(int argc, char** argv) {
   std::signal(SIGPIPE, SIG_IGN);
   tiers::remove_partial_output_on_signals();
 
-  CLI::App app("Convert, inspect and validate time-aligned annotation tiers", "tiers");
+  CLI::App app("Convert, check, merge, compare and re-time time-aligned annotation tiers", "tiers");
   app.set_version_flag("--version", std::string(tiers::version()));
   app.require_subcommand(1);
   app.fallthrough(false);
@@ -27,11 +30,17 @@ int main(int argc, char** argv) {
   check_options check;
   merge_options merge;
   agree_options agree;
+  derive_options_cli derive;
+  retime_options_cli retime;
+  edit_options edit;
   const CLI::App* convert_cmd = setup_convert(app, convert);
   const CLI::App* info_cmd = setup_info(app, info);
   const CLI::App* check_cmd = setup_check(app, check);
   const CLI::App* merge_cmd = setup_merge(app, merge);
   const CLI::App* agree_cmd = setup_agree(app, agree);
+  const CLI::App* derive_cmd = setup_derive(app, derive);
+  const CLI::App* retime_cmd = setup_retime(app, retime);
+  const CLI::App* edit_cmd = setup_edit(app, edit);
 
   try {
     app.parse(argc, argv);
@@ -40,6 +49,9 @@ int main(int argc, char** argv) {
     if (check_cmd->parsed()) return run_check(check);
     if (merge_cmd->parsed()) return run_merge(merge);
     if (agree_cmd->parsed()) return run_agree(agree);
+    if (derive_cmd->parsed()) return run_derive(derive);
+    if (retime_cmd->parsed()) return run_retime(retime);
+    if (edit_cmd->parsed()) return run_edit(edit);
   } catch (const CLI::CallForHelp& e) {
     return app.exit(e);
   } catch (const CLI::CallForAllHelp& e) {

@@ -15,10 +15,6 @@ CLI::App* setup_merge(CLI::App& app, merge_options& o) {
       "merge", "Join the tiers of several files of one recording; combine human and machine tiers");
   cmd->add_option("inputs", o.paths, "Files to merge (after the plan's inputs, if any)")
       ->type_name("FILE");
-  cmd->add_option("-o,--output", o.output, "Output file, or - for standard output (with --to)")
-      ->type_name("FILE");
-  cmd->add_option("--to", o.to, "Output format (" + format_names() + "); default: by -o")
-      ->type_name("FORMAT");
   cmd->add_option("--plan", o.plan, "A merge plan (JSON); the options below add to it")
       ->type_name("PLAN");
   cmd->add_option("--clash", o.clash,
@@ -52,9 +48,10 @@ CLI::App* setup_merge(CLI::App& app, merge_options& o) {
       ->type_name("NAME");
   cmd->add_flag("--print-plan", o.print_plan,
                 "Print the plan these options and --plan make, and merge nothing");
-  cmd->add_flag("--allow-loss", o.allow_loss,
-                "Write even when the output format cannot carry everything; lists the loss");
   add_input_options(*cmd, o.input);
+  add_output_options(
+      *cmd, o.output, o.to, o.allow_loss,
+      "Output file, or - for standard output (with --to); needed unless --print-plan");
   return cmd;
 }
 

@@ -3,7 +3,9 @@
 
 #include "tiers/agree.hpp"
 #include "tiers/check.hpp"
+#include "tiers/derive.hpp"
 #include "tiers/diagnostic.hpp"
+#include "tiers/edit.hpp"
 #include "tiers/format.hpp"
 #include "tiers/info.hpp"
 #include "tiers/io.hpp"
@@ -11,6 +13,7 @@
 #include "tiers/merge.hpp"
 #include "tiers/model.hpp"
 #include "tiers/profile.hpp"
+#include "tiers/retime.hpp"
 #include "tiers/rules.hpp"
 #include "tiers/sink.hpp"
 #include "tiers/text.hpp"

@@ -1,0 +1,66 @@
+// From per-frame detector scores to interval tiers: reading a signal table, and hysteresis
+// thresholding with smoothing, bridging and a minimum duration.
+#pragma once
+
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "tiers/diagnostic.hpp"
+#include "tiers/model.hpp"
+
+namespace tiers {
+
+/// Scores sampled over time: one row per frame (or per time), one column per score.
+struct signal {
+  std::vector<std::string> names;           ///< the score columns
+  std::vector<time_ns> times;               ///< each row's start, increasing
+  std::vector<time_ns> ends;                ///< each row's end: the next row's start, or one step
+  std::vector<bool> after_gap;              ///< rows that follow missing rows
+  std::vector<std::vector<double>> scores;  ///< [column][row]
+  std::optional<rational> rate;             ///< when rows are frames
+};
+
+enum class signal_format : std::uint8_t { csv, tsv, jsonl };
+
+struct signal_options {
+  std::optional<rational> rate;      ///< frames per second, for a `frame` column
+  std::vector<std::string> columns;  ///< the score columns to read (default: all others)
+};
+
+/// Reads a table with a `frame` column (whole numbers; needs `rate`) or a `time` column
+/// (seconds or clock time), and numeric score columns. Rows may come in any order; they are
+/// sorted. A repeated frame or time, a non-numeric score or a bad time is an error located at
+/// its cell; missing frames (a gap of more than one frame, or of more than 1.5 median steps
+/// between times) are warnings, and no value is made up for them: `after_gap` marks the row
+/// after each gap, and rows before a gap end after one step. Codes: `derive.*`, `csv.*`,
+/// `json.*`.
+struct signal_result {
+  signal value;
+  std::vector<diagnostic> diagnostics;
+  bool ok() const { return !has_errors(diagnostics); }
+};
+signal_result read_signal(std::string_view text, signal_format format,
+                          const signal_options& options);
+
+/// How scores become intervals.
+struct derive_options {
+  double on = 0.5;              ///< an interval starts where the score reaches this
+  std::optional<double> off;    ///< and ends where it falls below this (default: `on`)
+  std::size_t smooth = 1;       ///< median over this many rows first (odd; 1: none)
+  time_ns bridge = 0;           ///< join intervals whose gap is shorter than this
+  time_ns min_duration = 0;     ///< then drop intervals shorter than this
+  bool max_confidence = false;  ///< confidence is the maximum score inside, not the mean
+  tier_source source{source_kind::machine, std::nullopt, std::nullopt};
+};
+
+/// One interval tier per score column, named after it; each annotation's text is the column's
+/// name and its confidence the mean (or maximum) raw score of the rows inside it (when that is
+/// not in [0, 1], it is kept as the attribute `score` instead). Intervals
+/// never span missing rows (nor are they bridged across them). The tiers record the options as
+/// attributes (`derive:on`, …); the media's frame rate is the signal's.
+document derive_tiers(const signal& s, const derive_options& options);
+
+}  // namespace tiers

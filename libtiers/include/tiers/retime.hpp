@@ -1,0 +1,51 @@
+// Re-timing caption cues onto word timings: each cue moves onto its words, cues without a
+// matched word follow their neighbours, then the caption rules are restored with the smallest
+// moves.
+#pragma once
+
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include "tiers/lag.hpp"
+#include "tiers/model.hpp"
+
+namespace tiers {
+
+struct retime_options {
+  time_ns lead_in = 0;                 ///< a re-timed cue starts this long before its first word
+  time_ns hold = 0;                    ///< and ends this long after its last word
+  time_ns min_gap = 80'000'000;        ///< between consecutive cues (2 frames at 25 fps)
+  time_ns min_duration = 833'333'333;  ///< of a cue (5/6 s)
+  lag_window window;                   ///< where a cue looks for its words
+  std::size_t neighbours = 3;          ///< cues on each side whose shift an unmatched cue borrows
+};
+
+/// What happened to one cue.
+struct cue_move {
+  std::size_t cue = 0;  ///< index in the caption tier
+  time_ns old_start = 0, old_end = 0, new_start = 0, new_end = 0;
+  enum class basis : std::uint8_t {
+    words,       ///< onto its matched words
+    neighbours,  ///< no word matched: shifted by the median shift of its neighbours
+    unchanged,   ///< no word matched and no neighbour to follow
+  } how = basis::unchanged;
+  std::size_t words = 0;  ///< caption words matched
+  std::string adjusted;   ///< how the caption rules moved it further, if they did
+  std::string unfixed;    ///< why a rule could not be met, if one could not
+};
+
+struct retime_result {
+  tier captions;                ///< the re-timed tier, in start-time order
+  std::vector<cue_move> moves;  ///< one per cue, in the new order
+};
+
+/// Re-times `captions` onto `words` (aligned as align_captions does). The caption rules are then
+/// applied in start-time order: a cue shorter than `min_duration` grows into free time (later,
+/// then earlier); where consecutive cues overlap or come closer than `min_gap`, the boundary
+/// between them moves, split evenly between the two as far as their minimum durations allow,
+/// and only what remains moves the later cue as a whole.
+retime_result retime_captions(const tier& captions, const tier& words,
+                              const retime_options& options = {});
+
+}  // namespace tiers

@@ -1,0 +1,298 @@
+// Reading signal tables (CSV, TSV, JSON Lines) of per-frame or per-time scores, located.
+#include <algorithm>
+#include <charconv>
+#include <cmath>
+#include <numeric>
+
+#include "../../formats/csv/table_scanner.hpp"
+#include "../json_tree.hpp"
+#include "tiers/derive.hpp"
+#include "tiers/detail/report.hpp"
+#include "tiers/lag.hpp"
+
+namespace tiers {
+namespace {
+
+using detail::make_diagnostic;
+using detail::quote_name;
+
+struct raw_row {
+  std::int64_t frame = 0;  // when rows are frames
+  time_ns time = 0;
+  std::size_t offset = 0;  // of the row
+  std::vector<double> values;
+};
+
+class signal_reader {
+ public:
+  signal_reader(std::string_view text, const signal_options& options, signal_result& out)
+      : text_(text), options_(options), out_(out) {}
+
+  void read_table(char delimiter);
+  void read_lines();
+  void finish();
+
+ private:
+  void error(std::string code, std::size_t offset, std::string message) {
+    out_.diagnostics.push_back(
+        make_diagnostic(severity::error, std::move(code), offset, std::move(message)));
+  }
+  // Chooses the key column and the score columns from the header names.
+  bool header(const std::vector<std::string>& names, std::size_t offset);
+  bool key(std::string_view text, std::size_t offset, raw_row& row);
+  bool value(std::string_view text, std::size_t offset, const std::string& column, double& v);
+
+  std::string_view text_;
+  const signal_options& options_;
+  signal_result& out_;
+  bool frames_ = false;
+  std::size_t key_column_ = 0;
+  std::vector<std::size_t> score_columns_;
+  std::vector<raw_row> rows_;
+};
+
+bool signal_reader::header(const std::vector<std::string>& names, std::size_t offset) {
+  auto find = [&](std::string_view n) {
+    return static_cast<std::size_t>(std::find(names.begin(), names.end(), n) - names.begin());
+  };
+  const std::size_t frame = find("frame"), time = find("time");
+  if (frame < names.size() && time < names.size()) {
+    error("derive.header", offset, "both 'frame' and 'time' columns: keep one");
+    return false;
+  }
+  if (frame == names.size() && time == names.size()) {
+    error("derive.header", offset, "no 'frame' or 'time' column");
+    return false;
+  }
+  frames_ = frame < names.size();
+  key_column_ = frames_ ? frame : time;
+  if (frames_ && !options_.rate) {
+    error("derive.header", offset, "frame numbers need a frame rate (--rate)");
+    return false;
+  }
+  out_.value.rate = frames_ ? options_.rate : std::nullopt;
+  if (options_.columns.empty()) {
+    for (std::size_t k = 0; k < names.size(); ++k)
+      if (k != key_column_) {
+        score_columns_.push_back(k);
+        out_.value.names.push_back(names[k]);
+      }
+  } else {
+    for (const std::string& c : options_.columns) {
+      const std::size_t k = find(c);
+      if (k == names.size() || k == key_column_) {
+        error("derive.header", offset, "no score column " + quote_name(c));
+        return false;
+      }
+      score_columns_.push_back(k);
+      out_.value.names.push_back(c);
+    }
+  }
+  if (score_columns_.empty()) {
+    error("derive.header", offset, "no score columns beside " + quote_name(names[key_column_]));
+    return false;
+  }
+  return true;
+}
+
+bool signal_reader::key(std::string_view text, std::size_t offset, raw_row& row) {
+  if (frames_) {
+    auto [p, ec] = std::from_chars(text.data(), text.data() + text.size(), row.frame);
+    if (text.empty() || ec != std::errc{} || p != text.data() + text.size() || row.frame < 0) {
+      error("derive.frame", offset,
+            "frame " + quote_name(text) + " is not a whole number from 0 up");
+      return false;
+    }
+    const parsed_time t = frame_time(row.frame, *options_.rate);
+    if (!t) {
+      error("time.range", offset, "frame " + std::string(text) + " is out of range");
+      return false;
+    }
+    row.time = t.value;
+    return true;
+  }
+  const parsed_time t =
+      text.find(':') != std::string_view::npos ? parse_clock(text) : parse_seconds(text);
+  if (!t) {
+    error(detail::time_code(t.status, "derive.time"), offset,
+          "time " + quote_name(text) + " " + std::string(describe(t.status)));
+    return false;
+  }
+  row.time = t.value;
+  return true;
+}
+
+bool signal_reader::value(std::string_view text, std::size_t offset, const std::string& column,
+                          double& v) {
+  while (!text.empty() && text.front() == ' ')
+    text.remove_prefix(1);
+  while (!text.empty() && text.back() == ' ')
+    text.remove_suffix(1);
+  auto [p, ec] = std::from_chars(text.data(), text.data() + text.size(), v);
+  if (text.empty() || ec != std::errc{} || p != text.data() + text.size() || !std::isfinite(v)) {
+    error("derive.score", offset,
+          quote_name(column) + " score " + quote_name(text) +
+              " is not a number (missing scores are not made up: leave out the row)");
+    return false;
+  }
+  return true;
+}
+
+void signal_reader::read_table(char delimiter) {
+  detail::table_scanner scanner(text_, delimiter, text_.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0);
+  std::vector<detail::table_cell> cells;
+  std::size_t offset = 0;
+  if (!scanner.next(cells, offset)) {
+    if (scanner.failed())
+      out_.diagnostics.push_back(scanner.problem);
+    else
+      error("derive.header", 0, "the file is empty; a signal table needs a header row");
+    return;
+  }
+  std::vector<std::string> names;
+  for (const detail::table_cell& c : cells)
+    names.emplace_back(c.text);
+  if (!header(names, offset)) return;
+  while (scanner.next(cells, offset)) {
+    if (cells.size() != names.size()) {
+      error("csv.fields", offset,
+            "row has " + std::to_string(cells.size()) + " fields; the header has " +
+                std::to_string(names.size()));
+      return;
+    }
+    raw_row row;
+    row.offset = offset;
+    if (!key(cells[key_column_].text, cells[key_column_].offset, row)) return;
+    for (std::size_t k = 0; k < score_columns_.size(); ++k) {
+      const detail::table_cell& c = cells[score_columns_[k]];
+      double v = 0;
+      if (!value(c.text, c.offset, out_.value.names[k], v)) return;
+      row.values.push_back(v);
+    }
+    rows_.push_back(std::move(row));
+  }
+  if (scanner.failed()) out_.diagnostics.push_back(scanner.problem);
+}
+
+void signal_reader::read_lines() {
+  std::vector<std::string> names;
+  for (std::size_t at = text_.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0; at < text_.size();) {
+    std::size_t end = text_.find('\n', at);
+    if (end == std::string_view::npos) end = text_.size();
+    const std::string_view line = text_.substr(at, end - at);
+    const std::size_t line_start = at;
+    at = end + 1;
+    if (line.find_first_not_of(" \t\r") == std::string_view::npos) continue;
+    std::vector<diagnostic> problems;
+    const auto node = detail::parse_json_tree(line, problems, 4);
+    for (diagnostic& d : problems) {
+      d.offset += line_start;
+      out_.diagnostics.push_back(std::move(d));
+    }
+    if (!node) return;
+    if (node->kind != detail::json_node::type::object) {
+      error("derive.row", line_start, "each line is one JSON object");
+      return;
+    }
+    if (names.empty()) {
+      names = node->keys;
+      if (!header(names, line_start)) return;
+    }
+    raw_row row;
+    row.offset = line_start;
+    const detail::json_node* k = node->member(names[key_column_]);
+    if (!k || k->kind != detail::json_node::type::number) {
+      error("derive.row", line_start + (k ? k->offset : 0),
+            "the line has no number " + quote_name(names[key_column_]));
+      return;
+    }
+    if (!key(k->text, line_start + k->offset, row)) return;
+    for (std::size_t s = 0; s < score_columns_.size(); ++s) {
+      const std::string& column = names[score_columns_[s]];
+      const detail::json_node* v = node->member(column);
+      double x = 0;
+      if (!v) {
+        error("derive.score", line_start, "the line has no " + quote_name(column));
+        return;
+      }
+      if (!value(v->kind == detail::json_node::type::number ? std::string_view(v->text)
+                                                            : std::string_view(),
+                 line_start + v->offset, column, x))
+        return;
+      row.values.push_back(x);
+    }
+    rows_.push_back(std::move(row));
+  }
+  if (names.empty()) error("derive.header", 0, "the file has no lines");
+}
+
+void signal_reader::finish() {
+  if (!out_.ok()) return;
+  std::stable_sort(rows_.begin(), rows_.end(),
+                   [](const raw_row& a, const raw_row& b) { return a.time < b.time; });
+  signal& s = out_.value;
+  for (std::size_t k = 1; k < rows_.size(); ++k)
+    if (rows_[k].time == rows_[k - 1].time) {
+      const raw_row& later = rows_[k].offset > rows_[k - 1].offset ? rows_[k] : rows_[k - 1];
+      error("derive.duplicate", later.offset,
+            (frames_ ? "frame " + std::to_string(later.frame)
+                     : "time " + format_seconds(later.time)) +
+                " appears twice (one value per " + (frames_ ? "frame" : "time") + ")");
+      return;
+    }
+  // The usual step between rows: a frame, or the median time difference.
+  time_ns step = 0;
+  if (frames_) {
+    step = 0;
+  } else if (rows_.size() > 1) {
+    std::vector<time_ns> d;
+    for (std::size_t k = 1; k < rows_.size(); ++k)
+      d.push_back(rows_[k].time - rows_[k - 1].time);
+    step = quantile(d, 0.5);
+  }
+  s.scores.assign(s.names.size(), {});
+  for (std::size_t k = 0; k < rows_.size(); ++k) {
+    const raw_row& r = rows_[k];
+    bool gap = false;
+    if (k > 0) {
+      const raw_row& p = rows_[k - 1];
+      gap = frames_ ? r.frame - p.frame > 1 : 2 * (r.time - p.time) > 3 * step;
+      if (gap) {
+        out_.diagnostics.push_back(make_diagnostic(
+            severity::warning, "derive.missing", r.offset,
+            (frames_
+                 ? "frames " + std::to_string(p.frame + 1) + " to " + std::to_string(r.frame - 1)
+                 : "rows between " + format_seconds(p.time) + " s and " + format_seconds(r.time) +
+                       " s") +
+                " are missing: no interval spans them, and no score is made up"));
+      }
+    }
+    s.times.push_back(r.time);
+    s.after_gap.push_back(gap);
+    for (std::size_t c = 0; c < s.names.size(); ++c)
+      s.scores[c].push_back(r.values[c]);
+  }
+  for (std::size_t k = 0; k < rows_.size(); ++k) {
+    const bool last = k + 1 == rows_.size() || s.after_gap[k + 1];
+    if (frames_)
+      s.ends.push_back(frame_time(rows_[k].frame + 1, *options_.rate).value);
+    else
+      s.ends.push_back(last ? rows_[k].time + step : rows_[k + 1].time);
+  }
+}
+
+}  // namespace
+
+signal_result read_signal(std::string_view text, signal_format format,
+                          const signal_options& options) {
+  signal_result out;
+  signal_reader reader(text, options, out);
+  if (format == signal_format::jsonl)
+    reader.read_lines();
+  else
+    reader.read_table(format == signal_format::tsv ? '\t' : ',');
+  reader.finish();
+  return out;
+}
+
+}  // namespace tiers

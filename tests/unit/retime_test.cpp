@@ -1,0 +1,67 @@
+// Re-timing captions: cues onto their words, neighbours' shifts, the caption rules after.
+#include <catch2/catch.hpp>
+
+#include "tiers/retime.hpp"
+
+using namespace tiers;
+
+namespace {
+
+annotation ann(time_ns start, time_ns end, std::string text) {
+  annotation a;
+  a.start = start;
+  a.end = end;
+  a.text = std::move(text);
+  return a;
+}
+
+constexpr time_ns ms = 1'000'000;
+
+}  // namespace
+
+TEST_CASE("cues move onto their words; unmatched ones follow their neighbours", "[retime]") {
+  tier words, cues;
+  const char* said[] = {"one", "two", "three", "four", "five", "six", "seven", "eight"};
+  for (int k = 0; k < 8; ++k)
+    words.annotations.push_back(ann(1000 * ms + k * 500 * ms, 1400 * ms + k * 500 * ms, said[k]));
+  // Each cue shown 2.5 s late; the third says something nobody said.
+  cues.annotations.push_back(ann(3500 * ms, 4400 * ms, "One two"));
+  cues.annotations.push_back(ann(4500 * ms, 5400 * ms, "three four"));
+  cues.annotations.push_back(ann(5500 * ms, 6400 * ms, "(applause)"));
+  cues.annotations.push_back(ann(6500 * ms, 7400 * ms, "seven eight"));
+  const retime_result r = retime_captions(cues, words);
+  REQUIRE(r.moves.size() == 4);
+  CHECK(r.captions.annotations[0].start == 1000 * ms);
+  CHECK(r.captions.annotations[0].end == 1900 * ms);
+  CHECK(r.moves[2].how == cue_move::basis::neighbours);
+  CHECK(r.captions.annotations[2].start == 3000 * ms);  // shifted by the neighbours' −2.5 s
+  CHECK(r.captions.annotations[3].start == 4000 * ms);
+}
+
+TEST_CASE("overlaps and short gaps: the shared boundary moves, split evenly", "[retime]") {
+  tier words, cues;
+  // Two sentences spoken without a pause: the second cue would start as the first ends.
+  const char* said[] = {"we", "planted", "beans", "then", "came", "rain"};
+  for (int k = 0; k < 6; ++k)
+    words.annotations.push_back(ann(k * 400 * ms, (k + 1) * 400 * ms, said[k]));
+  cues.annotations.push_back(ann(3000 * ms, 4000 * ms, "We planted beans."));
+  cues.annotations.push_back(ann(4200 * ms, 5400 * ms, "Then came rain."));
+  retime_options o;
+  o.min_gap = 80 * ms;
+  o.min_duration = 500 * ms;
+  const retime_result r = retime_captions(cues, words, o);
+  // Words end at 1.2 s and the next start at 1.2 s: 80 ms are needed, 40 ms from each side.
+  CHECK(r.captions.annotations[0].end == 1160 * ms);
+  CHECK(r.captions.annotations[1].start == 1240 * ms);
+  CHECK(r.moves[0].adjusted.find("earlier") != std::string::npos);
+  CHECK(r.moves[1].unfixed.empty());
+}
+
+TEST_CASE("a cue too short grows into free time", "[retime]") {
+  tier words, cues;
+  words.annotations.push_back(ann(1000 * ms, 1200 * ms, "yes"));
+  cues.annotations.push_back(ann(3000 * ms, 3300 * ms, "Yes."));
+  const retime_result r = retime_captions(cues, words);
+  CHECK(r.captions.annotations[0].start == 1000 * ms);
+  CHECK(r.captions.annotations[0].end == 1000 * ms + 833'333'333);
+}

@@ -1,0 +1,26 @@
+// `tiers derive`: per-frame detector scores to interval tiers.
+#pragma once
+
+#include <CLI/CLI.hpp>
+#include <string>
+
+#include "cli_common.hpp"
+
+namespace tiers::cli {
+
+struct derive_options_cli {
+  std::string path, output, to, from, rate, scores;
+  double on = 0.5;
+  std::optional<double> off;
+  std::string min_duration = "0", bridge = "0";
+  std::size_t smooth = 1;
+  std::string confidence = "mean";
+  std::string agent, agent_version;
+  bool allow_loss = false;
+};
+
+/// Adds the subcommand to `app`; its options land in `options`.
+CLI::App* setup_derive(CLI::App& app, derive_options_cli& options);
+int run_derive(const derive_options_cli& options);
+
+}  // namespace tiers::cli

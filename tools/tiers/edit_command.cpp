@@ -1,0 +1,137 @@
+// `tiers edit IN -o OUT [--shift D] [--scale FROM:TO] [--snap RATE] [--cut A..B [--rebase]]
+// [--select T] [--drop T] [--rename OLD=NEW]`: each operation in the order given.
+#include "edit_command.hpp"
+
+#include <map>
+
+#include "tiers/detail/report.hpp"
+#include "tiers/edit.hpp"
+
+namespace tiers::cli {
+
+CLI::App* setup_edit(CLI::App& app, edit_options& o) {
+  CLI::App* cmd = app.add_subcommand(
+      "edit", "Shift, scale, snap and cut times, and select, drop or rename tiers, in order");
+  cmd->add_option("input", o.input.path, "Input file, or - for standard input")
+      ->required()
+      ->type_name("FILE");
+  cmd->add_option("--shift", o.shifts, "Add an offset to every time: 1.5s, -250ms")
+      ->allow_extra_args(false)
+      ->type_name("OFFSET");
+  cmd->add_option("--scale", o.scales,
+                  "Material timed at one frame rate played at another: 25:24000/1001")
+      ->allow_extra_args(false)
+      ->type_name("FROM:TO");
+  cmd->add_option("--snap", o.snaps, "Move every time to the nearest frame boundary at RATE")
+      ->allow_extra_args(false)
+      ->type_name("RATE");
+  cmd->add_option("--cut", o.cuts,
+                  "Keep what lies between two times (seconds or clock time): 60..90, "
+                  "00:01:00..00:01:30")
+      ->allow_extra_args(false)
+      ->type_name("START..END");
+  cmd->add_flag("--rebase", o.rebase, "A cut's start becomes zero");
+  cmd->add_option("--select", o.selects, "Keep this tier (repeatable; the others go)")
+      ->allow_extra_args(false)
+      ->type_name("TIER");
+  cmd->add_option("--drop", o.drops, "Remove this tier")
+      ->allow_extra_args(false)
+      ->type_name("TIER");
+  cmd->add_option("--rename", o.renames, "Rename a tier")
+      ->allow_extra_args(false)
+      ->type_name("OLD=NEW");
+  add_input_options(*cmd, o.input);
+  o.command = cmd;
+  add_output_options(*cmd, o.output, o.to, o.allow_loss);
+  return cmd;
+}
+
+namespace {
+
+time_ns time_option(const std::string& option, std::string_view text) {
+  const bool negative = !text.empty() && text[0] == '-';
+  const std::string_view body = negative ? text.substr(1) : text;
+  const parsed_time t =
+      body.find(':') != std::string_view::npos ? parse_clock(body) : parse_seconds(body);
+  if (!t || body.empty())
+    throw usage_error(option + ": '" + std::string(text) +
+                      "' is not a time (seconds, or clock time such as 00:01:30.5)");
+  return negative ? -t.value : t.value;
+}
+
+}  // namespace
+
+int run_edit(const edit_options& o) {
+  const format& to = output_format(o.to, o.output);
+  document doc = load_document(o.input);
+  const std::string file = display_name(o.input.path);
+  std::map<const CLI::Option*, std::size_t> used;  // how many values of each option are done
+  std::vector<std::string> selected;  // consecutive --select options make one selection
+  auto fail = [&](const std::string& name, const std::string& problem) {
+    diagnostic d;
+    d.file = file;
+    d.code =
+        name == "--shift" || name == "--scale" || name == "--snap" ? "time.range" : "edit.tier";
+    d.message = name + ": " + problem;
+    report(d);
+    return exit_rejected;
+  };
+  auto flush_selection = [&]() -> std::optional<std::string> {
+    if (selected.empty()) return std::nullopt;
+    auto problem = select_tiers(doc, selected);
+    selected.clear();
+    return problem;
+  };
+  for (const CLI::Option* opt : o.command->parse_order()) {
+    const std::string name = opt->get_name();
+    const std::size_t k = used[opt]++;
+    if (name == "--select") {
+      selected.push_back(o.selects[k]);
+      continue;
+    }
+    if (auto problem = flush_selection()) return fail("--select", *problem);
+    std::optional<std::string> problem;
+    if (name == "--shift") {
+      problem =
+          shift_times(doc, parse_duration_option("--shift", o.shifts[k], duration_kind::offset));
+    } else if (name == "--scale") {
+      const std::string& v = o.scales[k];
+      const std::size_t colon = v.find(':');
+      if (colon == std::string::npos)
+        throw usage_error("--scale: expected FROM:TO, got '" + v + "'");
+      problem = scale_times(doc, parse_rate_option(v.substr(0, colon)),
+                            parse_rate_option(v.substr(colon + 1)));
+    } else if (name == "--snap") {
+      problem = snap_times(doc, parse_rate_option(o.snaps[k]));
+    } else if (name == "--cut") {
+      const std::string& v = o.cuts[k];
+      const std::size_t dots = v.find("..");
+      if (dots == std::string::npos)
+        throw usage_error("--cut: expected START..END, got '" + v + "'");
+      problem = cut_times(doc, time_option("--cut", std::string_view(v).substr(0, dots)),
+                          time_option("--cut", std::string_view(v).substr(dots + 2)), o.rebase);
+    } else if (name == "--drop") {
+      problem = drop_tier(doc, o.drops[k]);
+    } else if (name == "--rename") {
+      const std::string& v = o.renames[k];
+      const std::size_t eq = v.find('=');
+      if (eq == std::string::npos || eq == 0 || eq + 1 == v.size())
+        throw usage_error("--rename: expected OLD=NEW, got '" + v + "'");
+      problem = rename_tier(doc, v.substr(0, eq), v.substr(eq + 1));
+    }
+    if (name != "--select") selected.clear();
+    if (problem) {
+      diagnostic d;
+      d.file = file;
+      d.code =
+          name == "--shift" || name == "--scale" || name == "--snap" ? "time.range" : "edit.tier";
+      d.message = name + ": " + *problem;
+      report(d);
+      return exit_rejected;
+    }
+  }
+  write_output(doc, to, o.output, o.allow_loss, file);
+  return exit_ok;
+}
+
+}  // namespace tiers::cli

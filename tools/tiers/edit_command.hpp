@@ -1,0 +1,25 @@
+// `tiers edit`: time and tier operations, in the order given.
+#pragma once
+
+#include <CLI/CLI.hpp>
+#include <string>
+#include <vector>
+
+#include "cli_common.hpp"
+
+namespace tiers::cli {
+
+struct edit_options {
+  input_options input;
+  std::string output, to;
+  std::vector<std::string> shifts, scales, snaps, cuts, selects, drops, renames;
+  bool rebase = false;
+  bool allow_loss = false;
+  const CLI::App* command = nullptr;  ///< for the order the operations were given in
+};
+
+/// Adds the subcommand to `app`; its options land in `options`.
+CLI::App* setup_edit(CLI::App& app, edit_options& options);
+int run_edit(const edit_options& options);
+
+}  // namespace tiers::cli

@@ -1,0 +1,201 @@
+// `tiers retime CAPTIONS --words WORDS -o OUT [--lead-in D] [--hold D] [--json]`.
+#include "retime_command.hpp"
+
+#include <fmt/format.h>
+
+#include "text_table.hpp"
+#include "tiers/detail/json_text.hpp"
+#include "tiers/detail/report.hpp"
+#include "tiers/io.hpp"
+#include "tiers/profile.hpp"
+#include "tiers/retime.hpp"
+
+namespace tiers::cli {
+
+CLI::App* setup_retime(CLI::App& app, retime_options_cli& o) {
+  CLI::App* cmd = app.add_subcommand("retime", "Move caption cues onto their words' timings");
+  cmd->add_option("captions", o.input.path, "The caption file, or - for standard input")
+      ->required()
+      ->type_name("FILE");
+  cmd->add_option("--words", o.words, "The word timings: a tier of the file, or FILE[:TIER]")
+      ->required()
+      ->type_name("TIER|FILE[:TIER]");
+  cmd->add_option("--captions", o.captions,
+                  "The caption tier (default: the file's only tier, "
+                  "or the profile's)")
+      ->type_name("TIER");
+  cmd->add_option("--lead-in", o.lead_in, "A cue starts this long before its first word (0)")
+      ->type_name("DURATION");
+  cmd->add_option("--hold", o.hold, "and ends this long after its last word (0)")
+      ->type_name("DURATION");
+  cmd->add_option("--min-gap", o.min_gap,
+                  "Least gap between cues (default: the profile's, else 2 frames)")
+      ->type_name("DURATION");
+  cmd->add_option("--min-duration", o.min_duration,
+                  "Least duration of a cue (default: the profile's, else 5/6 s)")
+      ->type_name("DURATION");
+  cmd->add_option("--profile", o.profile, "Take the caption rules from this check profile")
+      ->type_name("PROFILE");
+  cmd->add_flag("--json", o.json, "Print the report as JSON");
+  add_input_options(*cmd, o.input);
+  add_output_options(*cmd, o.output, o.to, o.allow_loss);
+  return cmd;
+}
+
+namespace {
+
+using detail::quote_name;
+
+std::string_view basis_name(cue_move::basis b) {
+  switch (b) {
+    case cue_move::basis::words:
+      return "words";
+    case cue_move::basis::neighbours:
+      return "neighbours";
+    case cue_move::basis::unchanged:
+      return "unchanged";
+  }
+  return "unchanged";
+}
+
+std::string signed_seconds(time_ns t) {
+  return (t < 0 ? "-" : "+") + format_seconds(t < 0 ? -t : t);
+}
+
+std::string json_report(const retime_result& r, const tier& before) {
+  std::string text;
+  string_sink out(text);
+  out.write("{\"cues\": [");
+  std::size_t by_words = 0, by_neighbours = 0, unchanged = 0, unfixed = 0;
+  for (std::size_t k = 0; k < r.moves.size(); ++k) {
+    const cue_move& m = r.moves[k];
+    by_words += m.how == cue_move::basis::words;
+    by_neighbours += m.how == cue_move::basis::neighbours;
+    unchanged += m.how == cue_move::basis::unchanged;
+    unfixed += !m.unfixed.empty();
+    out.write(k ? ",\n  {" : "\n  {");
+    detail::json_members j(out);
+    j.count("cue", m.cue);
+    if (const auto& id = before.annotations[m.cue].id) j.string("id", *id);
+    j.seconds("old_start", m.old_start);
+    j.seconds("old_end", m.old_end);
+    j.seconds("new_start", m.new_start);
+    j.seconds("new_end", m.new_end);
+    j.seconds("start_moved", m.new_start - m.old_start);
+    j.seconds("end_moved", m.new_end - m.old_end);
+    j.string("basis", basis_name(m.how));
+    j.count("words", m.words);
+    if (!m.adjusted.empty()) j.string("adjusted", m.adjusted);
+    if (!m.unfixed.empty()) j.string("unfixed", m.unfixed);
+    out.put('}');
+  }
+  out.write("],\n \"summary\": {");
+  detail::json_members s(out);
+  s.count("cues", r.moves.size());
+  s.count("by_words", by_words);
+  s.count("by_neighbours", by_neighbours);
+  s.count("unchanged", unchanged);
+  s.count("unfixed", unfixed);
+  out.write("}}\n");
+  out.flush();
+  return text;
+}
+
+std::string text_report(const retime_result& r, const tier& before) {
+  text_table table({">cue", "id", ">was", ">now", ">moved", "basis", ">words", "notes"});
+  std::size_t by_words = 0, by_neighbours = 0, unfixed = 0;
+  time_ns largest = 0;
+  for (const cue_move& m : r.moves) {
+    by_words += m.how == cue_move::basis::words;
+    by_neighbours += m.how == cue_move::basis::neighbours;
+    unfixed += !m.unfixed.empty();
+    largest = std::max(largest, std::abs(m.new_start - m.old_start));
+    std::string notes = m.adjusted;
+    if (!m.unfixed.empty()) notes += (notes.empty() ? "" : "; ") + ("NOT FIXED: " + m.unfixed);
+    table.add_row({std::to_string(m.cue + 1), before.annotations[m.cue].id.value_or("-"),
+                   format_clock(m.old_start), format_clock(m.new_start),
+                   signed_seconds(m.new_start - m.old_start) + " s", std::string(basis_name(m.how)),
+                   std::to_string(m.words), notes});
+  }
+  return table.render() +
+         fmt::format(
+             "\n{} cues: {} onto their words, {} by their neighbours' shift, {} left as "
+             "they were; {} not fixed; the largest move {} s\n",
+             r.moves.size(), by_words, by_neighbours, r.moves.size() - by_words - by_neighbours,
+             unfixed, format_seconds(largest));
+}
+
+}  // namespace
+
+int run_retime(const retime_options_cli& o) {
+  const format& to = output_format(o.to, o.output);
+  profile p;
+  if (!o.profile.empty()) {
+    profile_result r = load_profile(o.profile);
+    for (const diagnostic& d : r.diagnostics)
+      report(d);
+    if (!r.ok()) return exit_rejected;
+    p = std::move(r.value);
+  }
+  document doc = load_document(o.input);
+  const std::string file = display_name(o.input.path);
+
+  std::string caption_name = !o.captions.empty() ? o.captions : p.captions.value_or("");
+  if (caption_name.empty()) {
+    if (doc.tiers.empty() || (doc.tiers.size() > 1 && !doc.tiers[1].name.ends_with(".words")))
+      throw usage_error(file + " has " + std::to_string(doc.tiers.size()) +
+                        " tiers; name the captions with --captions");
+    caption_name = doc.tiers.front().name;
+  }
+  tier* captions = find_tier(doc, caption_name);
+  std::optional<std::string> words_tier;
+  std::optional<words_file> other = words_file_of(o.words, o.input, words_tier);
+  const document& wdoc = other ? other->doc : doc;
+  if (other) words_tier = other->tier;
+  const tier* words = nullptr;
+  if (words_tier)
+    words = find_tier(wdoc, *words_tier);
+  else if (wdoc.tiers.size() == 1)
+    words = &wdoc.tiers.front();
+  else
+    words = find_tier(wdoc, "words");
+  for (auto [missing, what] :
+       {std::pair{captions == nullptr, "captions " + quote_name(caption_name)},
+        std::pair{words == nullptr, std::string("word timings")}})
+    if (missing) {
+      diagnostic d;
+      d.file = file;
+      d.code = "retime.tier";
+      d.message = "no tier of " + what + " (name it with --captions or --words FILE:TIER)";
+      report(d);
+      return exit_rejected;
+    }
+
+  retime_options ro;
+  ro.lead_in = parse_duration_option("--lead-in", o.lead_in);
+  ro.hold = parse_duration_option("--hold", o.hold);
+  ro.min_gap = o.min_gap.empty()
+                   ? p.limits.min_gap.at(doc.media.frame_rate.value_or(p.limits.frame_rate))
+                   : parse_duration_option("--min-gap", o.min_gap);
+  ro.min_duration = o.min_duration.empty()
+                        ? p.limits.min_duration
+                        : parse_duration_option("--min-duration", o.min_duration);
+  ro.window = p.limits.window;
+  const tier before = *captions;
+  retime_result r = retime_captions(before, *words, ro);
+  *captions = std::move(r.captions);
+  write_output(doc, to, o.output, o.allow_loss, file);
+
+  const std::string report_text = o.json ? json_report(r, before) : text_report(r, before);
+  // The report goes to standard output, unless the document does.
+  if (o.output == "-")
+    std::fputs(report_text.c_str(), stderr);
+  else {
+    stdout_sink out;
+    out.write(report_text);
+    out.flush();
+  }
+  return exit_ok;
+}
+
+}  // namespace tiers::cli

@@ -1,0 +1,23 @@
+// `tiers retime`: caption cues moved onto their words.
+#pragma once
+
+#include <CLI/CLI.hpp>
+#include <string>
+
+#include "cli_common.hpp"
+
+namespace tiers::cli {
+
+struct retime_options_cli {
+  input_options input;
+  std::string output, to, captions, words, profile;
+  std::string lead_in = "0", hold = "0", min_gap, min_duration;
+  bool json = false;
+  bool allow_loss = false;
+};
+
+/// Adds the subcommand to `app`; its options land in `options`.
+CLI::App* setup_retime(CLI::App& app, retime_options_cli& options);
+int run_retime(const retime_options_cli& options);
+
+}  // namespace tiers::cli
