@@ -65,3 +65,25 @@ TEST_CASE("a cue too short grows into free time", "[retime]") {
   CHECK(r.captions.annotations[0].start == 1000 * ms);
   CHECK(r.captions.annotations[0].end == 1000 * ms + 833'333'333);
 }
+
+TEST_CASE("children inside a cue move with it", "[retime]") {
+  document d;
+  tier& cues = d.tiers.emplace_back();
+  cues.name = "captions";
+  cues.annotations.push_back(ann(3000 * ms, 5000 * ms, "Good evening"));
+  tier& inline_words = d.tiers.emplace_back();
+  inline_words.name = "captions.words";
+  inline_words.parent = parent_link{"captions", relation::within};
+  inline_words.annotations.push_back(ann(3000 * ms, 3800 * ms, "Good"));
+  inline_words.annotations.push_back(ann(3800 * ms, 5000 * ms, "evening"));
+  tier words;
+  words.annotations.push_back(ann(1000 * ms, 1300 * ms, "good"));
+  words.annotations.push_back(ann(1350 * ms, 1900 * ms, "evening"));
+  const retime_result r = retime_captions(d.tiers[0], words);
+  d.tiers[0] = r.captions;
+  move_children(d, "captions", r);
+  // Shifted by the cue's −2 s, and kept inside its new span (1 s to 1.9 s).
+  CHECK(d.tiers[1].annotations[0].start == 1000 * ms);
+  CHECK(d.tiers[1].annotations[0].end == 1800 * ms);
+  CHECK(d.tiers[1].annotations[1].end == 1900 * ms);
+}

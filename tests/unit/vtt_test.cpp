@@ -299,6 +299,25 @@ TEST_CASE("vtt writer sorts cues, escapes text and reports what it cannot keep",
   CHECK(losses == expected);
 }
 
+TEST_CASE("vtt writer: markup whose inline timestamps left the cue is not written",
+          "[vtt][writer]") {
+  // WebVTT §4.2.2: a cue's timestamps lie strictly between its start and end. A cue moved
+  // after its markup was written (say, re-timed) cannot keep that markup as it is.
+  document doc;
+  tier& c = doc.tiers.emplace_back();
+  c.name = "cap";
+  annotation a;
+  a.start = 10 * ns_per_second;
+  a.end = 12 * ns_per_second;
+  a.text = "one two";
+  a.markup = "one <00:00:01.500>two";
+  c.annotations = {a};
+  const std::vector<std::string> losses = find_losses(doc, *find_format("vtt"));
+  REQUIRE(losses.size() == 1);
+  CHECK(losses[0].find("markup whose inline timestamps lie outside its cue") != std::string::npos);
+  CHECK(write_as("vtt", doc) == "WEBVTT\n\n00:00:10.000 --> 00:00:12.000\none two\n");
+}
+
 TEST_CASE("vtt with invalid UTF-8 is decoded with replacement, as the specification says",
           "[vtt][utf8]") {
   const read_result r = read_document("WEBVTT\n\n00:00.000 --> 00:01.000\ncaf\xE9 \xF0\x9F\n",

@@ -183,7 +183,8 @@ int run_retime(const retime_options_cli& o) {
   ro.window = p.limits.window;
   const tier before = *captions;
   retime_result r = retime_captions(before, *words, ro);
-  *captions = std::move(r.captions);
+  *captions = r.captions;
+  move_children(doc, caption_name, r);
   write_output(doc, to, o.output, o.allow_loss, file);
 
   const std::string report_text = o.json ? json_report(r, before) : text_report(r, before);

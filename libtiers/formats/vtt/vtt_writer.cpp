@@ -222,8 +222,15 @@ vtt_plan plan(const document& doc) {
         a.markup->find('\0') == std::string::npos && a.markup->find("-->") == std::string::npos &&
         parsed.plain == a.text &&
         (speaker == a.attributes.end() ? !parsed.voice : parsed.voice == speaker->second);
-    if (ok)
+    // Inline timestamps must lie strictly inside their cue (§4.2.2); a cue moved since its
+    // markup was written has stale ones, and the markup cannot be written as it is.
+    const bool inside =
+        std::all_of(parsed.stamps.begin(), parsed.stamps.end(),
+                    [&](const cue_text::stamp& s) { return s.time > a.start && s.time < a.end; });
+    if (ok && inside)
       markup[k] = std::move(parsed);
+    else if (ok)
+      problem("markup whose inline timestamps lie outside its cue");
     else
       problem("markup that no longer matches the text or speaker");
   }

@@ -48,4 +48,9 @@ struct retime_result {
 retime_result retime_captions(const tier& captions, const tier& words,
                               const retime_options& options = {});
 
+/// Carries the child tiers of `captions` (relation `within`, such as WebVTT inline word
+/// timestamps) along with their cues: an annotation inside a cue's old span moves by the cue's
+/// start shift, kept inside the cue's new span.
+void move_children(document& doc, const std::string& captions, const retime_result& r);
+
 }  // namespace tiers

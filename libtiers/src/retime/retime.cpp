@@ -120,4 +120,26 @@ retime_result retime_captions(const tier& captions, const tier& words,
   return out;
 }
 
+void move_children(document& doc, const std::string& captions, const retime_result& r) {
+  std::vector<const cue_move*> by_old(r.moves.size());
+  for (std::size_t k = 0; k < r.moves.size(); ++k)
+    by_old[k] = &r.moves[k];
+  std::stable_sort(by_old.begin(), by_old.end(), [](const cue_move* a, const cue_move* b) {
+    return a->old_start < b->old_start;
+  });
+  for (tier& t : doc.tiers) {
+    if (!t.parent || t.parent->tier != captions || t.parent->rel != relation::within) continue;
+    for (annotation& a : t.annotations) {
+      auto it = std::upper_bound(by_old.begin(), by_old.end(), a.start,
+                                 [](time_ns v, const cue_move* m) { return v < m->old_start; });
+      if (it == by_old.begin()) continue;
+      const cue_move& m = **(it - 1);
+      if (a.end > m.old_end) continue;  // not inside this cue: left as it is
+      const time_ns shift = m.new_start - m.old_start;
+      a.start = std::clamp(a.start + shift, m.new_start, m.new_end);
+      a.end = std::clamp(a.end + shift, a.start, m.new_end);
+    }
+  }
+}
+
 }  // namespace tiers
