@@ -1,109 +1,47 @@
-// The located JSON tree: nlohmann's SAX events, each value stamped with its byte offset.
+// The located JSON tree: the JSON scanner's events, each value stamped with its byte offset.
 #include "json_tree.hpp"
 
 #include <algorithm>
 #include <charconv>
 
-#include "json_sax.hpp"
+#include "json_scan.hpp"
 #include "tiers/detail/report.hpp"
 
 namespace tiers::detail {
 namespace {
 
-using json = nlohmann::json;
-
-class tree_builder final : public nlohmann::json_sax<json> {
+// Builds the tree from the scanner's events; objects and arrays wait on a stack until closed.
+class tree_builder {
  public:
-  tree_builder(std::string_view input, std::size_t& consumed, std::size_t max_depth,
-               std::vector<diagnostic>& problems)
-      : input_(input), consumed_(consumed), max_depth_(max_depth), problems_(problems) {}
+  explicit tree_builder(std::vector<diagnostic>& problems) : problems_(problems) {}
 
-  bool null() override { return add(leaf(json_node::type::null)); }
-  bool boolean(bool v) override {
-    json_node n = leaf(json_node::type::boolean);
+  bool on_null(std::size_t at) { return add(leaf(json_node::type::null, at)); }
+  bool on_bool(bool v, std::size_t at) {
+    json_node n = leaf(json_node::type::boolean, at);
     n.boolean = v;
     return add(std::move(n));
   }
-  bool number_integer(number_integer_t v) override { return number(std::to_string(v)); }
-  bool number_unsigned(number_unsigned_t v) override { return number(std::to_string(v)); }
-  bool number_float(number_float_t, const string_t& text) override { return number(text); }
-  bool string(string_t& v) override {
-    json_node n = leaf(json_node::type::string);
-    // The parser has read the closing quote; the value starts at its opening one.
-    n.offset = opening_quote();
+  bool on_number(std::string_view text, std::size_t at) {
+    json_node n = leaf(json_node::type::number, at);
+    n.text = text;  // as written, so that `1.10` reads as exactly as the user wrote it
+    return add(std::move(n));
+  }
+  bool on_string(std::string& v, std::size_t at) {
+    json_node n = leaf(json_node::type::string, at);
     n.text = std::move(v);
     return add(std::move(n));
   }
-  bool binary(binary_t&) override { return fail("json.syntax", here(), "binary values"); }
-  bool start_object(std::size_t) override { return open(json_node::type::object); }
-  bool end_object() override { return close(); }
-  bool start_array(std::size_t) override { return open(json_node::type::array); }
-  bool end_array() override { return close(); }
-  bool key(string_t& k) override {
+  bool on_start_object(std::size_t at) { return open(json_node::type::object, at); }
+  bool on_start_array(std::size_t at) { return open(json_node::type::array, at); }
+  bool on_end_object(std::size_t) { return close(); }
+  bool on_end_array(std::size_t) { return close(); }
+  bool on_key(std::string& k, std::size_t at) {
     json_node& o = stack_.back();
     for (const std::string& existing : o.keys)
-      if (existing == k)
-        return fail("json.duplicate", opening_quote(), "duplicate key " + quote_name(k));
+      if (existing == k) return fail("json.duplicate", at, "duplicate key " + quote_name(k));
     o.keys.push_back(std::move(k));
-    o.key_offsets.push_back(opening_quote());
+    o.key_offsets.push_back(at);
     return true;
-  }
-  bool parse_error(std::size_t, const std::string&,
-                   const nlohmann::detail::exception& ex) override {
-    const std::string what = parse_error_text(ex);
-    return fail("json.syntax", parse_error_offset(what, consumed_, input_.size()),
-                "invalid JSON: " + what);
-  }
-
-  std::optional<json_node> root;
-  bool failed = false;
-
- private:
-  std::size_t here() const { return consumed_ > 0 ? consumed_ - 1 : 0; }
-  std::size_t opening_quote() const { return detail::opening_quote(input_, here()); }
-  json_node leaf(json_node::type t) const {
-    json_node n;
-    n.kind = t;
-    n.offset = here();
-    return n;
-  }
-  bool number(std::string text) {
-    json_node n = leaf(json_node::type::number);
-    // The parser has read the number and, unless the input ended, the byte after it.
-    auto in_number = [](char c) {
-      return (c >= '0' && c <= '9') || c == '-' || c == '+' || c == '.' || c == 'e' || c == 'E';
-    };
-    std::size_t at = std::min(here(), input_.size() - 1);
-    if (at > 0 && !in_number(input_[at])) --at;
-    while (at > 0 && in_number(input_[at - 1]))
-      --at;
-    n.offset = at;
-    std::size_t end = at;
-    while (end < input_.size() && in_number(input_[end]))
-      ++end;
-    // The number as written, so that `1.10` reads as exactly as the user wrote it.
-    n.text = end > at ? std::string(input_.substr(at, end - at)) : std::move(text);
-    return add(std::move(n));
-  }
-  bool add(json_node n) {
-    if (stack_.empty()) {
-      root = std::move(n);
-      return true;
-    }
-    stack_.back().items.push_back(std::move(n));
-    return true;
-  }
-  bool open(json_node::type t) {
-    if (stack_.size() >= max_depth_)
-      return fail("json.depth", here(),
-                  "values nest deeper than " + std::to_string(max_depth_) + " levels");
-    stack_.push_back(leaf(t));
-    return true;
-  }
-  bool close() {
-    json_node n = std::move(stack_.back());
-    stack_.pop_back();
-    return add(std::move(n));
   }
   bool fail(std::string code, std::size_t offset, std::string message) {
     if (!failed)
@@ -113,9 +51,34 @@ class tree_builder final : public nlohmann::json_sax<json> {
     return false;
   }
 
-  std::string_view input_;
-  std::size_t& consumed_;
-  std::size_t max_depth_;
+  std::optional<json_node> root;
+  bool failed = false;
+
+ private:
+  static json_node leaf(json_node::type t, std::size_t at) {
+    json_node n;
+    n.kind = t;
+    n.offset = at;
+    return n;
+  }
+  bool add(json_node n) {
+    if (stack_.empty()) {
+      root = std::move(n);
+      return true;
+    }
+    stack_.back().items.push_back(std::move(n));
+    return true;
+  }
+  bool open(json_node::type t, std::size_t at) {
+    stack_.push_back(leaf(t, at));
+    return true;
+  }
+  bool close() {
+    json_node n = std::move(stack_.back());
+    stack_.pop_back();
+    return add(std::move(n));
+  }
+
   std::vector<diagnostic>& problems_;
   std::vector<json_node> stack_;
 };
@@ -148,18 +111,11 @@ std::string_view type_name(json_node::type t) {
 
 std::optional<json_node> parse_json_tree(std::string_view text, std::vector<diagnostic>& problems,
                                          std::size_t max_depth) {
-  const std::size_t bom = text.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0;
-  std::size_t consumed = bom;
-  tree_builder b(text, consumed, max_depth, problems);
-  counting_iterator first{text.data() + bom, &consumed};
-  counting_iterator last{text.data() + text.size(), &consumed};
-  const bool ok = json::sax_parse(first, last, &b, json::input_format_t::json, true);
-  if (!ok || b.failed || !b.root) {
-    if (!b.failed)
-      problems.push_back(
-          make_diagnostic(severity::error, "json.syntax", text.size(), "invalid JSON"));
-    return std::nullopt;
-  }
+  tree_builder b(problems);
+  if (auto e = scan_json(text, b, max_depth))
+    b.fail(e->message.find("nest deeper") != std::string::npos ? "json.depth" : "json.syntax",
+           e->offset, "invalid JSON: " + e->message);
+  if (b.failed || !b.root) return std::nullopt;
   return std::move(b.root);
 }
 

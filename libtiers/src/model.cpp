@@ -1,9 +1,30 @@
 // Names of the model's enumerations and tier look-up.
 #include "tiers/model.hpp"
 
+#include <stdexcept>
+
 #include <algorithm>
 
 namespace tiers {
+
+attribute_map::map_type& attribute_map::none() {
+  static map_type empty;
+  return empty;
+}
+
+const std::string& attribute_map::at(std::string_view key) const {
+  const auto it = find(key);
+  if (it == end()) throw std::out_of_range("attribute_map::at: no key " + std::string(key));
+  return it->second;
+}
+
+std::size_t attribute_map::erase(std::string_view key) {
+  if (!map_) return 0;
+  const auto it = map_->find(key);
+  if (it == map_->end()) return 0;
+  map_->erase(it);
+  return 1;
+}
 
 const tier* find_tier(const document& doc, std::string_view name) {
   auto it = std::find_if(doc.tiers.begin(), doc.tiers.end(),

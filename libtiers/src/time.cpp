@@ -7,6 +7,7 @@
 #include <cstdio>
 #include <limits>
 #include <numeric>
+#include <optional>
 
 namespace tiers {
 namespace {
@@ -30,7 +31,36 @@ parsed_time fail(time_status s) {
 // A decimal number `[-+]digits[.digits][e[-+]digits]` (either digit run may be empty, not both),
 // scaled by 10^scale and rounded to an integer. Works digit by digit, so that a number with
 // thousands of digits is neither slow to reject nor silently rounded through a double.
+// The common case, `[-]digits[.digits]` with at most 9 integer digits and no more fraction
+// digits than the scale: exact in 64 bits, without the general path's bookkeeping.
+std::optional<parsed_time> parse_plain_decimal(std::string_view s, int scale) {
+  std::size_t i = 0;
+  const bool negative = !s.empty() && s[0] == '-';
+  if (negative) ++i;
+  std::int64_t whole = 0;
+  const std::size_t int_begin = i;
+  while (i < s.size() && is_digit(s[i]) && i - int_begin < 9)
+    whole = whole * 10 + (s[i++] - '0');
+  const std::size_t int_digits = i - int_begin;
+  std::int64_t frac = 0;
+  std::size_t frac_digits = 0;
+  if (i < s.size() && s[i] == '.') {
+    ++i;
+    while (i < s.size() && is_digit(s[i]) && frac_digits < static_cast<std::size_t>(scale)) {
+      frac = frac * 10 + (s[i++] - '0');
+      ++frac_digits;
+    }
+  }
+  if (i != s.size() || int_digits + frac_digits == 0) return std::nullopt;
+  static constexpr std::int64_t pow10[] = {1,      10,      100,      1000,      10000,
+                                           100000, 1000000, 10000000, 100000000, 1000000000};
+  std::int64_t value = whole * pow10[scale] + frac * pow10[scale - static_cast<int>(frac_digits)];
+  return ok(negative ? -value : value);
+}
+
 parsed_time parse_scaled_decimal(std::string_view s, int scale) {
+  if (scale <= 9)
+    if (const auto fast = parse_plain_decimal(s, scale)) return *fast;
   std::size_t i = 0;
   bool negative = false;
   if (i < s.size() && (s[i] == '-' || s[i] == '+')) negative = s[i++] == '-';

@@ -115,9 +115,10 @@ TEST_CASE("bad json is rejected with its location", "[json][bad-input]") {
        "json.value", 1, 45, "positive rational"},
       {"{\"format\": \"tiers\", \"version\": 1, \"tiers\": [{\"name\": \"t\", \"source\": {}}]}",
        "json.member", 1, 69, "source has no 'kind'"},
-      {"{\"format\": \"tiers\", \"version\": 1, \"tiers\": [\"t\"]}", "json.value", 1, 47,
+      {"{\"format\": \"tiers\", \"version\": 1, \"tiers\": [\"t\"]}", "json.value", 1, 45,
        "each tier must be an object"},
-      {"{\"format\": \"tiers\", \"version\": 1} trailing", "json.syntax", 1, 37, "invalid literal"},
+      {"{\"format\": \"tiers\", \"version\": 1} trailing", "json.syntax", 1, 35,
+       "unexpected text after the document"},
       {"{\"format\": \"t\xC3\xA9\", \"version\": 1}", "json.value", 1, 2, "not a tiers JSON"},
   };
   for (const row& r : rows) {
@@ -141,4 +142,40 @@ TEST_CASE("json nested a million levels deep is refused at the first level", "[j
   const diagnostic m = first_error("json", deep_meta);
   CHECK(m.code == "json.value");
   CHECK(m.column == 48);  // at the key whose value nests
+}
+
+TEST_CASE("the JSON scanner follows RFC 8259 and locates every mistake", "[json]") {
+  // RFC 8259 §6 (numbers), §7 (strings: escapes, control characters, surrogate pairs).
+  // Numbers stand as a start time, strings as a metadata value: both are accepted there, so
+  // that the scanner, not the reader, finds each mistake.
+  const std::string number_context =
+      "{\"format\": \"tiers\", \"version\": 1, \"tiers\": [{\"name\": \"t\", \"annotations\": "
+      "[{\"start\": ";
+  const std::string string_context =
+      "{\"format\": \"tiers\", \"version\": 1, \"metadata\": {\"k\": ";
+  struct row {
+    bool number;
+    const char* value;
+    std::size_t offset;  // from the value's first byte
+    const char* message;
+  };
+  for (const row& r :
+       {row{true, "01", 1, "expected ',' or '}'"}, row{true, "1.", 0, "invalid number"},
+        row{true, "-", 0, "invalid number"}, row{true, ".5", 0, "expected a value"},
+        row{true, "1e", 0, "invalid number"}, row{true, "tru", 0, "invalid literal"},
+        row{false, "\"a\tb\"", 2, "control character U+0009"},
+        row{false, "\"\\x\"", 1, "forbidden escape '\\x'"},
+        row{false, "\"\\u12\"", 1, "4 hex digits"}, row{false, "\"\\ud800\"", 1, "low surrogate"},
+        row{false, "\"\\udc00\"", 1, "low surrogate alone"}}) {
+    INFO(r.value);
+    const std::string& context = r.number ? number_context : string_context;
+    const diagnostic d = first_error("json", context + r.value + "}]}]}");
+    CHECK(d.code == "json.syntax");
+    CHECK(d.offset == context.size() + r.offset);
+    CHECK(d.message.find(r.message) != std::string::npos);
+  }
+  // What is well-formed reads as it should: escapes and a surrogate pair decoded.
+  const document doc = test::read_as(
+      "json", string_context + "\"\\\"\\\\\\/\\b\\f\\n\\r\\t\\u00e9\\ud83d\\ude00\"}}");
+  CHECK(doc.metadata.at("k") == "\"\\/\b\f\n\r\t\xC3\xA9\xF0\x9F\x98\x80");
 }

@@ -20,7 +20,7 @@ document restrict_to(document doc, const format& f) {
            std::find(f.own_keys.begin(), f.own_keys.end(), key) != f.own_keys.end();
   };
   auto keep_owned = [&](attribute_map& map) {
-    std::erase_if(map, [&](const auto& kv) { return !owned(kv.first); });
+    erase_if(map, [&](const auto& kv) { return !owned(kv.first); });
   };
   if (!fs.has(feature::media)) {
     doc.media.uri.reset();

@@ -39,9 +39,13 @@ std::string_view trim(std::string_view s) {
 
 parsed_time parse_time_cell(std::string_view text, const read_options& options) {
   text = trim(text);
-  const std::size_t colons = static_cast<std::size_t>(std::count(text.begin(), text.end(), ':'));
-  if (text.find(';') != std::string_view::npos || colons == 3)
-    return parse_timecode(text, options.rate);
+  std::size_t colons = 0;
+  bool semicolon = false;
+  for (char c : text) {
+    colons += c == ':';
+    semicolon = semicolon || c == ';';
+  }
+  if (semicolon || colons == 3) return parse_timecode(text, options.rate);
   if (colons > 0) return parse_clock(text);
   switch (options.unit) {
     case time_unit::milliseconds:

@@ -52,7 +52,7 @@ bool table_scanner::next(std::vector<table_cell>& cells, std::size_t& record_off
       }
     } else {
       const std::size_t begin = pos_;
-      while (pos_ < n && in_[pos_] != delim_ && in_[pos_] != '\n' && in_[pos_] != '\r')
+      while (pos_ < n && !ends_field_[static_cast<unsigned char>(in_[pos_])])
         ++pos_;
       cell.text = in_.substr(begin, pos_ - begin);
     }

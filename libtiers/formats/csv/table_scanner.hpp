@@ -1,6 +1,7 @@
 // Splits delimited text into records and fields (RFC 4180 quoting), with byte offsets.
 #pragma once
 
+#include <array>
 #include <cstddef>
 #include <string>
 #include <string_view>
@@ -23,7 +24,11 @@ struct table_cell {
 class table_scanner {
  public:
   table_scanner(std::string_view input, char delimiter, std::size_t start = 0)
-      : in_(input), delim_(delimiter), pos_(start) {}
+      : in_(input), delim_(delimiter), pos_(start) {
+    for (unsigned char c : {static_cast<unsigned char>(delimiter), static_cast<unsigned char>('\n'),
+                            static_cast<unsigned char>('\r')})
+      ends_field_[c] = true;
+  }
 
   /// Fills `cells` (resized to the record's field count) and returns true, or returns false at
   /// the end of input or on an error, which is then in `problem`.
@@ -36,6 +41,7 @@ class table_scanner {
   std::string_view in_;
   char delim_;
   std::size_t pos_;
+  std::array<bool, 256> ends_field_{};  ///< the delimiter and line breaks: one lookup a byte
 };
 
 }  // namespace tiers::detail

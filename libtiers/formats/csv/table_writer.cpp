@@ -63,7 +63,7 @@ void write_table(const document& doc, byte_sink& out, char delimiter, std::strin
     write_field(out, k, delimiter);
   }
   out.write(eol);
-  auto optional = [&](const std::optional<std::string>& v) {
+  auto optional = [&](const optional_text& v) {
     out.put(delimiter);
     if (v) write_field(out, *v, delimiter);
   };
@@ -109,7 +109,7 @@ void table_losses(const document& doc, std::vector<std::string>& losses) {
     if (!seen.insert(t.name).second) repeated.insert(t.name);
     std::size_t empty_values = 0, clashing = 0;
     for (const annotation& a : t.annotations) {
-      auto empty = [](const std::optional<std::string>& v) { return v && v->empty(); };
+      auto empty = [](const optional_text& v) { return v && v->empty(); };
       bool has_empty = empty(a.markup) || empty(a.id) || empty(a.parent);
       bool clash = false;
       for (const auto& [k, v] : a.attributes) {

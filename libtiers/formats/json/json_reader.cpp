@@ -1,20 +1,18 @@
-// Reads the native JSON format with nlohmann's SAX parser, straight into the model: no DOM,
+// Reads the native JSON format with the JSON scanner's events, straight into the model: no DOM,
 // times taken exactly from the number's text, every problem located by byte offset.
+#include <charconv>
 #include <cmath>
 #include <cstdint>
 #include <iterator>
 #include <limits>
-#include <nlohmann/json.hpp>
 
-#include "../../src/json_sax.hpp"
+#include "../../src/json_scan.hpp"
 #include "json_format.hpp"
 #include "tiers/detail/positions.hpp"
 #include "tiers/detail/report.hpp"
 
 namespace tiers::detail {
 namespace {
-
-using json = nlohmann::json;
 
 // Where the parser is in the document. Every object and array has one; anything else is an
 // error at once, so the nesting depth stays bounded by the shape of the format.
@@ -142,65 +140,62 @@ struct scalar {
   std::string_view text;  // strings and floats
   std::int64_t i = 0;
   bool u_overflow = false;  // an unsigned integer above int64
-  double d = 0;
   bool b = false;
 };
 
-class handler final : public nlohmann::json_sax<json> {
+class handler final {
  public:
-  handler(std::string_view input, std::size_t& consumed, const read_options& options,
-          read_result& out)
-      : input_(input), consumed_(consumed), out_(out), positions_(options, out) {}
+  handler(std::string_view input, const read_options& options, read_result& out)
+      : input_(input), out_(out), positions_(options, out) {}
 
-  bool null() override { return on_scalar({scalar::null, {}}); }
-  bool boolean(bool v) override {
+  bool on_null(std::size_t at) {
+    at_ = at;
+    return on_scalar({scalar::null, {}});
+  }
+  bool on_bool(bool v, std::size_t at) {
+    at_ = at;
     scalar s{scalar::boolean, {}};
     s.b = v;
     return on_scalar(s);
   }
-  bool number_integer(number_integer_t v) override {
-    scalar s{scalar::integer, {}};
-    s.i = v;
+  bool on_number(std::string_view text, std::size_t at) {
+    at_ = at;
+    bool integral = true;
+    for (char c : text)
+      integral = integral && c != '.' && c != 'e' && c != 'E';
+    scalar s{integral ? scalar::integer : scalar::floating, text};
+    if (integral) {
+      const auto [p, ec] = std::from_chars(text.data(), text.data() + text.size(), s.i);
+      // Out of range: a positive one is too large for anything; a negative one is below any
+      // time too, and nothing else is negative.
+      if (ec != std::errc{}) s.u_overflow = true;
+      (void)p;
+    }
+    // The double is read only where one is wanted (a confidence): times are read exactly from
+    // the text instead.
     return on_scalar(s);
   }
-  bool number_unsigned(number_unsigned_t v) override {
-    scalar s{scalar::integer, {}};
-    if (v > static_cast<number_unsigned_t>(std::numeric_limits<std::int64_t>::max()))
-      s.u_overflow = true;
-    else
-      s.i = static_cast<std::int64_t>(v);
-    s.d = static_cast<double>(v);
-    return on_scalar(s);
-  }
-  bool number_float(number_float_t v, const string_t& text) override {
-    scalar s{scalar::floating, text};
-    s.d = v;
-    return on_scalar(s);
-  }
-  bool string(string_t& v) override {
+  bool on_string(std::string& v, std::size_t at) {
+    at_ = at;
     string_value_ = std::move(v);
     return on_scalar({scalar::string, string_value_});
   }
-  bool binary(binary_t&) override { return fail_here("json.syntax", "binary values are not JSON"); }
+  bool on_start_object(std::size_t at);
+  bool on_key(std::string& k, std::size_t at);
+  bool on_end_object(std::size_t at);
+  bool on_start_array(std::size_t at);
+  bool on_end_array(std::size_t at);
 
-  bool start_object(std::size_t) override;
-  bool key(string_t& k) override;
-  bool end_object() override;
-  bool start_array(std::size_t) override;
-  bool end_array() override;
-
-  bool parse_error(std::size_t, const std::string&,
-                   const nlohmann::detail::exception& ex) override {
-    const std::string what = parse_error_text(ex);
-    return fail_at("json.syntax", parse_error_offset(what, consumed_, input_.size()),
-                   "invalid JSON: " + what);
+  /// Text that is not JSON at all.
+  void syntax_error(const json_scan_error& e) {
+    fail_at("json.syntax", e.offset, "invalid JSON: " + e.message);
   }
 
   bool failed() const { return failed_; }
 
  private:
-  // Offset of the byte the parser read last.
-  std::size_t here() const { return consumed_ > 0 ? consumed_ - 1 : 0; }
+  // Offset of the value the scanner reported last.
+  std::size_t here() const { return at_; }
 
   bool fail_at(std::string code, std::size_t offset, std::string message) {
     if (!failed_)
@@ -273,7 +268,7 @@ class handler final : public nlohmann::json_sax<json> {
   annotation& current_annotation() { return current_tier().annotations.back(); }
 
   std::string_view input_;
-  std::size_t& consumed_;
+  std::size_t at_ = 0;
   read_result& out_;
   position_recorder positions_;
   std::vector<frame> stack_{{ctx::top, 0}};
@@ -286,10 +281,9 @@ class handler final : public nlohmann::json_sax<json> {
   std::size_t missing_end_ = no_offset;  // first annotation of the current tier without "end"
 };
 
-bool handler::key(string_t& k) {
+bool handler::on_key(std::string& k, std::size_t at) {
   key_ = std::move(k);
-  // The parser has just read the closing quote; the key starts at the matching opening one.
-  key_offset_ = opening_quote(input_, here());
+  at_ = key_offset_ = at;
   frame& f = stack_.back();
   const auto names = members_of(f.where);
   member_ = -1;
@@ -314,8 +308,8 @@ bool handler::key(string_t& k) {
   return true;
 }
 
-bool handler::start_object(std::size_t) {
-  const std::size_t offset = here();
+bool handler::on_start_object(std::size_t at) {
+  const std::size_t offset = at_ = at;
   ctx next = ctx::top;
   switch (top()) {
     case ctx::top:
@@ -365,14 +359,15 @@ bool handler::start_object(std::size_t) {
   return true;
 }
 
-bool handler::end_object() {
+bool handler::on_end_object(std::size_t at) {
+  at_ = at;
   const frame f = stack_.back();
   stack_.pop_back();
   return finish_object(f);
 }
 
-bool handler::start_array(std::size_t) {
-  const std::size_t offset = here();
+bool handler::on_start_array(std::size_t at) {
+  const std::size_t offset = at_ = at;
   ctx next = ctx::top;
   if (top() == ctx::root && member_ == m_tiers) next = ctx::tiers;
   if (top() == ctx::tier && member_ == t_vocabulary) {
@@ -393,7 +388,8 @@ bool handler::start_array(std::size_t) {
   return true;
 }
 
-bool handler::end_array() {
+bool handler::on_end_array(std::size_t at) {
+  at_ = at;
   stack_.pop_back();
   return true;
 }
@@ -528,7 +524,9 @@ bool handler::annotation_scalar(const scalar& v) {
     case a_confidence: {
       if (v.kind != scalar::integer && v.kind != scalar::floating)
         return fail_member("must be a number from 0 to 1");
-      const double c = v.kind == scalar::integer ? static_cast<double>(v.i) : v.d;
+      double c = static_cast<double>(v.i);
+      if (v.kind == scalar::floating)
+        std::from_chars(v.text.data(), v.text.data() + v.text.size(), c);
       if (v.u_overflow || !(c >= 0.0 && c <= 1.0))
         return fail_member("must be a number from 0 to 1");
       a.confidence = c;
@@ -595,16 +593,8 @@ int sniff_json(std::string_view head) {
 
 read_result read_json(std::string_view input, const read_options& options) {
   read_result out;
-  // RFC 8259 §8.1: a parser may ignore a byte order mark; editors on some systems add one.
-  const std::size_t bom = input.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0;
-  std::size_t consumed = bom;
-  handler h(input, consumed, options, out);
-  counting_iterator first{input.data() + bom, &consumed};
-  counting_iterator last{input.data() + input.size(), &consumed};
-  const bool ok = json::sax_parse(first, last, &h, json::input_format_t::json, true);
-  if (!ok && !h.failed())
-    out.diagnostics.push_back(
-        make_diagnostic(severity::error, "json.syntax", input.size(), "invalid JSON"));
+  handler h(input, options, out);
+  if (auto e = scan_json(input, h)) h.syntax_error(*e);
   return out;
 }
 

@@ -223,10 +223,10 @@ class text_reader {
           return bad(it, "attribute '" + it.key + "' is given twice");
         continue;
       }
-      std::optional<std::string>* field = it.key == "id"       ? &a.id
-                                          : it.key == "parent" ? &a.parent
-                                          : it.key == "markup" ? &a.markup
-                                                               : nullptr;
+      optional_text* field = it.key == "id"       ? &a.id
+                             : it.key == "parent" ? &a.parent
+                             : it.key == "markup" ? &a.markup
+                                                  : nullptr;
       if (field) {
         if (*field) return bad(it, it.key + " is given twice");
         *field = *it.value;

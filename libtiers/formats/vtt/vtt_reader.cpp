@@ -65,7 +65,9 @@ class vtt_reader {
   std::vector<std::string> regions_;
   std::string prelude_, pending_notes_, header_;
   time_ns last_start_ = 0;
-  std::unordered_set<std::string> ids_;
+  // Views of the cues' ids: an annotation's id lives on the heap, so the views stay valid while
+  // the cues move.
+  std::unordered_set<std::string_view> ids_;
 };
 
 void vtt_reader::run() {
@@ -280,7 +282,7 @@ void vtt_reader::finish_cue(annotation& cue, std::string_view settings, std::siz
     authoring("vtt.empty", timing_offset, "cue does not end after it starts");
   last_start_ = cue.start;
   if (cue.id) {
-    if (!ids_.insert(*cue.id).second)
+    if (!ids_.insert(std::string_view(*cue.id)).second)
       authoring("vtt.id", timing_offset,
                 "cue identifier " + quote_name(*cue.id) + " is not unique");
   }

@@ -1,0 +1,58 @@
+// tiers-bench: times reading a file, and writing it in a format, inside one process; prints one
+// JSON object with the bytes, annotations, seconds of each phase and the peak resident memory.
+//
+//   tiers-bench FILE [FORMAT OUT]
+#include <sys/resource.h>
+
+#include <chrono>
+#include <cstdio>
+#include <string>
+
+#include "tiers/tiers.hpp"
+
+int main(int argc, char** argv) {
+  using clock = std::chrono::steady_clock;
+  if (argc != 2 && argc != 4) {
+    std::fprintf(stderr, "usage: tiers-bench FILE [FORMAT OUT]\n");
+    return 2;
+  }
+  try {
+    const auto t0 = clock::now();
+    const std::string text = tiers::read_input(argv[1]);
+    const tiers::format* fmt = tiers::format_for_path(argv[1]);
+    if (!fmt) {
+      std::fprintf(stderr, "tiers-bench: no format for %s\n", argv[1]);
+      return 2;
+    }
+    tiers::read_options options;
+    options.tier_name = "corpus";
+    tiers::read_result r = tiers::read_document(text, *fmt, options, argv[1]);
+    const auto t1 = clock::now();
+    if (!r.ok()) {
+      std::fprintf(stderr, "tiers-bench: %s\n", tiers::format_diagnostic(r.diagnostics[0]).c_str());
+      return 1;
+    }
+    std::size_t annotations = 0;
+    for (const tiers::tier& t : r.doc.tiers)
+      annotations += t.annotations.size();
+    double write_seconds = 0;
+    if (argc == 4) {
+      const auto t2 = clock::now();
+      tiers::atomic_file out(argv[3]);
+      tiers::find_format(argv[2])->write(r.doc, out, {});
+      out.commit();
+      write_seconds = std::chrono::duration<double>(clock::now() - t2).count();
+    }
+    rusage usage{};
+    getrusage(RUSAGE_SELF, &usage);
+    std::printf(
+        "{\"bytes\": %zu, \"annotations\": %zu, \"read_seconds\": %.6f, "
+        "\"write_seconds\": %.6f, \"peak_rss_bytes\": %lld}\n",
+        text.size(), annotations, std::chrono::duration<double>(t1 - t0).count(), write_seconds,
+        static_cast<long long>(usage.ru_maxrss) * 1024);
+  } catch (const tiers::error& e) {
+    std::fprintf(stderr, "tiers-bench: %s\n", e.what());
+    return 1;
+  }
+  return 0;
+}
