@@ -4,8 +4,11 @@
 //   tiers-corpus --hours H [--seed S] --out DIR            one document of H hour-long
 //                                                          programmes back to back, in every
 //                                                          format, plus a per-frame signal
-//   tiers-corpus --files N [--seed S] --out DIR            N hour-long files (JSON), for batch
-//                                                          and sharding runs
+//   tiers-corpus --files N [--seed S] [--minutes M] --out DIR
+//                                                          N files (JSON) of M minutes each
+//                                                          (default 60), for batch and sharding
+//                                                          runs; about one in fifty lacks its
+//                                                          head-nod tier, as real datasets do
 //   … --only FORMAT,…                                      only these files (vtt and ttml
 //                                                          alone need only the captions)
 #include <cstdio>
@@ -58,7 +61,8 @@ annotation span(time_ns start, time_ns end, std::string text) {
 // One hour-long programme starting at `origin`: about 9,000 words at speech rate, about 1,200
 // caption cues shown 2–6 s after their words, gestures with phases that partition them, head
 // nods, and a machine gesture tier that mostly agrees with the human one.
-void programme(generator& g, time_ns origin, document& doc, std::size_t& cue_id) {
+void programme(generator& g, time_ns origin, document& doc, std::size_t& cue_id, int minutes) {
+  const time_ns span_end = origin + hour / 60 * minutes;
   tier& captions = doc.tiers[0];
   tier& words = doc.tiers[1];
   tier& human = doc.tiers[2];
@@ -67,7 +71,7 @@ void programme(generator& g, time_ns origin, document& doc, std::size_t& cue_id)
   tier& machine = doc.tiers[5];
   time_ns t = origin + 2 * ns_per_second;
   const time_ns lag = g.between(2000 * ms, 6000 * ms);
-  while (t < origin + hour - 20 * ns_per_second) {
+  while (t < span_end - 20 * ns_per_second) {
     const std::size_t first = words.annotations.size();
     const int n = g.count(5, 10);
     std::string line1, line2;
@@ -87,7 +91,7 @@ void programme(generator& g, time_ns origin, document& doc, std::size_t& cue_id)
     captions.annotations.push_back(std::move(c));
     t += g.between(300 * ms, 900 * ms);
   }
-  for (time_ns s = origin + 5 * ns_per_second; s < origin + hour - 30 * ns_per_second;) {
+  for (time_ns s = origin + 5 * ns_per_second; s < span_end - 30 * ns_per_second;) {
     const time_ns length = g.between(600 * ms, 3000 * ms);
     const std::string label = g.pick(gestures);
     human.annotations.push_back(span(s, s + length, label));
@@ -104,15 +108,14 @@ void programme(generator& g, time_ns origin, document& doc, std::size_t& cue_id)
     }
     s += length + g.between(2 * ns_per_second, 8 * ns_per_second);
   }
-  for (time_ns s = origin + 3 * ns_per_second; s < origin + hour;
-       s += g.count(5, 25) * ns_per_second)
+  for (time_ns s = origin + 3 * ns_per_second; s < span_end; s += g.count(5, 25) * ns_per_second)
     nods.annotations.push_back(span(s, s, "nod"));
 }
 
-document corpus(generator& g, int hours, bool captions_only = false) {
+document corpus(generator& g, int hours, bool captions_only = false, int minutes = 60) {
   document doc;
   doc.media.uri = "programme.mp4";
-  doc.media.duration = hours * hour;
+  doc.media.duration = hours * hour / 60 * minutes;
   doc.media.frame_rate = rational{25, 1};
   doc.metadata["scenario"] =
       "invented benchmark corpus: neighbourhood meetings that never took place";
@@ -129,7 +132,7 @@ document corpus(generator& g, int hours, bool captions_only = false) {
   doc.tiers[5].source = tier_source{source_kind::machine, "demo-gesture-detector", "0.3"};
   std::size_t cue_id = 0;
   for (int h = 0; h < hours; ++h) {
-    programme(g, h * hour, doc, cue_id);
+    programme(g, h * hour, doc, cue_id, minutes);
     if (captions_only)  // keeps a long caption-only corpus small in memory while it is made
       for (std::size_t t = 1; t < doc.tiers.size(); ++t)
         doc.tiers[t].annotations.clear();
@@ -163,14 +166,16 @@ void write_signal(generator& g, int hours, const std::string& path) {
 }
 
 int usage() {
-  std::fprintf(stderr, "usage: tiers-corpus (--hours H | --files N) [--seed S] --out DIR\n");
+  std::fprintf(stderr,
+               "usage: tiers-corpus (--hours H | --files N [--minutes M]) [--seed S] [--only "
+               "F,...] --out DIR\n");
   return 2;
 }
 
 }  // namespace
 
 int main(int argc, char** argv) {
-  int hours = 0, files = 0;
+  int hours = 0, files = 0, minutes = 60;
   std::uint64_t seed = 1;
   std::string out, only;
   for (int k = 1; k + 1 < argc; k += 2) {
@@ -183,12 +188,14 @@ int main(int argc, char** argv) {
       seed = std::strtoull(value.c_str(), nullptr, 10);
     else if (opt == "--out")
       out = value;
+    else if (opt == "--minutes")
+      minutes = std::atoi(value.c_str());
     else if (opt == "--only")
       only = "," + value + ",";
     else
       return usage();
   }
-  if (out.empty() || (hours <= 0) == (files <= 0)) return usage();
+  if (out.empty() || (hours <= 0) == (files <= 0) || minutes < 1 || minutes > 60) return usage();
   std::filesystem::create_directories(out);
   generator g(seed);
   try {
@@ -196,7 +203,10 @@ int main(int argc, char** argv) {
       for (int k = 0; k < files; ++k) {
         char name[64];
         std::snprintf(name, sizeof name, "/session-%05d.json", k);
-        write(corpus(g, 1), out + name, "json");
+        document doc = corpus(g, 1, false, minutes);
+        if (g.chance() < 0.02)
+          std::erase_if(doc.tiers, [](const tiers::tier& t) { return t.name == "head-nods"; });
+        write(doc, out + name, "json");
       }
       return 0;
     }

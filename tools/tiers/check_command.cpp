@@ -5,6 +5,7 @@
 
 #include <algorithm>
 
+#include "batch.hpp"
 #include "check_inputs.hpp"
 #include "text_table.hpp"
 #include "tiers/io.hpp"
@@ -36,6 +37,13 @@ CLI::App* setup_check(CLI::App& app, check_options& o) {
                   "Fail (exit status 1) when there are more warnings than this")
       ->check(CLI::NonNegativeNumber)
       ->type_name("N");
+  cmd->add_option("--shard", o.shard,
+                  "Check only part K of N of the (sorted) files, for array jobs; files are "
+                  "compared with one another when the reports are combined")
+      ->type_name("K/N");
+  cmd->add_flag("--combine", o.combine,
+                "The inputs are JSON reports (--format json) of runs over parts of a dataset: "
+                "join them into one report, comparing all their files");
   cmd->add_flag("--list-rules", o.list_rules,
                 "List the rules, one a line: id, severity (with --profile: the profile's), "
                 "summary");
@@ -169,6 +177,24 @@ void write_report(const check_options& o, const std::vector<file_report>& report
   out.flush();
 }
 
+// The files of several reports, in the order of the reports, compared with one another anew.
+std::vector<file_report> combine_reports(const std::vector<std::string>& paths, const profile& p) {
+  std::vector<file_report> all;
+  bool failed = false;
+  for (const std::string& path : paths) {
+    const std::string text = read_input(path);
+    report_result r = read_check_report(text, display_name(path));
+    for (const diagnostic& d : r.diagnostics)
+      report(d);
+    failed = failed || !r.ok();
+    for (file_report& f : r.files)
+      all.push_back(std::move(f));
+  }
+  if (failed) throw rejected();
+  check_dataset(all, p);
+  return all;
+}
+
 }  // namespace
 
 int run_check(const check_options& o) {
@@ -199,9 +225,18 @@ int run_check(const check_options& o) {
       roles.words = words->tier;
     }
   }
-  const std::vector<std::string> files = expand_inputs(o.paths);
-  if (files.empty()) throw usage_error("check: the folders named hold no tier files");
-  const std::vector<file_report> reports = check_files(files, o, p, roles);
+  std::vector<file_report> reports;
+  if (o.combine) {
+    reports = combine_reports(o.paths, p);
+  } else {
+    std::vector<std::string> files;
+    for (input_file& f : expand_inputs(o.paths))
+      files.push_back(std::move(f.path));
+    if (!o.shard.empty()) files = shard_of(std::move(files), o.shard);
+    if (files.empty() && o.shard.empty())
+      throw usage_error("check: the folders named hold no tier files");
+    reports = check_files(files, o, p, roles, o.shard.empty());
+  }
   write_report(o, reports);
 
   const check_summary s = summarize(reports);

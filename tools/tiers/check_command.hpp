@@ -19,6 +19,8 @@ struct check_options {
   std::string output;
   unsigned jobs = 0;  ///< 0: one per core
   long max_warnings = -1;
+  std::string shard;     ///< K/N: this worker's part of the files
+  bool combine = false;  ///< the inputs are JSON reports of earlier runs, to join into one
   bool list_rules = false;
   bool list_profiles = false;
 };

@@ -2,8 +2,11 @@
 // and diagnostics on standard error.
 #include "cli_common.hpp"
 
+#include <algorithm>
+#include <charconv>
 #include <cstdio>
 #include <filesystem>
+#include <mutex>
 
 #include "tiers/detail/report.hpp"
 #include "tiers/io.hpp"
@@ -48,12 +51,32 @@ void add_output_options(CLI::App& cmd, std::string& output, std::string& to, boo
                "Write even when the output format cannot carry everything; lists what is dropped");
 }
 
+std::vector<std::string> shard_of(std::vector<std::string> files, const std::string& spec) {
+  const std::size_t slash = spec.find('/');
+  unsigned long k = 0, n = 0;
+  const char* end = spec.data() + spec.size();
+  const bool ok = slash != std::string::npos &&
+                  std::from_chars(spec.data(), spec.data() + slash, k).ptr == spec.data() + slash &&
+                  std::from_chars(spec.data() + slash + 1, end, n).ptr == end && k >= 1 && n >= 1 &&
+                  k <= n;
+  if (!ok) throw usage_error("--shard: '" + spec + "' is not K/N with 1 <= K <= N, e.g. 3/8");
+  std::sort(files.begin(), files.end());
+  std::vector<std::string> out;
+  for (std::size_t i = k - 1; i < files.size(); i += n)
+    out.push_back(std::move(files[i]));
+  return out;
+}
+
 std::string display_name(const std::string& path) {
   return path == "-" ? "<stdin>" : path;
 }
 
 void report(const diagnostic& d) {
-  std::fprintf(stderr, "%s\n", format_diagnostic(d).c_str());
+  // Whole lines, even from many threads at once.
+  static std::mutex lines;
+  const std::string text = format_diagnostic(d) + "\n";
+  const std::lock_guard<std::mutex> lock(lines);
+  std::fputs(text.c_str(), stderr);
 }
 
 std::string format_names() {

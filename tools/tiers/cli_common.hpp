@@ -79,6 +79,11 @@ struct words_file {
 std::optional<words_file> words_file_of(const std::string& spec, const input_options& reading,
                                         std::optional<std::string>& tier);
 
+/// The files of shard `spec` ("K/N", K from 1 to N) of `files`: the list is sorted, and every
+/// Nth file from the Kth is taken, so that N workers given 1/N … N/N share the files without
+/// overlap, whatever order they were named in. Throws usage_error on a bad spec.
+std::vector<std::string> shard_of(std::vector<std::string> files, const std::string& spec);
+
 /// Prints one diagnostic to standard error.
 void report(const diagnostic& d);
 

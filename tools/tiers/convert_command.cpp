@@ -1,5 +1,8 @@
-// `tiers convert IN [-o OUT] [--from F] [--to F] [--tier NAME]... [--allow-loss]`.
+// `tiers convert IN [-o OUT] [--from F] [--to F] [--tier NAME]... [--allow-loss]`, and
+// `tiers convert IN... -d DIR --to F [--jobs N] [--shard K/N] [--resume]` for many files.
 #include "convert_command.hpp"
+
+#include "batch.hpp"
 
 #include <algorithm>
 #include <filesystem>
@@ -13,9 +16,22 @@ namespace tiers::cli {
 
 CLI::App* setup_convert(CLI::App& app, convert_options& o) {
   CLI::App* cmd = app.add_subcommand("convert", "Convert a tier file to another format");
-  cmd->add_option("input", o.input.path, "Input file, or - for standard input")
+  cmd->add_option("inputs", o.inputs,
+                  "Input file, or - for standard input; with -d, files and folders (searched "
+                  "recursively)")
       ->required()
       ->type_name("FILE");
+  cmd->add_option("-d,--output-dir", o.output_dir,
+                  "Convert many files into this folder, keeping their layout below the folders "
+                  "named (needs --to)")
+      ->type_name("DIR");
+  cmd->add_option("--jobs", o.jobs, "With -d: files converted at once (default: one per core)")
+      ->type_name("N");
+  cmd->add_option("--shard", o.shard, "With -d: convert only part K of N of the (sorted) files")
+      ->type_name("K/N");
+  cmd->add_flag("--resume", o.resume,
+                "With -d: skip files whose output is already there and newer than the input "
+                "(outputs are written whole or not at all, so one that exists is complete)");
   cmd->add_option("--tier", o.tiers, "Convert only this tier (repeatable)")
       ->allow_extra_args(false)
       ->type_name("NAME");
@@ -52,20 +68,100 @@ void keep_tiers(document& doc, const std::vector<std::string>& names, const std:
 
 }  // namespace
 
-int run_convert(const convert_options& o) {
-  const format& to = output_format(o.to, o.output);  // usage errors first, before reading
-  document doc = load_document(o.input);
-  const std::string file = display_name(o.input.path);
-  keep_tiers(doc, o.tiers, file);
+namespace {
 
+// One conversion; throws rejected (reasons printed) or tiers::error.
+void convert_one(const convert_options& o, const input_options& in, const format& to,
+                 const std::string& output) {
+  document doc = load_document(in);
+  const std::string file = display_name(in.path);
+  keep_tiers(doc, o.tiers, file);
   std::vector<std::string> losses;
   if (o.voices) {
-    const std::string name = o.output.empty() || o.output == "-"
+    const std::string name = output.empty() || output == "-"
                                  ? std::string("voices")
-                                 : std::filesystem::path(o.output).stem().string();
+                                 : std::filesystem::path(output).stem().string();
     doc = join_as_voices(doc, name, losses);
   }
-  write_output(doc, to, o.output, o.allow_loss, file, std::move(losses));
+  write_output(doc, to, output, o.allow_loss, file, std::move(losses));
+}
+
+int convert_many(const convert_options& o) {
+  namespace fs = std::filesystem;
+  if (o.to.empty()) throw usage_error("convert -d: name the output format with --to");
+  const format& to = format_named(o.to);
+  if (!o.output.empty()) throw usage_error("convert: give either -o or -d, not both");
+  std::vector<input_file> files = expand_inputs(o.inputs);
+  if (!o.shard.empty()) {
+    std::vector<std::string> paths;
+    for (const input_file& f : files)
+      paths.push_back(f.path);
+    const std::vector<std::string> mine = shard_of(paths, o.shard);
+    std::erase_if(files, [&](const input_file& f) {
+      return std::find(mine.begin(), mine.end(), f.path) == mine.end();
+    });
+  }
+  // Every output path, decided (and checked for clashes) before anything is written.
+  std::vector<std::string> outputs;
+  for (const input_file& f : files) {
+    if (f.path == "-") throw usage_error("convert -d reads files, not standard input");
+    fs::path out = fs::path(o.output_dir) / f.relative;
+    out.replace_extension(std::string(to.extensions.front()));
+    outputs.push_back(out.string());
+  }
+  for (std::size_t i = 0; i < outputs.size(); ++i)
+    for (std::size_t j = i + 1; j < outputs.size(); ++j)
+      if (outputs[i] == outputs[j])
+        throw usage_error("convert -d: " + files[i].path + " and " + files[j].path +
+                          " would both be written to " + outputs[i]);
+  std::vector<char> failed(files.size(), 0);
+  run_parallel(
+      files.size(), o.jobs,
+      [&](std::size_t k) {
+        std::error_code ec;
+        if (o.resume && fs::exists(outputs[k], ec) &&
+            fs::last_write_time(outputs[k], ec) >= fs::last_write_time(files[k].path, ec))
+          return;
+        input_options in = o.input;
+        in.path = files[k].path;
+        try {
+          fs::create_directories(fs::path(outputs[k]).parent_path(), ec);
+          convert_one(o, in, to, outputs[k]);
+        } catch (const rejected&) {
+          failed[k] = 1;
+        } catch (const error& e) {
+          report(e.diag());
+          failed[k] = 1;
+        } catch (const std::exception& e) {  // out of memory, above all: that file fails alone
+          diagnostic d;
+          d.file = display_name(files[k].path);
+          d.code = "io.read";
+          d.message = std::string("could not be converted: ") + e.what();
+          report(d);
+          failed[k] = 1;
+        }
+      },
+      "converting");
+  const auto n = static_cast<std::size_t>(std::count(failed.begin(), failed.end(), 1));
+  if (n > 0)
+    std::fprintf(stderr, "tiers: %zu of %zu files not converted (see above)\n", n, files.size());
+  return n > 0 ? exit_rejected : exit_ok;
+}
+
+}  // namespace
+
+int run_convert(const convert_options& o) {
+  if (!o.output_dir.empty() || o.inputs.size() > 1) {
+    if (o.output_dir.empty())
+      throw usage_error("convert: several inputs need an output folder (-d)");
+    return convert_many(o);
+  }
+  if (!o.shard.empty() || o.resume || o.jobs)
+    throw usage_error("convert: --jobs, --shard and --resume go with -d");
+  const format& to = output_format(o.to, o.output);  // usage errors first, before reading
+  input_options in = o.input;
+  in.path = o.inputs.front();
+  convert_one(o, in, to, o.output);
   return exit_ok;
 }
 

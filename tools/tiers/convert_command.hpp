@@ -10,7 +10,12 @@
 namespace tiers::cli {
 
 struct convert_options {
-  input_options input;
+  input_options input;              ///< reading options (path: the one input, when only one)
+  std::vector<std::string> inputs;  ///< files or folders
+  std::string output_dir;           ///< many inputs: where their outputs go
+  unsigned jobs = 0;
+  std::string shard;
+  bool resume = false;
   std::string output;
   std::string to;
   std::vector<std::string> tiers;

@@ -51,11 +51,21 @@ struct lag_report {
   std::size_t matched = 0;  ///< caption words found among the timed words
 };
 
+/// What a file's tiers look like, kept to compare the files of a dataset.
+struct tier_shape {
+  std::string name;
+  tier_kind kind = tier_kind::interval;
+  std::optional<std::vector<std::string>> vocabulary;
+  source_position where;
+};
 /// Everything a check found in one file.
 struct file_report {
   std::string path;
   std::vector<problem> problems;  ///< in the order of the file (those without a line first)
   std::optional<lag_report> lag;
+  /// The file's tiers, to compare files (also across reports combined later); none when the
+  /// file could not be read.
+  std::optional<std::vector<tier_shape>> shape;
   std::size_t count(severity level) const;
 };
 
@@ -71,22 +81,23 @@ file_report check_document(const document& doc, const source_map& positions,
 /// A report for a file that could not be read: its diagnostics as problems.
 file_report unreadable_file(const std::string& file, const std::vector<diagnostic>& read);
 
-/// What a file's tiers look like, kept to compare the files of a dataset.
-struct tier_shape {
-  std::string name;
-  tier_kind kind = tier_kind::interval;
-  std::optional<std::vector<std::string>> vocabulary;
-  source_position where;
-};
 std::vector<tier_shape> shape_of(const document& doc, const source_map& positions);
 
 /// Compares the files of a dataset with one another: a tier that most files have but one
 /// lacks, or has with another kind or vocabulary, is reported in that file
-/// (dataset.inconsistent). `shapes[k]` belongs to `reports[k]`; files without a shape (not
-/// read) are left out. Needs at least three files to tell what most files do.
-void check_dataset(std::span<file_report> reports,
-                   std::span<const std::optional<std::vector<tier_shape>>> shapes,
-                   const profile& p);
+/// (dataset.inconsistent). Files without a shape (not read) are left out. Problems of this rule
+/// already in the reports are replaced, so that reports combined from parts of a dataset are
+/// judged as one. Needs at least three files to tell what most files do.
+void check_dataset(std::span<file_report> reports, const profile& p);
+
+/// Reads a report written by write_check_json (`--format json`), for combining the reports of
+/// runs over parts of a dataset. Problems are located in `file` (codes `report.*`, `json.*`).
+struct report_result {
+  std::vector<file_report> files;
+  std::vector<diagnostic> diagnostics;
+  bool ok() const { return !has_errors(diagnostics); }
+};
+report_result read_check_report(std::string_view text, const std::string& file);
 
 /// Totals over the reports of a check.
 struct check_summary {

@@ -276,6 +276,7 @@ file_report check_document(const document& doc, const source_map& positions,
     if (!reported_by_model(d.code)) r.problems.push_back(from_diagnostic(d));
   detail::checker(doc, positions, file, p, context, r).run();
   detail::sort_problems(r.problems);
+  r.shape = shape_of(doc, positions);
   return r;
 }
 

@@ -49,9 +49,10 @@ std::vector<tier_shape> shape_of(const document& doc, const source_map& position
   return out;
 }
 
-void check_dataset(std::span<file_report> reports,
-                   std::span<const std::optional<std::vector<tier_shape>>> shapes,
-                   const profile& p) {
+void check_dataset(std::span<file_report> reports, const profile& p) {
+  for (file_report& r : reports)
+    std::erase_if(r.problems,
+                  [](const problem& x) { return x.diag.code == "dataset.inconsistent"; });
   const rule_level level = p.level("dataset.inconsistent");
   if (level == rule_level::off) return;
   const severity sev = severity_of(level);
@@ -63,7 +64,8 @@ void check_dataset(std::span<file_report> reports,
     std::map<std::string, std::size_t> vocabularies;
   };
   std::map<std::string, seen> tiers;
-  for (const auto& s : shapes) {
+  for (const file_report& r : reports) {
+    const auto& s = r.shape;
     if (!s) continue;
     ++files;
     std::vector<std::string_view> names;
@@ -76,9 +78,9 @@ void check_dataset(std::span<file_report> reports,
       ++x.vocabularies[vocabulary_key(t.vocabulary)];
     }
   }
-  for (std::size_t k = 0; k < reports.size() && k < shapes.size(); ++k) {
-    if (!shapes[k]) continue;
-    const std::vector<tier_shape>& mine = *shapes[k];
+  for (std::size_t k = 0; k < reports.size(); ++k) {
+    if (!reports[k].shape) continue;
+    const std::vector<tier_shape>& mine = *reports[k].shape;
     for (const auto& [name, x] : tiers) {
       if (p.find_tier(name)) continue;  // the profile's own rules hold it to account
       const auto it = std::find_if(mine.begin(), mine.end(),

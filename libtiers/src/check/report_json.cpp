@@ -97,6 +97,32 @@ void write_check_json(std::span<const file_report> reports, byte_sink& out) {
       out.write(",\n   \"lag\": ");
       write_lag(out, *r.lag);
     }
+    if (r.shape) {
+      // What --combine needs to compare files across reports (dataset.inconsistent).
+      out.write(",\n   \"tiers\": [");
+      for (std::size_t t = 0; t < r.shape->size(); ++t) {
+        const tier_shape& s = (*r.shape)[t];
+        out.write(t ? ", {\"name\": " : "{\"name\": ");
+        write_json_string(out, s.name);
+        out.write(", \"kind\": ");
+        write_json_string(out, to_string(s.kind));
+        if (s.vocabulary) {
+          out.write(", \"vocabulary\": [");
+          for (std::size_t v = 0; v < s.vocabulary->size(); ++v) {
+            if (v) out.write(", ");
+            write_json_string(out, (*s.vocabulary)[v]);
+          }
+          out.put(']');
+        }
+        if (s.where.line > 0) {
+          write_count(out, "line", s.where.line);
+          write_count(out, "column", s.where.column);
+          write_count(out, "offset", s.where.offset);
+        }
+        out.put('}');
+      }
+      out.put(']');
+    }
     out.put('}');
   }
   const check_summary s = summarize(reports);

@@ -1,0 +1,92 @@
+// Expanding inputs and running work on a pool of threads, with a progress bar on terminals.
+#include "batch.hpp"
+
+#include <unistd.h>
+
+#include <algorithm>
+#include <atomic>
+#include <chrono>
+#include <cstdio>
+#include <filesystem>
+#include <thread>
+
+#include "tiers/format.hpp"
+
+namespace tiers::cli {
+
+namespace fs = std::filesystem;
+
+std::vector<input_file> expand_inputs(const std::vector<std::string>& paths) {
+  std::vector<input_file> out;
+  for (const std::string& p : paths) {
+    std::error_code ec;
+    if (p == "-" || !fs::is_directory(p, ec)) {
+      out.push_back({p, fs::path(p).filename().string()});
+      continue;
+    }
+    std::vector<input_file> found;
+    fs::recursive_directory_iterator it(p, fs::directory_options::skip_permission_denied, ec), end;
+    for (; !ec && it != end; it.increment(ec)) {
+      const std::string name = it->path().filename().string();
+      if (!name.empty() && name[0] == '.') {
+        if (it->is_directory(ec)) it.disable_recursion_pending();
+        continue;
+      }
+      if (it->is_regular_file(ec) && format_for_path(it->path().string()))
+        found.push_back({it->path().string(), fs::relative(it->path(), p, ec).string()});
+    }
+    std::sort(found.begin(), found.end(),
+              [](const input_file& a, const input_file& b) { return a.path < b.path; });
+    out.insert(out.end(), found.begin(), found.end());
+  }
+  std::vector<input_file> unique;
+  for (input_file& f : out)
+    if (std::none_of(unique.begin(), unique.end(),
+                     [&](const input_file& u) { return u.path == f.path; }))
+      unique.push_back(std::move(f));
+  return unique;
+}
+
+namespace {
+
+// Draws "VERB [####....] 12/40 files" over itself, ten times a second, until all are done.
+void show_progress(const std::atomic<std::size_t>& done, std::size_t total, const char* verb) {
+  using namespace std::chrono_literals;
+  for (;;) {
+    const std::size_t d = done.load();
+    constexpr std::size_t width = 30;
+    const std::size_t filled = total ? d * width / total : width;
+    std::fprintf(stderr, "\r%s [%s%s] %zu/%zu files", verb, std::string(filled, '#').c_str(),
+                 std::string(width - filled, '.').c_str(), d, total);
+    std::fflush(stderr);
+    if (d >= total) break;
+    std::this_thread::sleep_for(100ms);
+  }
+  std::fprintf(stderr, "\r\033[K");
+  std::fflush(stderr);
+}
+
+}  // namespace
+
+void run_parallel(std::size_t count, unsigned jobs, const std::function<void(std::size_t)>& work,
+                  const char* verb) {
+  std::atomic<std::size_t> next{0}, done{0};
+  auto worker = [&] {
+    for (std::size_t k; (k = next.fetch_add(1)) < count; done.fetch_add(1))
+      work(k);
+  };
+  if (jobs == 0) jobs = std::max(1u, std::thread::hardware_concurrency());
+  jobs = static_cast<unsigned>(std::min<std::size_t>(jobs, std::max<std::size_t>(count, 1)));
+  std::vector<std::thread> pool;
+  for (unsigned k = 1; k < jobs; ++k)
+    pool.emplace_back(worker);
+  std::thread progress;
+  if (count > 1 && isatty(STDERR_FILENO))
+    progress = std::thread(show_progress, std::cref(done), count, verb);
+  worker();
+  for (std::thread& t : pool)
+    t.join();
+  if (progress.joinable()) progress.join();
+}
+
+}  // namespace tiers::cli
