@@ -30,7 +30,22 @@ std::string format_diagnostic(const diagnostic& d) {
   }
   s += to_string(d.level);
   s += ": ";
-  s += d.message;
+  // Messages quote input; a control character in one (a line break, an escape sequence for
+  // the terminal) would break the one-line form or worse, so it is shown escaped.
+  for (char c : d.message) {
+    const auto u = static_cast<unsigned char>(c);
+    if (u >= 0x20 && u != 0x7F) {
+      s += c;
+    } else {
+      static constexpr char hex[] = "0123456789abcdef";
+      s += c == '\n' ? "\\n" : c == '\r' ? "\\r" : c == '\t' ? "\\t" : "";
+      if (c != '\n' && c != '\r' && c != '\t') {
+        s += "\\x";
+        s += hex[u >> 4];
+        s += hex[u & 15];
+      }
+    }
+  }
   if (!d.code.empty()) s += " [" + d.code + "]";
   return s;
 }

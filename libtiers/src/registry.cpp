@@ -2,6 +2,7 @@
 #include <algorithm>
 #include <array>
 #include <cstdio>
+#include <optional>
 
 #include "../formats/csv/csv_format.hpp"
 #include "../formats/json/json_format.hpp"
@@ -122,6 +123,32 @@ void locate_positions(std::string_view text, const document& doc, source_map& ma
   }
 }
 
+// The first annotation (tier index, annotation index) whose text or markup is longer than
+// allowed, or the first tier beyond the allowed number.
+struct limit_breach {
+  std::size_t tier = no_tier, annotation = no_tier;
+  std::string code, message;
+};
+
+std::optional<limit_breach> find_breach(const document& doc, const read_options& options) {
+  if (doc.tiers.size() > options.max_tiers)
+    return limit_breach{options.max_tiers, no_tier, "limit.tiers",
+                        "the file has " + std::to_string(doc.tiers.size()) +
+                            " tiers, more than the " + std::to_string(options.max_tiers) +
+                            " allowed (--max-tiers)"};
+  for (std::size_t t = 0; t < doc.tiers.size(); ++t)
+    for (std::size_t a = 0; a < doc.tiers[t].annotations.size(); ++a) {
+      const annotation& x = doc.tiers[t].annotations[a];
+      const std::size_t size = std::max(x.text.size(), x.markup ? x.markup->size() : 0);
+      if (size > options.max_text)
+        return limit_breach{t, a, "limit.text",
+                            "an annotation's text is " + std::to_string(size) +
+                                " bytes, more than the " + std::to_string(options.max_text) +
+                                " allowed (--max-text-bytes)"};
+    }
+  return std::nullopt;
+}
+
 }  // namespace
 
 read_result read_document(std::string_view input, const format& fmt, const read_options& options,
@@ -157,6 +184,23 @@ read_result read_document(std::string_view input, const format& fmt, const read_
                                                              std::to_string(bad)));
   } else {
     result = fmt.read(input, options);
+    if (result.ok())
+      if (auto breach = find_breach(result.doc, options)) {
+        // Read again with positions (only now, when they are needed) to say where it is.
+        read_options located = options;
+        located.positions = true;
+        const read_result again = options.positions ? read_result{} : fmt.read(input, located);
+        const source_map& map = options.positions ? result.positions : again.positions;
+        const std::size_t offset =
+            breach->annotation == no_tier
+                ? (breach->tier < map.tiers.size() ? map.tiers[breach->tier].offset : 0)
+                : (breach->tier < map.annotations.size() &&
+                           breach->annotation < map.annotations[breach->tier].size()
+                       ? map.annotations[breach->tier][breach->annotation].offset
+                       : 0);
+        result.diagnostics.push_back(
+            detail::make_diagnostic(severity::error, breach->code, offset, breach->message));
+      }
   }
   locate_all(input, result.diagnostics);
   if (options.positions) locate_positions(input, result.doc, result.positions);

@@ -371,9 +371,40 @@ parsed_time parse_timecode(std::string_view text, std::optional<rational> rate,
   return frame_time(static_cast<std::int64_t>(count), *rate);
 }
 
+std::size_t format_seconds_to(time_ns t, char* out) {
+  std::uint64_t m = magnitude(t);
+  char* p = out;
+  if (t < 0) *p++ = '-';
+  p = std::to_chars(p, p + 24, m / ns_per_second).ptr;
+  std::uint64_t ns = m % ns_per_second;
+  if (ns != 0) {
+    // Most times are whole milliseconds or microseconds: drop those zeros in one step each.
+    int width = 9;
+    if (ns % 1'000'000 == 0) {
+      ns /= 1'000'000;
+      width = 3;
+    } else if (ns % 1000 == 0) {
+      ns /= 1000;
+      width = 6;
+    }
+    while (ns % 10 == 0) {
+      ns /= 10;
+      --width;
+    }
+    *p++ = '.';
+    char digits[12];
+    const char* end = std::to_chars(digits, digits + sizeof digits, ns).ptr;
+    for (auto pad = width - (end - digits); pad > 0; --pad)
+      *p++ = '0';
+    for (const char* d = digits; d < end; ++d)
+      *p++ = *d;
+  }
+  return static_cast<std::size_t>(p - out);
+}
+
 std::string format_seconds(time_ns t) {
-  const std::uint64_t m = magnitude(t);
-  return (t < 0 ? "-" : "") + std::to_string(m / ns_per_second) + fraction(m % ns_per_second);
+  char buf[32];
+  return std::string(buf, format_seconds_to(t, buf));
 }
 
 std::string format_clock_exact(time_ns t) {

@@ -43,3 +43,14 @@ TEST_CASE("offsets become lines and code-point columns, with LF, CR and CRLF end
   CHECK(ds[1].line == 2);
   CHECK(ds[2].line == 0);
 }
+
+TEST_CASE("control characters in messages are shown escaped, one line each", "[diagnostic]") {
+  diagnostic d;
+  d.file = "a.tiers";
+  d.line = 3;
+  d.column = 1;
+  d.code = "tiers.syntax";
+  d.message = "time '1\r2\n\x1b[31m' is not a time";
+  CHECK(format_diagnostic(d) ==
+        "a.tiers:3:1: error: time '1\\r2\\n\\x1b[31m' is not a time [tiers.syntax]");
+}

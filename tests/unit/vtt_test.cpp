@@ -295,6 +295,8 @@ TEST_CASE("vtt writer sorts cues, escapes text and reports what it cannot keep",
       "repeated ids (WebVTT identifiers are unique) (1 annotation in tier 'cap')",
       "text with blank lines, carriage returns or NUL, which WebVTT cannot hold (1 annotation in "
       "tier 'cap')",
+      "the order of cues that are not in start-time order (written sorted) (1 annotation in tier "
+      "'cap')",
       "times finer than a millisecond (1 annotation in tier 'cap')"};
   CHECK(losses == expected);
 }

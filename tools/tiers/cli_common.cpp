@@ -32,6 +32,12 @@ void add_input_options(CLI::App& cmd, input_options& in) {
   cmd.add_flag("--strict", in.strict,
                "WebVTT: authoring-rule violations (cue order, empty cues, timestamps, repeated "
                "ids) are errors, not warnings");
+  cmd.add_option("--max-text-bytes", in.max_text,
+                 "Refuse a file with an annotation text longer than this (default 4194304)")
+      ->type_name("N");
+  cmd.add_option("--max-tiers", in.max_tiers,
+                 "Refuse a file with more tiers than this (default 100000)")
+      ->type_name("N");
   cmd.add_option("--rate", in.rate,
                  "Frames per second for frame numbers and timecode: 25, 30000/1001")
       ->type_name("RATE");
@@ -135,6 +141,8 @@ read_options reading_options(const input_options& in, const std::string& path) {
   }
   if (!in.rate.empty()) options.rate = parse_rate_option(in.rate);
   options.strict = in.strict;
+  options.max_text = in.max_text;
+  options.max_tiers = in.max_tiers;
   options.unit = in.time_unit == "ms"       ? time_unit::milliseconds
                  : in.time_unit == "frames" ? time_unit::frames
                                             : time_unit::seconds;

@@ -33,6 +33,8 @@ struct input_options {
   std::string time_unit = "s";
   std::string rate;
   bool strict = false;
+  std::size_t max_text = read_options{}.max_text;
+  std::size_t max_tiers = read_options{}.max_tiers;
 };
 
 /// Adds -o/--output (with `output_help`; required unless `output_help` is given), --to and

@@ -71,9 +71,10 @@ void write_table(const document& doc, byte_sink& out, char delimiter, std::strin
     for (const annotation& a : t.annotations) {
       write_field(out, t.name, delimiter);
       out.put(delimiter);
-      out.write(format_seconds(a.start));
+      char buf[32];
+      out.write(std::string_view(buf, format_seconds_to(a.start, buf)));
       out.put(delimiter);
-      out.write(format_seconds(a.end));
+      out.write(std::string_view(buf, format_seconds_to(a.end, buf)));
       out.put(delimiter);
       write_field(out, a.text, delimiter);
       if (any_confidence) {

@@ -145,8 +145,7 @@ struct scalar {
 
 class handler final {
  public:
-  handler(std::string_view input, const read_options& options, read_result& out)
-      : input_(input), out_(out), positions_(options, out) {}
+  handler(const read_options& options, read_result& out) : out_(out), positions_(options, out) {}
 
   bool on_null(std::size_t at) {
     at_ = at;
@@ -267,7 +266,6 @@ class handler final {
   tier& current_tier() { return out_.doc.tiers.back(); }
   annotation& current_annotation() { return current_tier().annotations.back(); }
 
-  std::string_view input_;
   std::size_t at_ = 0;
   read_result& out_;
   position_recorder positions_;
@@ -593,7 +591,7 @@ int sniff_json(std::string_view head) {
 
 read_result read_json(std::string_view input, const read_options& options) {
   read_result out;
-  handler h(input, options, out);
+  handler h(options, out);
   if (auto e = scan_json(input, h)) h.syntax_error(*e);
   return out;
 }

@@ -47,7 +47,8 @@ void write_json_string(byte_sink& out, std::string_view s) {
 }
 
 void write_json_seconds(byte_sink& out, time_ns t) {
-  out.write(format_seconds(t));
+  char buf[32];
+  out.write(std::string_view(buf, format_seconds_to(t, buf)));
 }
 
 void write_json_double(byte_sink& out, double v) {

@@ -39,7 +39,7 @@ struct span {
 class ttml_reader {
  public:
   ttml_reader(std::string_view input, const read_options& options, read_result& out)
-      : in_(input), options_(options), out_(out), positions_(options, out) {}
+      : in_(input), out_(out), positions_(options, out) {}
 
   void run();
 
@@ -102,7 +102,6 @@ class ttml_reader {
                std::vector<annotation>* words, std::vector<std::size_t>* word_offsets);
 
   std::string_view in_;
-  const read_options& options_;
   read_result& out_;
   std::map<std::string, std::string> prefixes_;
   std::map<std::string, std::string> agents_;  // agent id -> name

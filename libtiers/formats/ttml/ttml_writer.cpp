@@ -191,9 +191,35 @@ plan make_plan(const document& doc) {
           problem("malformed ttml: attributes");
       if (auto s = a.attributes.find("speaker");
           s != a.attributes.end() && !a.attributes.count("ttml:ttm:agent"))
-        if (!p.agent_ids.count(s->second))
-          p.agent_ids.emplace(s->second, "agent-" + std::to_string(p.agent_ids.size() + 1));
+        p.agent_ids.emplace(s->second, "");
     }
+  }
+  // Agents for speakers get ids no element or agent reference of the document uses already:
+  // a p that keeps its own ttm:agent must not come to name a generated speaker.
+  std::set<std::string> taken = ids;
+  for (const tier& t : doc.tiers)
+    for (const annotation& a : t.annotations) {
+      if (a.id) taken.insert(*a.id);
+      if (auto it = a.attributes.find("ttml:ttm:agent"); it != a.attributes.end()) {
+        std::string_view refs = it->second;
+        while (!refs.empty()) {
+          const std::size_t sp = refs.find(' ');
+          taken.insert(std::string(refs.substr(0, sp)));
+          refs = sp == std::string_view::npos ? std::string_view{} : refs.substr(sp + 1);
+        }
+      }
+    }
+  if (auto head = doc.metadata.find("ttml:head"); head != doc.metadata.end())
+    for (std::size_t at = head->second.find("xml:id=\""); at != std::string::npos;
+         at = head->second.find("xml:id=\"", at + 1)) {
+      const std::size_t from = at + 8, to = head->second.find('"', from);
+      taken.insert(head->second.substr(from, to == std::string::npos ? to : to - from));
+    }
+  std::size_t next = 1;
+  for (auto& [speaker, id] : p.agent_ids) {
+    do
+      id = "agent-" + std::to_string(next++);
+    while (taken.count(id));
   }
   return p;
 }

@@ -208,6 +208,12 @@ vtt_plan plan(const document& doc) {
   std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
     return cues.annotations[a].start < cues.annotations[b].start;
   });
+  // WebVTT's authoring rules want cues in start-time order (§4.1); the file keeps no other.
+  for (std::size_t k = 0; k < order.size(); ++k)
+    if (order[k] != k) {
+      problem("the order of cues that are not in start-time order (written sorted)");
+      break;
+    }
 
   // Markup is written as it is when it still spells the cue's text and speaker.
   const std::size_t n = cues.annotations.size();
@@ -313,10 +319,13 @@ vtt_plan plan(const document& doc) {
         problem("attributes " + quote_name(key) + " (not a WebVTT cue setting)");
     }
     if (auto it = a.attributes.find("vtt:note"); it != a.attributes.end()) {
-      if (valid_notes(it->second))
-        c.notes = it->second;
-      else
+      // Comments before the first cue belong to the file's prelude when read back.
+      if (!valid_notes(it->second))
         problem("malformed comments before cues");
+      else if (p.cues.empty())
+        problem("comments attached to the first cue (read back as the file's prelude)");
+      else
+        c.notes = it->second;
     }
 
     if (markup[k]) {

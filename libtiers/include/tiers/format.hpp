@@ -85,6 +85,11 @@ struct read_options {
   /// Record where each tier and annotation is in the input (read_result::positions), for
   /// messages that point at them. Off by default: it costs memory per annotation.
   bool positions = false;
+  /// Resource limits: a file beyond them is refused (`limit.text`, `limit.tiers`) rather than
+  /// read, since nothing sound needs more and a corrupt file (a quote left open) or a hostile
+  /// one can. Both can be raised (`--max-text-bytes`, `--max-tiers`).
+  std::size_t max_text = 4u << 20;  ///< bytes of one annotation's text or markup (4 MiB)
+  std::size_t max_tiers = 100'000;  ///< tiers in one document
 };
 
 /// Options for writing; the writer drops what the format cannot carry.

@@ -93,6 +93,10 @@ std::string format_duration(const duration_value& d);
 /// Exact decimal seconds with as few fraction digits as needed: `1.25`, `-0.000000001`, `3`.
 std::string format_seconds(time_ns t);
 
+/// The same into `out`, which has room for 32 bytes, without allocating; returns the length.
+/// For writers of millions of times.
+std::size_t format_seconds_to(time_ns t, char* out);
+
 /// Exact clock time: `01:02:03.25`, `00:00:00.000000001`, `-00:00:01.5`, `100:00:00` —
 /// hours at least two digits, as few fraction digits as needed. Reads back with parse_clock
 /// (after the sign).

@@ -81,7 +81,9 @@ void check_dataset(std::span<file_report> reports, const profile& p) {
   for (std::size_t k = 0; k < reports.size(); ++k) {
     if (!reports[k].shape) continue;
     const std::vector<tier_shape>& mine = *reports[k].shape;
-    for (const auto& [name, x] : tiers) {
+    for (const auto& entry : tiers) {
+      const std::string& name = entry.first;
+      const seen& x = entry.second;
       if (p.find_tier(name)) continue;  // the profile's own rules hold it to account
       const auto it = std::find_if(mine.begin(), mine.end(),
                                    [&](const tier_shape& t) { return t.name == name; });

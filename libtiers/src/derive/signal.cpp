@@ -16,11 +16,12 @@ namespace {
 using detail::make_diagnostic;
 using detail::quote_name;
 
+// A row's key and where it is; its scores go straight into one flat array, row after row, so
+// that a row costs no allocation of its own.
 struct raw_row {
   std::int64_t frame = 0;  // when rows are frames
   time_ns time = 0;
   std::size_t offset = 0;  // of the row
-  std::vector<double> values;
 };
 
 class signal_reader {
@@ -49,6 +50,7 @@ class signal_reader {
   std::size_t key_column_ = 0;
   std::vector<std::size_t> score_columns_;
   std::vector<raw_row> rows_;
+  std::vector<double> values_;  // rows_.size() × score columns, row by row
 };
 
 bool signal_reader::header(const std::vector<std::string>& names, std::size_t offset) {
@@ -167,9 +169,9 @@ void signal_reader::read_table(char delimiter) {
       const detail::table_cell& c = cells[score_columns_[k]];
       double v = 0;
       if (!value(c.text, c.offset, out_.value.names[k], v)) return;
-      row.values.push_back(v);
+      values_.push_back(v);
     }
-    rows_.push_back(std::move(row));
+    rows_.push_back(row);
   }
   if (scanner.failed()) out_.diagnostics.push_back(scanner.problem);
 }
@@ -219,45 +221,60 @@ void signal_reader::read_lines() {
                                                             : std::string_view(),
                  line_start + v->offset, column, x))
         return;
-      row.values.push_back(x);
+      values_.push_back(x);
     }
-    rows_.push_back(std::move(row));
+    rows_.push_back(row);
   }
   if (names.empty()) error("derive.header", 0, "the file has no lines");
 }
 
 void signal_reader::finish() {
   if (!out_.ok()) return;
-  std::stable_sort(rows_.begin(), rows_.end(),
-                   [](const raw_row& a, const raw_row& b) { return a.time < b.time; });
+  // Rows in time order; a file already in order (the usual case) is not sorted again.
+  const bool sorted =
+      std::is_sorted(rows_.begin(), rows_.end(),
+                     [](const raw_row& a, const raw_row& b) { return a.time < b.time; });
+  std::vector<std::size_t> order;  // empty when the rows are in order already
+  if (!sorted) {
+    order.resize(rows_.size());
+    std::iota(order.begin(), order.end(), std::size_t{0});
+    std::stable_sort(order.begin(), order.end(),
+                     [&](std::size_t a, std::size_t b) { return rows_[a].time < rows_[b].time; });
+  }
+  auto row_at = [&](std::size_t k) { return sorted ? k : order[k]; };
   signal& s = out_.value;
-  for (std::size_t k = 1; k < rows_.size(); ++k)
-    if (rows_[k].time == rows_[k - 1].time) {
-      const raw_row& later = rows_[k].offset > rows_[k - 1].offset ? rows_[k] : rows_[k - 1];
+  for (std::size_t k = 1; k < rows_.size(); ++k) {
+    const raw_row& p = rows_[row_at(k - 1)];
+    const raw_row& r = rows_[row_at(k)];
+    if (r.time == p.time) {
+      const raw_row& later = r.offset > p.offset ? r : p;
       error("derive.duplicate", later.offset,
             (frames_ ? "frame " + std::to_string(later.frame)
                      : "time " + format_seconds(later.time)) +
                 " appears twice (one value per " + (frames_ ? "frame" : "time") + ")");
       return;
     }
+  }
   // The usual step between rows: a frame, or the median time difference.
   time_ns step = 0;
-  if (frames_) {
-    step = 0;
-  } else if (rows_.size() > 1) {
+  if (!frames_ && rows_.size() > 1) {
     std::vector<time_ns> d;
+    d.reserve(rows_.size() - 1);
     for (std::size_t k = 1; k < rows_.size(); ++k)
-      d.push_back(rows_[k].time - rows_[k - 1].time);
+      d.push_back(rows_[row_at(k)].time - rows_[row_at(k - 1)].time);
     step = quantile(d, 0.5);
   }
-  s.scores.assign(s.names.size(), {});
-  for (std::size_t k = 0; k < rows_.size(); ++k) {
-    const raw_row& r = rows_[k];
-    bool gap = false;
+  const std::size_t columns = s.names.size(), n = rows_.size();
+  s.scores.assign(columns, std::vector<double>(n));
+  s.times.resize(n);
+  s.after_gap.assign(n, false);
+  for (std::size_t k = 0; k < n; ++k) {
+    const raw_row& r = rows_[row_at(k)];
     if (k > 0) {
-      const raw_row& p = rows_[k - 1];
-      gap = frames_ ? r.frame - p.frame > 1 : 2 * (r.time - p.time) > 3 * step;
+      const raw_row& p = rows_[row_at(k - 1)];
+      const bool gap = frames_ ? r.frame - p.frame > 1 : 2 * (r.time - p.time) > 3 * step;
       if (gap) {
+        s.after_gap[k] = true;
         out_.diagnostics.push_back(make_diagnostic(
             severity::warning, "derive.missing", r.offset,
             (frames_
@@ -267,17 +284,18 @@ void signal_reader::finish() {
                 " are missing: no interval spans them, and no score is made up"));
       }
     }
-    s.times.push_back(r.time);
-    s.after_gap.push_back(gap);
-    for (std::size_t c = 0; c < s.names.size(); ++c)
-      s.scores[c].push_back(r.values[c]);
+    s.times[k] = r.time;
+    for (std::size_t c = 0; c < columns; ++c)
+      s.scores[c][k] = values_[row_at(k) * columns + c];
   }
-  for (std::size_t k = 0; k < rows_.size(); ++k) {
-    const bool last = k + 1 == rows_.size() || s.after_gap[k + 1];
+  std::vector<double>().swap(values_);
+  s.ends.resize(n);
+  for (std::size_t k = 0; k < n; ++k) {
+    const bool last = k + 1 == n || s.after_gap[k + 1];
     if (frames_)
-      s.ends.push_back(frame_time(rows_[k].frame + 1, *options_.rate).value);
+      s.ends[k] = frame_time(rows_[row_at(k)].frame + 1, *options_.rate).value;
     else
-      s.ends.push_back(last ? rows_[k].time + step : rows_[k + 1].time);
+      s.ends[k] = last ? s.times[k] + step : s.times[k + 1];
   }
 }
 

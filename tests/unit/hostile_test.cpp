@@ -1,0 +1,107 @@
+// Hostile input, in process: every sample cut at every byte, random bytes, and the resource
+// limits. A reader may refuse, but never crash or hang, and says what and where.
+#include <catch2/catch.hpp>
+#include <random>
+
+#include "support.hpp"
+
+using namespace tiers;
+
+namespace {
+
+// Every diagnostic says what and where (when it has a byte offset, a line and column too).
+void require_worded(const read_result& r, std::string_view input) {
+  for (const diagnostic& d : r.diagnostics) {
+    INFO(format_diagnostic(d));
+    REQUIRE_FALSE(d.code.empty());
+    REQUIRE_FALSE(d.message.empty());
+    if (d.offset != no_offset) {
+      REQUIRE(d.offset <= input.size() + 3);  // +3: a repaired U+FFFD may lengthen WebVTT
+      REQUIRE(d.line > 0);
+    }
+  }
+  if (!r.ok()) REQUIRE(has_errors(r.diagnostics));
+}
+
+const std::vector<std::pair<std::string, std::string>> samples{
+    {"panel-discussion.json", "json"},     {"panel-discussion.csv", "csv"},
+    {"panel-discussion.tsv", "tsv"},       {"panel-discussion.vtt", "vtt"},
+    {"panel-discussion.ttml", "ttml"},     {"panel-discussion.tiers", "tiers"},
+    {"panel-discussion.flat.json", "json"}};
+
+}  // namespace
+
+TEST_CASE("every sample cut at every byte is read or refused, with a located reason", "[hostile]") {
+  for (const auto& [file, name] : samples) {
+    const std::string text = test::sample(file);
+    REQUIRE_FALSE(text.empty());
+    const format& fmt = *find_format(name);
+    std::size_t refused = 0;
+    for (std::size_t cut = 0; cut <= text.size(); ++cut) {
+      const std::string_view part(text.data(), cut);
+      const read_result r = read_document(part, fmt, {}, file);
+      require_worded(r, part);
+      refused += !r.ok();
+    }
+    INFO(file);
+    CHECK(refused > 0);  // cuts inside a structure are refused
+  }
+}
+
+TEST_CASE("random bytes are refused or read, never a crash", "[hostile]") {
+  std::mt19937 rng(20261202);
+  std::uniform_int_distribution<int> byte(0, 255), length(0, 400);
+  for (const format& fmt : formats())
+    for (int k = 0; k < 300; ++k) {
+      std::string junk(static_cast<std::size_t>(length(rng)), '\0');
+      for (char& c : junk)
+        c = static_cast<char>(byte(rng));
+      if (k % 3 == 0) junk = "WEBVTT\n\n" + junk;  // get past the signatures some of the time
+      if (k % 3 == 1) junk = "tiers 1\n" + junk;
+      require_worded(read_document(junk, fmt, {}, "junk"), junk);
+    }
+}
+
+TEST_CASE("resource limits refuse what nothing sound needs, where it is", "[hostile]") {
+  // A 20 MB field: a quote left open in a real file can swallow the rest of it like this.
+  std::string big = "tier,start,end,text\nt,1,2,short\nt,3,4,\"";
+  big.append(20u << 20, 'x');
+  big += "\"\n";
+  const read_result r = read_document(big, *find_format("csv"), {}, "big.csv");
+  REQUIRE_FALSE(r.ok());
+  CHECK(r.diagnostics.back().code == "limit.text");
+  CHECK(r.diagnostics.back().line == 3);
+  read_options generous;
+  generous.max_text = 32u << 20;
+  CHECK(read_document(big, *find_format("csv"), generous, "big.csv").ok());
+
+  // A million tiers.
+  std::string many = "{\"format\": \"tiers\", \"version\": 1, \"tiers\": [";
+  for (int k = 0; k < 1'000'000; ++k)
+    many += (k ? ",{\"name\":\"t" : "{\"name\":\"t") + std::to_string(k) + "\"}";
+  many += "]}";
+  const read_result m = read_document(many, *find_format("json"), {}, "many.json");
+  REQUIRE_FALSE(m.ok());
+  CHECK(m.diagnostics.back().code == "limit.tiers");
+  CHECK(m.diagnostics.back().column > 1'000'000);  // at the first tier beyond the limit
+}
+
+TEST_CASE("numbers with thousands of digits and times beyond range are refused quickly",
+          "[hostile]") {
+  const std::string digits(5000, '9');
+  for (const std::string& t :
+       std::vector<std::string>{digits, "0." + digits, "1e300", "-1e300", digits + "e-4990"}) {
+    const std::string doc =
+        "{\"format\": \"tiers\", \"version\": 1, \"tiers\": [{\"name\": \"t\", "
+        "\"annotations\": [{\"start\": " +
+        t + ", \"end\": 1}]}]}";
+    const read_result r = read_document(doc, *find_format("json"), {}, "t.json");
+    require_worded(r, doc);
+  }
+  const std::string doc =
+      "{\"format\": \"tiers\", \"version\": 1, \"tiers\": [{\"name\": \"t\", "
+      "\"annotations\": [{\"start\": " +
+      digits + ", \"end\": 1}]}]}";
+  CHECK(read_document(doc, *find_format("json"), {}, "t.json").diagnostics.back().code ==
+        "time.range");
+}
