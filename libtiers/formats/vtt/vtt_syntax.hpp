@@ -82,6 +82,22 @@ cue_text parse_cue_text(std::string_view text);
 /// the first timestamp starts with the cue. Pieces with no text but white space are left out.
 std::vector<annotation> timed_words(const cue_text& parsed, time_ns cue_start, time_ns cue_end);
 
-using detail::append_escaped;  ///< cue text escapes `&`, `<` and `>` (tiers/detail/markup.hpp)
+using detail::append_escaped;  ///< escapes `&`, `<` and `>` (tiers/detail/markup.hpp)
+
+/// Appends plain text as cue text (§4.2.2): `&` and `<` as references, `>` only where it would
+/// close a `-->` that cue text may not hold. A raw `>` elsewhere is how such text is read, so
+/// the text is written as a reader would have found it and reads back without markup.
+inline void append_cue_text(std::string& out, std::string_view text) {
+  for (char c : text) {
+    if (c == '&')
+      out += "&amp;";
+    else if (c == '<')
+      out += "&lt;";
+    else if (c == '>' && out.ends_with("--"))
+      out += "&gt;";
+    else
+      out += c;
+  }
+}
 
 }  // namespace tiers::detail::vtt

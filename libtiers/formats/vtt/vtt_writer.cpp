@@ -71,15 +71,15 @@ std::optional<std::string> karaoke(const annotation& cue,
     std::size_t skip = pos;
     while (skip < text.size() && is_space(text[skip]))
       ++skip;
-    append_escaped(out, text.substr(pos, skip - pos));
+    append_cue_text(out, text.substr(pos, skip - pos));
     if (w->text.empty() || text.substr(skip, w->text.size()) != w->text) return std::nullopt;
     if (w->start != cue.start) out += "<" + format_timestamp(w->start) + ">";
-    append_escaped(out, w->text);
+    append_cue_text(out, w->text);
     pos = skip + w->text.size();
   }
   if (text.substr(pos).find_first_not_of(" \t\n\f\r") != std::string_view::npos)
     return std::nullopt;
-  append_escaped(out, text.substr(pos));
+  append_cue_text(out, text.substr(pos));
   return out;
 }
 
@@ -110,7 +110,7 @@ std::string text_body(const annotation& a, const std::vector<const annotation*>&
   if (timed)
     body = std::move(*timed);
   else
-    append_escaped(body, a.text);
+    append_cue_text(body, a.text);
   if (auto speaker = a.attributes.find("speaker"); speaker != a.attributes.end()) {
     // The tokenizer trims and collapses white space in a voice's name (§6.4).
     std::string collapsed;
@@ -121,6 +121,9 @@ std::string text_body(const annotation& a, const std::vector<const annotation*>&
       problem("speakers with white space WebVTT collapses");
     std::string name;
     append_escaped(name, speaker->second);
+    // A name ending in "--" would make the line hold "-->", which ends cue text; the space
+    // before '>' keeps them apart and is trimmed away again on reading.
+    if (name.ends_with('-')) name += ' ';
     body = "<v " + name + ">" + body;
   }
   // A blank line would end the cue early: keep the lines that have text.
