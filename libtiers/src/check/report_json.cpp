@@ -117,7 +117,7 @@ void write_check_json(std::span<const file_report> reports, byte_sink& out) {
         if (s.where.line > 0) {
           write_count(out, "line", s.where.line);
           write_count(out, "column", s.where.column);
-          write_count(out, "offset", s.where.offset);
+          if (s.where.offset != no_offset) write_count(out, "offset", s.where.offset);
         }
         out.put('}');
       }

@@ -1,6 +1,7 @@
 // Reading check reports back (the JSON of write_check_json), for combining the reports of runs
 // over parts of a dataset into one.
 #include <charconv>
+#include <cmath>
 
 #include "../json_tree.hpp"
 #include "tiers/check.hpp"
@@ -51,9 +52,15 @@ class report_reader {
     }
     return t.value;
   }
+  // A count or a line number: a whole number a double holds exactly (up to 2^53).
   std::size_t count(json_fields& f, std::string_view key) {
     const auto v = f.number(key);
-    return v && *v >= 0 ? static_cast<std::size_t>(*v) : 0;
+    if (!v) return 0;
+    if (!(*v >= 0 && *v <= 9007199254740992.0 && std::floor(*v) == *v)) {
+      f.bad(*f.get(key), detail::quote_name(key) + " must be a whole number from 0");
+      return 0;
+    }
+    return static_cast<std::size_t>(*v);
   }
 
   void problem_of(const json_node& n, file_report& r) {

@@ -264,6 +264,17 @@ void signal_reader::finish() {
       d.push_back(rows_[row_at(k)].time - rows_[row_at(k - 1)].time);
     step = quantile(d, 0.5);
   }
+  // One row by time has no step to measure: it lasts a frame of --rate, else it cannot be read
+  // as a span at all.
+  if (!frames_ && rows_.size() == 1) {
+    if (!options_.rate) {
+      error("derive.time", rows_.front().offset,
+            "a single row by time has no length (nothing to measure a step from); give --rate "
+            "to make it last one frame");
+      return;
+    }
+    step = std::max<time_ns>(1, frame_time(1, *options_.rate).value);
+  }
   const std::size_t columns = s.names.size(), n = rows_.size();
   s.scores.assign(columns, std::vector<double>(n));
   s.times.resize(n);
