@@ -7,6 +7,7 @@
 
 #include "batch.hpp"
 #include "check_inputs.hpp"
+#include "report_command.hpp"
 #include "text_table.hpp"
 #include "tiers/io.hpp"
 
@@ -31,6 +32,10 @@ CLI::App* setup_check(CLI::App& app, check_options& o) {
       ->type_name("FORMAT");
   cmd->add_option("-o,--output", o.output, "Write the report to this file (default: stdout)")
       ->type_name("FILE");
+  cmd->add_option("--html", o.html,
+                  "Also write the report as an HTML page that draws the files' tiers, problems "
+                  "and lag (as `tiers report` does)")
+      ->type_name("FILE");
   cmd->add_option("--jobs", o.jobs, "Files checked at once (default: one per core)")
       ->type_name("N");
   cmd->add_option("--max-warnings", o.max_warnings,
@@ -53,15 +58,6 @@ CLI::App* setup_check(CLI::App& app, check_options& o) {
 }
 
 namespace {
-
-profile load(const check_options& o) {
-  if (o.profile.empty()) return {};
-  profile_result r = load_profile(o.profile);
-  for (const diagnostic& d : r.diagnostics)
-    report(d);
-  if (!r.ok()) throw rejected();
-  return std::move(r.value);
-}
 
 std::string limits_of(const rule_info& r, const profile& p) {
   const check_limits& l = p.limits;
@@ -197,8 +193,44 @@ std::vector<file_report> combine_reports(const std::vector<std::string>& paths, 
 
 }  // namespace
 
+profile load_check_profile(const std::string& name) {
+  if (name.empty()) return {};
+  profile_result r = load_profile(name);
+  for (const diagnostic& d : r.diagnostics)
+    report(d);
+  if (!r.ok()) throw rejected();
+  return std::move(r.value);
+}
+
+check_run run_checks(const check_options& o, const profile& p, std::size_t keep_documents) {
+  if (o.paths.empty()) throw usage_error("name the files or folders to check");
+  reading_options(o.input, "");  // bad option values are usage errors before any work
+  check_run run;
+  if (!o.captions.empty()) run.roles.captions = o.captions;
+  if (!o.words.empty()) {
+    if (std::optional<words_file> w = words_file_of(o.words, o.input, run.roles.words)) {
+      run.words = std::make_unique<words_file>(std::move(*w));
+      run.roles.words_doc = &run.words->doc;
+      run.roles.words_file = run.words->path;
+      run.roles.words = run.words->tier;
+    }
+  }
+  if (o.combine) {
+    run.reports = combine_reports(o.paths, p);
+    return run;
+  }
+  std::vector<std::string> files;
+  for (input_file& f : expand_inputs(o.paths))
+    files.push_back(std::move(f.path));
+  if (!o.shard.empty()) files = shard_of(std::move(files), o.shard);
+  if (files.empty() && o.shard.empty()) throw usage_error("the folders named hold no tier files");
+  run.reports =
+      check_files(files, o, p, run.roles, o.shard.empty(), &run.documents, keep_documents);
+  return run;
+}
+
 int run_check(const check_options& o) {
-  const profile p = load(o);
+  const profile p = load_check_profile(o.profile);
   if (o.list_profiles) {
     std::string text;
     for (std::string_view name : builtin_profiles()) {
@@ -212,34 +244,18 @@ int run_check(const check_options& o) {
   }
   if (o.list_rules) return list_rules(p);
   if (o.paths.empty()) throw usage_error("check: name the files or folders to check");
-  reading_options(o.input, "");  // bad option values are usage errors before any work
-
-  check_context roles;
-  if (!o.captions.empty()) roles.captions = o.captions;
-  std::optional<words_file> words;
-  if (!o.words.empty()) {
-    words = words_file_of(o.words, o.input, roles.words);
-    if (words) {
-      roles.words_doc = &words->doc;
-      roles.words_file = words->path;
-      roles.words = words->tier;
-    }
+  if (!o.html.empty() && o.combine)
+    throw usage_error("check: --html draws the files, which --combine does not read");
+  const check_run run = run_checks(o, p, o.html.empty() ? 0 : html_drawn_files);
+  write_report(o, run.reports);
+  if (!o.html.empty()) {
+    html_request page;
+    page.output = o.html;
+    page.title = "tiers check";
+    write_html_page(page, run, p);
   }
-  std::vector<file_report> reports;
-  if (o.combine) {
-    reports = combine_reports(o.paths, p);
-  } else {
-    std::vector<std::string> files;
-    for (input_file& f : expand_inputs(o.paths))
-      files.push_back(std::move(f.path));
-    if (!o.shard.empty()) files = shard_of(std::move(files), o.shard);
-    if (files.empty() && o.shard.empty())
-      throw usage_error("check: the folders named hold no tier files");
-    reports = check_files(files, o, p, roles, o.shard.empty());
-  }
-  write_report(o, reports);
 
-  const check_summary s = summarize(reports);
+  const check_summary s = summarize(run.reports);
   if (s.errors > 0) return exit_rejected;
   if (o.max_warnings >= 0 && s.warnings > static_cast<std::size_t>(o.max_warnings)) {
     std::fprintf(stderr, "tiers: error: %zu warnings, more than --max-warnings %ld allows\n",

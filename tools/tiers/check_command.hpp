@@ -2,10 +2,13 @@
 #pragma once
 
 #include <CLI/CLI.hpp>
+#include <memory>
+#include <optional>
 #include <string>
 #include <vector>
 
 #include "cli_common.hpp"
+#include "tiers/check.hpp"
 
 namespace tiers::cli {
 
@@ -17,6 +20,7 @@ struct check_options {
   std::string words;
   std::string format = "text";
   std::string output;
+  std::string html;   ///< also write the HTML report here
   unsigned jobs = 0;  ///< 0: one per core
   long max_warnings = -1;
   std::string shard;     ///< K/N: this worker's part of the files
@@ -28,5 +32,19 @@ struct check_options {
 /// Adds the subcommand to `app`; its options land in `options`.
 CLI::App* setup_check(CLI::App& app, check_options& options);
 int run_check(const check_options& options);
+
+/// The profile named by --profile (a built-in name or a file); the defaults for none.
+profile load_check_profile(const std::string& name);
+
+/// What checking the inputs of `options` found, shared by `check` and `report`.
+struct check_run {
+  std::unique_ptr<words_file> words;  ///< --words FILE, which `roles` points into
+  check_context roles;
+  std::vector<file_report> reports;
+  std::vector<std::optional<document>> documents;  ///< the first few files', for drawing
+};
+/// Checks the files (or combines the reports) that `options` name against `p`, keeping the
+/// documents of the first `keep_documents` files.
+check_run run_checks(const check_options& options, const profile& p, std::size_t keep_documents);
 
 }  // namespace tiers::cli

@@ -21,7 +21,7 @@ namespace fs = std::filesystem;
 namespace {
 
 file_report check_one(const std::string& path, const check_options& o, const profile& p,
-                      const check_context& shared) {
+                      const check_context& shared, std::optional<document>* keep) {
   const std::string name = display_name(path);
   auto unreadable = [&](diagnostic d) {
     d.file = name;
@@ -45,20 +45,24 @@ file_report check_one(const std::string& path, const check_options& o, const pro
   // A WebVTT file is a caption file: its cues are checked as captions unless told otherwise.
   if (!roles.captions && !p.captions && fmt->name == "vtt" && !r.doc.tiers.empty())
     roles.captions = r.doc.tiers.front().name;
-  return check_document(r.doc, r.positions, name, p, roles, r.diagnostics);
+  file_report report = check_document(r.doc, r.positions, name, p, roles, r.diagnostics);
+  if (keep) *keep = std::move(r.doc);
+  return report;
 }
 
 }  // namespace
 
 std::vector<file_report> check_files(const std::vector<std::string>& files, const check_options& o,
                                      const profile& p, const check_context& roles,
-                                     bool whole_dataset) {
+                                     bool whole_dataset, std::vector<std::optional<document>>* docs,
+                                     std::size_t keep) {
   std::vector<file_report> results(files.size());
+  if (docs) docs->assign(files.size(), std::nullopt);
   run_parallel(
       files.size(), o.jobs,
       [&](std::size_t k) {
         try {
-          results[k] = check_one(files[k], o, p, roles);
+          results[k] = check_one(files[k], o, p, roles, docs && k < keep ? &(*docs)[k] : nullptr);
         } catch (const std::exception& e) {  // out of memory, above all: that file fails alone
           diagnostic d;
           d.file = display_name(files[k]);

@@ -11,6 +11,7 @@
 #include "edit_command.hpp"
 #include "info_command.hpp"
 #include "merge_command.hpp"
+#include "report_command.hpp"
 #include "retime_command.hpp"
 #include "tiers/io.hpp"
 #include "tiers/version.hpp"
@@ -33,6 +34,7 @@ int main(int argc, char** argv) {
   derive_options_cli derive;
   retime_options_cli retime;
   edit_options edit;
+  report_options report_opts;
   const CLI::App* convert_cmd = setup_convert(app, convert);
   const CLI::App* info_cmd = setup_info(app, info);
   const CLI::App* check_cmd = setup_check(app, check);
@@ -41,6 +43,7 @@ int main(int argc, char** argv) {
   const CLI::App* derive_cmd = setup_derive(app, derive);
   const CLI::App* retime_cmd = setup_retime(app, retime);
   const CLI::App* edit_cmd = setup_edit(app, edit);
+  const CLI::App* report_cmd = setup_report(app, report_opts);
 
   try {
     app.parse(argc, argv);
@@ -52,6 +55,7 @@ int main(int argc, char** argv) {
     if (derive_cmd->parsed()) return run_derive(derive);
     if (retime_cmd->parsed()) return run_retime(retime);
     if (edit_cmd->parsed()) return run_edit(edit);
+    if (report_cmd->parsed()) return run_report(report_opts);
   } catch (const CLI::CallForHelp& e) {
     return app.exit(e);
   } catch (const CLI::CallForAllHelp& e) {

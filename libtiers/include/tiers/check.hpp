@@ -49,6 +49,12 @@ struct lag_report {
   lag_statistics stats;
   std::size_t tokens = 0;   ///< caption words
   std::size_t matched = 0;  ///< caption words found among the timed words
+  /// Every cue with a lag: its start and its lag, in the caption tier's order. For drawing
+  /// (the HTML report); JSON reports carry only the statistics.
+  struct point {
+    time_ns at, lag;
+  };
+  std::vector<point> points;
 };
 
 /// What a file's tiers look like, kept to compare the files of a dataset.

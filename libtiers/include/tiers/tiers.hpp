@@ -7,6 +7,7 @@
 #include "tiers/diagnostic.hpp"
 #include "tiers/edit.hpp"
 #include "tiers/format.hpp"
+#include "tiers/html_report.hpp"
 #include "tiers/info.hpp"
 #include "tiers/io.hpp"
 #include "tiers/lag.hpp"

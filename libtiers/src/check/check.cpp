@@ -171,6 +171,7 @@ void checker::check_lag(std::size_t c) {
   for (std::size_t k = 0; k < al.cues.size(); ++k) {
     const std::optional<time_ns>& lag = al.cues[k].lag;
     if (!lag) continue;
+    report.points.push_back({captions.annotations[k].start, *lag});
     problem* p = nullptr;
     if (*lag > l.max_late)
       p = emit("lag.late", c, k,

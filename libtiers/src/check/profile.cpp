@@ -8,7 +8,7 @@
 #include <filesystem>
 
 #include "../json_tree.hpp"
-#include "builtin_profiles.hpp"
+#include "embedded.hpp"
 #include "tiers/detail/report.hpp"
 #include "tiers/io.hpp"
 
@@ -126,7 +126,7 @@ void profile_reader::read_extends(const json_node& n, const std::string& name) {
              "'extends' goes " + std::to_string(max_extends) + " profiles deep: is there a loop?");
     return;
   }
-  for (const detail::builtin_profile& b : detail::builtin_profile_table())
+  for (const detail::embedded_file& b : detail::builtin_profile_table())
     if (b.name == name) {
       profile_reader(b.text, "builtin:" + std::string(b.name), depth_ + 1, out_, problems_).run();
       return;
@@ -276,7 +276,7 @@ const tier_spec* profile::find_tier(std::string_view tier_name) const {
 
 std::vector<std::string_view> builtin_profiles() {
   std::vector<std::string_view> out;
-  for (const detail::builtin_profile& b : detail::builtin_profile_table())
+  for (const detail::embedded_file& b : detail::builtin_profile_table())
     out.push_back(b.name);
   return out;
 }
@@ -289,7 +289,7 @@ profile_result read_profile(std::string_view text, const std::string& file) {
 }
 
 profile_result load_profile(const std::string& name_or_path) {
-  for (const detail::builtin_profile& b : detail::builtin_profile_table())
+  for (const detail::embedded_file& b : detail::builtin_profile_table())
     if (b.name == name_or_path) {
       profile_result r = read_profile(b.text, "builtin:" + name_or_path);
       r.value.name = name_or_path;

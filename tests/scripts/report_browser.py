@@ -1,0 +1,151 @@
+#!/usr/bin/python3
+"""The HTML report in a real browser: Debian's chromium, headless, driven by playwright-core
+(tests/npm-reference, pinned by its lock file; see report_browser.cjs for what is checked there).
+
+Pages made here, each opened in the browser, with a screenshot left in OUTPUT_DIR:
+- the samples' main document, its captions' lag against its words, and its human gestures
+  against the invented detector's (another file);
+- several files of one recording in different formats, and a check corpus page written by
+  `tiers check --html` (with a file that cannot be read: listed, not drawn);
+- a document whose tier names and texts try to close the script element and open a dialog;
+- an invented hour of media (tiers-corpus, ~12,500 annotations in six tiers), whose lanes must
+  hold a bounded number of elements at the whole-file view.
+The expected tiers of each file are what `tiers convert --to json` reads from it.
+
+Usage: report_browser.py TIERS TIERS_CORPUS NPM_REFERENCE_DIR SAMPLES CHECK_CORPUS OUTPUT_DIR
+"""
+import json
+import os
+import shutil
+import subprocess
+import sys
+
+failures = []
+
+
+def check(what, ok, detail=""):
+    print(("ok  " if ok else "FAIL"), what, detail)
+    if not ok:
+        failures.append(what)
+
+
+def tiers_of(tiers, path):
+    r = subprocess.run([tiers, "convert", path, "--to", "json"], capture_output=True, text=True)
+    if r.returncode != 0:
+        raise SystemExit(f"FAIL tiers convert {path}: {r.stderr}")
+    return [t["name"] for t in json.loads(r.stdout)["tiers"]]
+
+
+def browse(reference, page, expect, shot, what):
+    expect_path = page + ".expect.json"
+    with open(expect_path, "w") as fh:
+        json.dump(expect, fh)
+    r = subprocess.run(["node", os.path.join(reference, "report_browser.cjs"), page, expect_path,
+                        shot], capture_output=True, text=True, timeout=600)
+    check(what, r.returncode == 0 and os.path.getsize(shot) > 10_000,
+          (r.stdout + r.stderr).strip())
+
+
+def main():
+    tiers, corpus, reference, samples, check_corpus, out = sys.argv[1:7]
+    shutil.rmtree(out, ignore_errors=True)
+    os.makedirs(out)
+    if not os.path.exists("/usr/bin/chromium"):
+        raise SystemExit("FAIL /usr/bin/chromium is missing: run scripts/install-deps")
+
+    # 1. The samples: lanes, lag, agreement with a tier of another file.
+    main_doc = os.path.join(samples, "panel-discussion.json")
+    machine = os.path.join(samples, "panel-discussion.machine-gestures.json")
+    page = os.path.join(out, "samples.html")
+    r = subprocess.run([tiers, "report", main_doc, "--captions", "captions", "--words", "words",
+                        "--ref-tier", "gestures", "--cand-tier", machine, "-o", page,
+                        "--title", "Panel discussion (invented demo)"],
+                       capture_output=True, text=True)
+    check("report of the samples exits 0", r.returncode == 0, r.stderr)
+    names = tiers_of(tiers, main_doc) + ["gestures (panel-discussion.machine-gestures.json)"]
+    browse(reference, page, {"files": [{"tiers": names, "lag": True, "agreement": True}],
+                             "problems": 1}, os.path.join(out, "samples.png"),
+           "samples page: lanes, lag, agreement, problem rows")
+
+    # 2. One recording in several formats, on one page.
+    files = [os.path.join(samples, f) for f in
+             ("panel-discussion.tiers", "panel-discussion.vtt", "panel-discussion.ttml",
+              "gesture-phases.timecode.csv")]
+    page = os.path.join(out, "formats.html")
+    r = subprocess.run([tiers, "report", *files, "--columns",
+                        "tier=Layer,start=Begin,end=End,text=Value", "--rate", "25", "-o", page],
+                       capture_output=True, text=True)
+    if r.returncode != 0:  # --columns applies to the table only; the others ignore it
+        check("report of several formats exits 0", False, r.stderr)
+    else:
+        expect = {"files": [{"tiers": tiers_of_with(tiers, f), "lag": False, "agreement": False}
+                            for f in files]}
+        browse(reference, page, expect, os.path.join(out, "formats.png"),
+               "several formats on one page")
+
+    # 3. `tiers check --html`: exit status as check's; an unreadable file listed, not drawn.
+    picked = ["time.order.json", "tier.duplicate-name.json", "time.range.json"]
+    paths = [os.path.join(check_corpus, f) for f in picked]
+    page = os.path.join(out, "check.html")
+    r = subprocess.run([tiers, "check", *paths, "--html", page], capture_output=True, text=True)
+    check("check --html exits 1 for a file with errors", r.returncode == 1, r.stderr)
+    check("check --html still prints its text report", "time.order" in r.stderr + r.stdout)
+    expect = {"files": [{"tiers": tiers_of(tiers, paths[0]), "lag": False, "agreement": False},
+                        {"tiers": tiers_of(tiers, paths[1]), "lag": False, "agreement": False},
+                        {"drawn": False}], "problems": 1}
+    browse(reference, page, expect, os.path.join(out, "check.png"),
+           "check --html: duplicate tier names each have a lane; the unreadable file is listed")
+    with open(page, encoding="utf-8") as fh:
+        text = fh.read()
+    check("the unreadable file's error is in the page", "time.range" in text)
+
+    # 4. Names and texts that try to break out of the page.
+    hostile = "</script><script>alert(1)</script><!-- \"q\" & 'a'"
+    doc = {"format": "tiers", "version": 1, "tiers": [
+        {"name": hostile, "kind": "interval", "annotations": [
+            {"start": 1, "end": 2, "text": hostile}, {"start": 3, "end": 4, "text": "<b>x</b>"}]},
+        {"name": "plain", "kind": "interval", "annotations": [
+            {"start": 0.5, "end": 3.5, "text": "]]></svg><img src=x onerror=alert(2)>"}]}]}
+    hostile_path = os.path.join(out, "hostile.json")
+    with open(hostile_path, "w") as fh:
+        json.dump(doc, fh)
+    page = os.path.join(out, "hostile.html")
+    r = subprocess.run([tiers, "report", hostile_path, "-o", page, "--title", hostile],
+                       capture_output=True, text=True)
+    check("report of hostile names exits 0", r.returncode == 0, r.stderr)
+    browse(reference, page, {"files": [{"tiers": [hostile, "plain"], "lag": False,
+                                        "agreement": False}]},
+           os.path.join(out, "hostile.png"), "hostile names stay text: no script runs, lanes match")
+
+    # 5. An invented hour: opens, every lane drawn, drawing bounded by the screen.
+    hour_dir = os.path.join(out, "hour")
+    subprocess.run([corpus, "--hours", "1", "--only", "json", "--out", hour_dir], check=True,
+                   capture_output=True)
+    hour = os.path.join(hour_dir, "corpus.json")
+    page = os.path.join(out, "hour.html")
+    r = subprocess.run([tiers, "report", hour, "--captions", "captions", "--words", "words",
+                        "--ref-tier", "gestures", "--cand-tier", "detector", "-o", page],
+                       capture_output=True, text=True)
+    check("report of an hour exits 0", r.returncode == 0, r.stderr)
+    browse(reference, page, {"files": [{"tiers": tiers_of(tiers, hour), "lag": True,
+                                        "agreement": True}], "problems": 1, "bounded": True},
+           os.path.join(out, "hour.png"), "an hour of media: opens, drawn, bounded")
+
+    print(f"screenshots in {out}")
+    if failures:
+        print(f"{len(failures)} failed")
+        return 1
+    return 0
+
+
+def tiers_of_with(tiers, path):
+    r = subprocess.run([tiers, "convert", path, "--to", "json", "--columns",
+                        "tier=Layer,start=Begin,end=End,text=Value", "--rate", "25"],
+                       capture_output=True, text=True)
+    if r.returncode != 0:
+        raise SystemExit(f"FAIL tiers convert {path}: {r.stderr}")
+    return [t["name"] for t in json.loads(r.stdout)["tiers"]]
+
+
+if __name__ == "__main__":
+    sys.exit(main())

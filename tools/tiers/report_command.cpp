@@ -1,0 +1,173 @@
+// `tiers report FILE… -o OUT.html [--profile P] [--captions T --words W] [--ref-tier A
+// --cand-tier B]`: checks the files as `tiers check` does and draws them on one page.
+#include "report_command.hpp"
+
+#include <filesystem>
+
+#include "tiers/detail/report.hpp"
+#include "tiers/html_report.hpp"
+#include "tiers/io.hpp"
+
+namespace tiers::cli {
+
+CLI::App* setup_report(CLI::App& app, report_options& o) {
+  CLI::App* cmd = app.add_subcommand(
+      "report", "Draw tier files on one HTML page: lanes on a time axis, problems, lag, agreement");
+  check_options& c = o.check;
+  html_request& h = o.page;
+  cmd->add_option("inputs", c.paths, "Files or folders (searched recursively), or - for stdin")
+      ->required()
+      ->type_name("PATH");
+  cmd->add_option("-o,--output", h.output, "The page to write (.html), or - for stdout")
+      ->required()
+      ->type_name("FILE");
+  cmd->add_option("--title", h.title, "The page's title (default: tiers report)")
+      ->type_name("TEXT");
+  cmd->add_option("--profile", c.profile,
+                  "Check with this profile: a built-in name (see check --list-profiles) or a "
+                  "JSON file")
+      ->type_name("PROFILE");
+  cmd->add_option("--captions", c.captions,
+                  "The caption tier: caption rules apply, and its lag is plotted against --words")
+      ->type_name("TIER");
+  cmd->add_option("--words", c.words,
+                  "The word timings: a tier of each file, or FILE or FILE:TIER for another file")
+      ->type_name("TIER|FILE[:TIER]");
+  cmd->add_option("--ref-tier", h.ref_tier,
+                  "Show where this reference tier and --cand-tier agree: a tier of each file, or "
+                  "FILE or FILE:TIER for one of another file")
+      ->type_name("TIER|FILE[:TIER]");
+  cmd->add_option("--cand-tier", h.cand_tier,
+                  "The candidate tier compared with --ref-tier: a tier of each file, or FILE or "
+                  "FILE:TIER for one of another file (drawn in every file)")
+      ->type_name("TIER|FILE[:TIER]");
+  cmd->add_option("--step", h.step, "The agreement grid's step (default 10ms)")
+      ->type_name("DURATION");
+  cmd->add_option("--match", h.match,
+                  "Segments match by boundaries (default) or by overlap, as in `tiers agree`")
+      ->check(CLI::IsMember({"boundaries", "overlap"}))
+      ->type_name("HOW");
+  cmd->add_option("--collar", h.collar, "Boundary tolerance for --match boundaries (200ms)")
+      ->type_name("DURATION");
+  cmd->add_option("--min-overlap", h.min_overlap, "Least overlap ratio for --match overlap (0.5)")
+      ->check(CLI::Range(0.0, 1.0))
+      ->type_name("X");
+  cmd->add_flag("--any-label", h.any_label, "Segments match whatever their labels");
+  cmd->add_option("--jobs", c.jobs, "Files read and checked at once (default: one per core)")
+      ->type_name("N");
+  add_input_options(*cmd, c.input);
+  return cmd;
+}
+
+namespace {
+
+const tier* named_tier(const document& doc, const std::string& name, const std::string& file) {
+  if (const tier* t = find_tier(doc, name)) return t;
+  diagnostic d;
+  d.level = severity::warning;
+  d.file = file;
+  d.code = "report.tier";
+  d.message = "no tier " + detail::quote_name(name) + " to compare; no agreement is drawn";
+  report(d);
+  return nullptr;
+}
+
+// --ref-tier and --cand-tier name a tier of each file, or FILE:TIER (or FILE, when it has one
+// tier) a tier of another file: that tier is then added to every drawn file, under its own
+// name unless a drawn file has a tier of that name already, and compared there.
+std::string resolve_compared(const std::string& spec, const char* option, check_run& run,
+                             const input_options& reading) {
+  std::optional<std::string> name;
+  std::optional<words_file> other = words_file_of(spec, reading, name);
+  if (!other) return spec;
+  const tier* t = nullptr;
+  if (other->tier) {
+    t = find_tier(other->doc, *other->tier);
+    if (!t)
+      throw usage_error(std::string(option) + ": " + display_name(other->path) + " has no tier " +
+                        detail::quote_name(*other->tier));
+  } else if (other->doc.tiers.size() == 1) {
+    t = &other->doc.tiers.front();
+  } else {
+    throw usage_error(std::string(option) + ": " + display_name(other->path) + " has " +
+                      std::to_string(other->doc.tiers.size()) + " tiers; name one as FILE:TIER");
+  }
+  tier copy = *t;
+  for (const std::optional<document>& d : run.documents)
+    if (d && find_tier(*d, copy.name)) {
+      copy.name += " (" + std::filesystem::path(other->path).filename().string() + ")";
+      break;
+    }
+  for (std::optional<document>& d : run.documents)
+    if (d) d->tiers.push_back(copy);
+  return copy.name;
+}
+
+}  // namespace
+
+void write_html_page(const html_request& h, const check_run& run, const profile& p) {
+  html_report_options options;
+  options.title = h.title;
+  options.profile = p.name;
+  options.max_late = p.limits.max_late;
+  options.max_early = p.limits.max_early;
+  options.step = parse_duration_option("--step", h.step, duration_kind::positive);
+  options.matching.by = h.match == "overlap" ? segment_options::criterion::overlap
+                                             : segment_options::criterion::boundaries;
+  options.matching.collar = parse_duration_option("--collar", h.collar, duration_kind::positive);
+  options.matching.min_overlap = h.min_overlap;
+  options.matching.same_label = !h.any_label;
+
+  std::vector<report_file> files(run.reports.size());
+  for (std::size_t k = 0; k < files.size(); ++k) {
+    report_file& f = files[k];
+    f.check = &run.reports[k];
+    if (k >= run.documents.size() || !run.documents[k]) continue;
+    f.doc = &*run.documents[k];
+    if (!h.ref_tier.empty() && !h.cand_tier.empty()) {
+      f.reference = named_tier(*f.doc, h.ref_tier, f.check->path);
+      f.candidate = named_tier(*f.doc, h.cand_tier, f.check->path);
+    }
+  }
+  if (run.reports.size() > html_drawn_files)
+    std::fprintf(stderr,
+                 "tiers: note: the page draws the first %zu of %zu files and lists the "
+                 "problems of all\n",
+                 html_drawn_files, run.reports.size());
+  if (h.output == "-") {
+    stdout_sink out;
+    write_html_report(files, options, out);
+    out.flush();
+    return;
+  }
+  atomic_file out(h.output);
+  write_html_report(files, options, out);
+  out.commit();
+}
+
+int run_report(const report_options& o) {
+  const html_request& h = o.page;
+  if (h.ref_tier.empty() != h.cand_tier.empty())
+    throw usage_error("report: name both tiers to compare: --ref-tier A --cand-tier B");
+  parse_duration_option("--step", h.step, duration_kind::positive);
+  parse_duration_option("--collar", h.collar, duration_kind::positive);
+  const profile p = load_check_profile(o.check.profile);
+  check_run run = run_checks(o.check, p, html_drawn_files);
+  html_request page = h;
+  if (!page.ref_tier.empty()) {
+    page.ref_tier = resolve_compared(h.ref_tier, "--ref-tier", run, o.check.input);
+    page.cand_tier = resolve_compared(h.cand_tier, "--cand-tier", run, o.check.input);
+  }
+  // The page shows every problem; standard error needs only what kept a file off the page.
+  bool unreadable = false;
+  for (const file_report& r : run.reports)
+    if (!r.shape) {
+      unreadable = true;
+      for (const problem& pr : r.problems)
+        report(pr.diag);
+    }
+  write_html_page(page, run, p);
+  return unreadable ? exit_rejected : exit_ok;
+}
+
+}  // namespace tiers::cli
