@@ -194,13 +194,37 @@ void ttml_reader::run() {
   }();
   if (head) {
     // The writer puts speakers that had no agent of their own into one metadata block; it
-    // becomes speaker attributes again, not head content.
+    // becomes speaker attributes again, not head content — when every reference to its agents
+    // is a plain `ttm:agent="ID"`, which is all the writer makes of a speaker. Otherwise the
+    // block is kept like any other head content, and so are the references.
+    std::set<std::string, std::less<>> block_ids;
+    for (pugi::xml_node c : head.children())
+      if (canonical(c.name()) != "ttm:agent" &&
+          std::string_view(c.attribute("xml:id").value()) == speakers_block)
+        for (pugi::xml_node agent : c.children())
+          block_ids.insert(agent.attribute("xml:id").value());
+    bool regenerable = true;
+    if (!block_ids.empty())
+      for (pugi::xpath_node x : tt.select_nodes(".//*")) {
+        for (pugi::xml_attribute at : x.node().attributes()) {
+          if (canonical(at.name()) != "ttm:agent") continue;
+          std::string_view refs = at.value();
+          if (block_ids.count(refs)) continue;
+          while (!refs.empty()) {  // IDREFS: ids between XML white space
+            const std::size_t from = refs.find_first_not_of(" \t\n\r");
+            if (from == std::string_view::npos) break;
+            refs.remove_prefix(from);
+            const std::size_t to = std::min(refs.find_first_of(" \t\n\r"), refs.size());
+            if (block_ids.count(refs.substr(0, to))) regenerable = false;
+            refs.remove_prefix(to);
+          }
+        }
+      }
     std::string kept;
     for (pugi::xml_node c : head.children()) {
-      if (canonical(c.name()) != "ttm:agent" &&
+      if (regenerable && canonical(c.name()) != "ttm:agent" &&
           std::string_view(c.attribute("xml:id").value()) == speakers_block) {
-        for (pugi::xml_node agent : c.children())
-          generated_.insert(agent.attribute("xml:id").value());
+        generated_.insert(block_ids.begin(), block_ids.end());
         continue;
       }
       std::ostringstream one;

@@ -2,6 +2,7 @@
 #include <algorithm>
 #include <charconv>
 #include <cmath>
+#include <limits>
 #include <numeric>
 
 #include "../../formats/csv/table_scanner.hpp"
@@ -105,8 +106,10 @@ bool signal_reader::key(std::string_view text, std::size_t offset, raw_row& row)
             "frame " + quote_name(text) + " is not a whole number from 0 up");
       return false;
     }
+    // The frame's end must be a time too: the interval it makes runs to the next frame.
     const parsed_time t = frame_time(row.frame, *options_.rate);
-    if (!t) {
+    if (!t || row.frame == std::numeric_limits<std::int64_t>::max() ||
+        !frame_time(row.frame + 1, *options_.rate)) {
       error("time.range", offset, "frame " + std::string(text) + " is out of range");
       return false;
     }
@@ -255,6 +258,16 @@ void signal_reader::finish() {
       return;
     }
   }
+  // Differences between rows must be times themselves (a file from -200 to +200 years is not).
+  if (!frames_ && rows_.size() > 1) {
+    time_ns span = 0;
+    if (__builtin_sub_overflow(rows_[row_at(rows_.size() - 1)].time, rows_[row_at(0)].time,
+                               &span)) {
+      error("time.range", rows_[row_at(rows_.size() - 1)].offset,
+            "the rows span more time than can be held (about 292 years)");
+      return;
+    }
+  }
   // The usual step between rows: a frame, or the median time difference.
   time_ns step = 0;
   if (!frames_ && rows_.size() > 1) {
@@ -283,7 +296,9 @@ void signal_reader::finish() {
     const raw_row& r = rows_[row_at(k)];
     if (k > 0) {
       const raw_row& p = rows_[row_at(k - 1)];
-      const bool gap = frames_ ? r.frame - p.frame > 1 : 2 * (r.time - p.time) > 3 * step;
+      // A gap is more than one and a half steps (written so that it cannot overflow).
+      const time_ns d = r.time - p.time;
+      const bool gap = frames_ ? r.frame - p.frame > 1 : d > step && d - step > step / 2;
       if (gap) {
         s.after_gap[k] = true;
         out_.diagnostics.push_back(make_diagnostic(
@@ -305,8 +320,21 @@ void signal_reader::finish() {
     const bool last = k + 1 == n || s.after_gap[k + 1];
     if (frames_)
       s.ends[k] = frame_time(rows_[row_at(k)].frame + 1, *options_.rate).value;
-    else
-      s.ends[k] = last ? s.times[k] + step : s.times[k + 1];
+    else if (!last)
+      s.ends[k] = s.times[k + 1];
+    else if (__builtin_add_overflow(s.times[k], step, &s.ends[k])) {
+      error("time.range", rows_[row_at(k)].offset,
+            "the row at " + format_seconds(s.times[k]) +
+                " s ends a step later, beyond the times that can be held");
+      return;
+    }
+  }
+  // Every interval and every distance between two of them must be a time as well.
+  time_ns whole = 0;
+  if (n > 0 && __builtin_sub_overflow(s.ends.back(), s.times.front(), &whole)) {
+    error("time.range", rows_[row_at(n - 1)].offset,
+          "the rows span more time than can be held (about 292 years)");
+    return;
   }
 }
 
