@@ -95,6 +95,17 @@ TEST_CASE("ttml: agents become speakers, white space collapses, br breaks lines"
   CHECK(doc.metadata.at("ttml:lang") == "en");
 }
 
+TEST_CASE("ttml: an empty ttm:agent names no speaker, and an agent without an id is no speaker",
+          "[ttml]") {
+  const document doc = read_as(
+      "ttml",
+      tt("", R"(<div><p begin="0s" end="1s" ttm:agent="">a</p></div>)",
+         R"(<metadata><ttm:agent type="person"><ttm:name>Nobody</ttm:name></ttm:agent></metadata>)"));
+  const annotation& a = doc.tiers.at(0).annotations.at(0);
+  CHECK(a.attributes.count("speaker") == 0);
+  CHECK(a.attributes.at("ttml:ttm:agent").empty());
+}
+
 TEST_CASE("ttml writer: IMSC 1.1 text document that reads back the same", "[ttml][writer]") {
   document doc;
   doc.media.frame_rate = rational{30000, 1001};
@@ -147,6 +158,16 @@ TEST_CASE("ttml: DTDs, entity bombs, deep nesting and broken XML are refused",
   CHECK(broken.code == "ttml.xml");
   CHECK(broken.line == 2);
   CHECK(first_error("ttml", "<tt xmlns=\"urn:other\"/>").code == "ttml.root");
+  // XML 1.0 §3.1 (Unique Att Spec) and Namespaces in XML 1.0 §6.3: an attribute once per
+  // element, also under two prefixes of one namespace; pugixml alone accepts both.
+  const diagnostic twice =
+      first_error("ttml", tt("", "<div>\n<p begin=\"1s\" end=\"2s\" end=\"3s\">x</p></div>"));
+  CHECK(twice.code == "ttml.xml");
+  CHECK(twice.line == 3);
+  CHECK(first_error("ttml", tt("xmlns:s=\"http://www.w3.org/ns/ttml#styling\"",
+                               "<div><p begin=\"1s\" end=\"2s\" tts:color=\"red\" "
+                               "s:color=\"blue\">x</p></div>"))
+            .code == "ttml.xml");
   CHECK(first_error("ttml", tt("", "<div><p begin=\"1x\" end=\"2s\">x</p></div>")).code ==
         "ttml.time");
   CHECK(first_error("ttml", tt("ttp:frameRate=\"0\"", "")).code == "ttml.parameter");

@@ -1,9 +1,11 @@
 // Reads TTML with pugixml (no DTD, no entity expansion, depth-limited), resolves TTML2 time
 // containment (par and seq) to absolute media times, and maps div/p/span onto tiers.
+#include <algorithm>
 #include <map>
 #include <pugixml.hpp>
 #include <set>
 #include <sstream>
+#include <vector>
 
 #include "tiers/detail/positions.hpp"
 #include "tiers/detail/report.hpp"
@@ -92,6 +94,35 @@ class ttml_reader {
     return t;
   }
 
+  // XML and its namespaces allow an attribute once per element (Namespaces in XML 1.0 §6.3:
+  // also not under two prefixes of one namespace); pugixml does not check it, and a second one
+  // would be dropped silently.
+  bool unique_attributes(pugi::xml_document& doc) {
+    struct walker : pugi::xml_tree_walker {
+      ttml_reader& reader;
+      pugi::xml_node bad;
+      std::string name;
+      explicit walker(ttml_reader& r) : reader(r) {}
+      bool for_each(pugi::xml_node& n) override {
+        if (n.type() != pugi::node_element || !n.first_attribute() ||
+            !n.first_attribute().next_attribute())
+          return true;
+        std::vector<std::string> names;
+        for (pugi::xml_attribute a : n.attributes())
+          names.push_back(reader.canonical(a.name()));
+        std::sort(names.begin(), names.end());
+        const auto twice = std::adjacent_find(names.begin(), names.end());
+        if (twice == names.end()) return true;
+        bad = n;
+        name = *twice;
+        return false;
+      }
+    } w(*this);
+    if (doc.traverse(w)) return true;
+    fail(at(w.bad), "ttml.xml",
+         "not well-formed XML: attribute " + w.name + " appears twice on one element");
+    return false;
+  }
   span resolve(const pugi::xml_node& n, time_ns sync, std::optional<time_ns> parent_end,
                bool in_seq);
   // `current` is the index of the tier of the div being read, or no_tier: nested divs add
@@ -161,6 +192,7 @@ void ttml_reader::run() {
   if (tt_name(tt) != "tt")
     return fail(at(tt), "ttml.root",
                 "not a TTML document: the root must be tt in namespace " + std::string(ns_tt));
+  if (!unique_attributes(doc)) return;
   auto param = [&](std::string_view local) -> std::string_view {
     for (pugi::xml_attribute a : tt.attributes())
       if (canonical(a.name()) == "ttp:" + std::string(local)) return a.value();
@@ -237,6 +269,7 @@ void ttml_reader::run() {
       const pugi::xml_node n = x.node();
       if (canonical(n.name()) != "ttm:agent") continue;
       std::string name = n.attribute("xml:id").value();
+      if (name.empty()) continue;  // nothing can refer to it; it stays in ttml:head
       for (pugi::xml_node c : n.children())
         if (canonical(c.name()) == "ttm:name") name = collapse_space(c.text().get());
       agents_[n.attribute("xml:id").value()] = name;
@@ -408,11 +441,16 @@ void ttml_reader::read_p(const pugi::xml_node& p, const span& active, std::size_
     // xml:space only shapes the text, which the writer shapes the same way again.
     if (q == "xml:id" || q == "begin" || q == "end" || q == "dur" || q == "xml:space") continue;
     if (q == "ttm:agent") {
+      // IDREFS: the first id names the speaker; the attribute itself is kept unless it is
+      // exactly what the writer makes of a speaker.
       std::string_view first = at_.value();
-      first = first.substr(0, first.find(' '));
-      auto it = agents_.find(std::string(first));
-      a.attributes.emplace("speaker", it == agents_.end() ? std::string(first) : it->second);
-      if (generated_.count(std::string(first)) && first == at_.value()) continue;
+      first.remove_prefix(std::min(first.find_first_not_of(" \t\n\r"), first.size()));
+      first = first.substr(0, first.find_first_of(" \t\n\r"));
+      if (!first.empty()) {
+        auto it = agents_.find(std::string(first));
+        a.attributes.emplace("speaker", it == agents_.end() ? std::string(first) : it->second);
+        if (generated_.count(std::string(first)) && first == at_.value()) continue;
+      }
     }
     a.attributes.emplace("ttml:" + q, at_.value());
   }
