@@ -168,6 +168,9 @@ TEST_CASE("ttml: DTDs, entity bombs, deep nesting and broken XML are refused",
                                "<div><p begin=\"1s\" end=\"2s\" tts:color=\"red\" "
                                "s:color=\"blue\">x</p></div>"))
             .code == "ttml.xml");
+  // tiers keeps tts:, ttm: and ttp: for TTML's own namespaces (its writer declares them so).
+  CHECK(first_error("ttml", "<tt xmlns=\"http://www.w3.org/ns/ttml\" xmlns:ttp=\"urn:other\"/>")
+            .code == "ttml.namespace");
   CHECK(first_error("ttml", tt("", "<div><p begin=\"1x\" end=\"2s\">x</p></div>")).code ==
         "ttml.time");
   CHECK(first_error("ttml", tt("ttp:frameRate=\"0\"", "")).code == "ttml.parameter");

@@ -192,6 +192,17 @@ void ttml_reader::run() {
   if (tt_name(tt) != "tt")
     return fail(at(tt), "ttml.root",
                 "not a TTML document: the root must be tt in namespace " + std::string(ns_tt));
+  // Names are kept as tts:, ttm: and ttp: with those prefixes meaning TTML's namespaces, and
+  // the writer declares them so: the same prefixes bound elsewhere could not be told apart.
+  for (const auto& [prefix, ns] :
+       {std::pair{"tts", ns_tts}, std::pair{"ttm", ns_ttm}, std::pair{"ttp", ns_ttp}}) {
+    const std::string_view bound = ns_of(prefix);
+    if (!bound.empty() && bound != ns)
+      return fail(at(tt), "ttml.namespace",
+                  "the prefix " + std::string(prefix) + " is bound to '" + std::string(bound) +
+                      "', not to " + std::string(ns) + ": tiers reads " + prefix +
+                      ": only as TTML's own namespace");
+  }
   if (!unique_attributes(doc)) return;
   auto param = [&](std::string_view local) -> std::string_view {
     for (pugi::xml_attribute a : tt.attributes())

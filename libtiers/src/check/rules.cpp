@@ -8,7 +8,7 @@ namespace {
 
 using enum rule_level;
 
-constexpr std::array<rule_info, 73> catalogue{{
+constexpr std::array<rule_info, 74> catalogue{{
     // Times of single annotations and their order.
     {"time.range", "time", error, "a time beyond what the model holds (about ±292 years)", ""},
     {"time.negative", "time", error, "an annotation starts or ends before zero", ""},
@@ -107,6 +107,7 @@ constexpr std::array<rule_info, 73> catalogue{{
     {"ttml.depth", "read", error, "TTML elements nested deeper than 1000 levels", ""},
     {"ttml.size", "read", error, "a TTML file over 1 GiB", ""},
     {"ttml.root", "read", error, "XML whose root is not TTML's tt", ""},
+    {"ttml.namespace", "read", error, "TTML that binds tts, ttm or ttp to another namespace", ""},
     {"ttml.time", "read", error, "a TTML time expression TTML2 does not allow", ""},
     {"ttml.parameter", "read", error, "a TTML timing parameter TTML2 does not allow", ""},
     {"ttml.end", "read", warning, "a TTML p without an end, read as zero length", ""},
