@@ -123,6 +123,36 @@ class ttml_reader {
          "not well-formed XML: attribute " + w.name + " appears twice on one element");
     return false;
   }
+  // Whether `block` is exactly what the writer makes of speakers: a metadata element holding
+  // only `<ttm:agent xml:id="ID" type="person"><ttm:name type="full">NAME</ttm:name></ttm:agent>`
+  // elements with distinct ids; collects the ids.
+  bool writer_speakers(const pugi::xml_node& block, std::set<std::string, std::less<>>& ids) {
+    auto only = [](const pugi::xml_node& n, std::string_view a, std::string_view b = {}) {
+      std::size_t count = 0;
+      for (pugi::xml_attribute at : n.attributes()) {
+        const std::string_view name = at.name();
+        if (name != a && (b.empty() || name != b)) return false;
+        ++count;
+      }
+      return count == (b.empty() ? 1u : 2u);
+    };
+    if (tt_name(block) != "metadata" || !only(block, "xml:id")) return false;
+    for (pugi::xml_node agent : block.children()) {
+      if (agent.type() != pugi::node_element || canonical(agent.name()) != "ttm:agent" ||
+          !only(agent, "xml:id", "type") ||
+          std::string_view(agent.attribute("type").value()) != "person")
+        return false;
+      const pugi::xml_node name = agent.first_child();
+      if (!name || name.next_sibling() || canonical(name.name()) != "ttm:name" ||
+          !only(name, "type") || std::string_view(name.attribute("type").value()) != "full")
+        return false;
+      for (pugi::xml_node t : name.children())
+        if (t.type() != pugi::node_pcdata) return false;
+      const std::string_view id = agent.attribute("xml:id").value();
+      if (id.empty() || !ids.emplace(id).second) return false;
+    }
+    return !ids.empty();
+  }
   span resolve(const pugi::xml_node& n, time_ns sync, std::optional<time_ns> parent_end,
                bool in_seq);
   // `current` is the index of the tier of the div being read, or no_tier: nested divs add
@@ -237,17 +267,23 @@ void ttml_reader::run() {
   }();
   if (head) {
     // The writer puts speakers that had no agent of their own into one metadata block; it
-    // becomes speaker attributes again, not head content — when every reference to its agents
-    // is a plain `ttm:agent="ID"`, which is all the writer makes of a speaker. Otherwise the
-    // block is kept like any other head content, and so are the references.
+    // becomes speaker attributes again, not head content — when it has exactly the writer's
+    // shape and every reference to its agents is a plain `ttm:agent="ID"`, which is all the
+    // writer makes of a speaker. Otherwise it is kept like any other head content, and so are
+    // the references.
+    pugi::xml_node block;
     std::set<std::string, std::less<>> block_ids;
-    for (pugi::xml_node c : head.children())
-      if (canonical(c.name()) != "ttm:agent" &&
-          std::string_view(c.attribute("xml:id").value()) == speakers_block)
-        for (pugi::xml_node agent : c.children())
-          block_ids.insert(agent.attribute("xml:id").value());
-    bool regenerable = true;
-    if (!block_ids.empty())
+    for (pugi::xml_node c : head.children()) {
+      std::set<std::string, std::less<>> ids;
+      if (c.type() == pugi::node_element &&
+          std::string_view(c.attribute("xml:id").value()) == speakers_block &&
+          writer_speakers(c, ids)) {
+        block = c;
+        block_ids = std::move(ids);
+        break;
+      }
+    }
+    if (block)
       for (pugi::xpath_node x : tt.select_nodes(".//*")) {
         for (pugi::xml_attribute at : x.node().attributes()) {
           if (canonical(at.name()) != "ttm:agent") continue;
@@ -258,15 +294,14 @@ void ttml_reader::run() {
             if (from == std::string_view::npos) break;
             refs.remove_prefix(from);
             const std::size_t to = std::min(refs.find_first_of(" \t\n\r"), refs.size());
-            if (block_ids.count(refs.substr(0, to))) regenerable = false;
+            if (block_ids.count(refs.substr(0, to))) block = pugi::xml_node{};
             refs.remove_prefix(to);
           }
         }
       }
     std::string kept;
     for (pugi::xml_node c : head.children()) {
-      if (regenerable && canonical(c.name()) != "ttm:agent" &&
-          std::string_view(c.attribute("xml:id").value()) == speakers_block) {
+      if (block && c == block) {
         generated_.insert(block_ids.begin(), block_ids.end());
         continue;
       }
