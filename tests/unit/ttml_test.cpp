@@ -171,6 +171,8 @@ TEST_CASE("ttml: DTDs, entity bombs, deep nesting and broken XML are refused",
   // tiers keeps tts:, ttm: and ttp: for TTML's own namespaces (its writer declares them so).
   CHECK(first_error("ttml", "<tt xmlns=\"http://www.w3.org/ns/ttml\" xmlns:ttp=\"urn:other\"/>")
             .code == "ttml.namespace");
+  CHECK(first_error("ttml", "<tt xmlns=\"http://www.w3.org/ns/ttml\" xmlns:ttm=\"\"/>").code ==
+        "ttml.namespace");
   CHECK(first_error("ttml", tt("", "<div><p begin=\"1x\" end=\"2s\">x</p></div>")).code ==
         "ttml.time");
   CHECK(first_error("ttml", tt("ttp:frameRate=\"0\"", "")).code == "ttml.parameter");

@@ -226,8 +226,10 @@ void ttml_reader::run() {
   // the writer declares them so: the same prefixes bound elsewhere could not be told apart.
   for (const auto& [prefix, ns] :
        {std::pair{"tts", ns_tts}, std::pair{"ttm", ns_ttm}, std::pair{"ttp", ns_ttp}}) {
-    const std::string_view bound = ns_of(prefix);
-    if (!bound.empty() && bound != ns)
+    const auto declared = prefixes_.find(prefix);
+    const std::string_view bound =
+        declared == prefixes_.end() ? ns : std::string_view(declared->second);
+    if (bound != ns)
       return fail(at(tt), "ttml.namespace",
                   "the prefix " + std::string(prefix) + " is bound to '" + std::string(bound) +
                       "', not to " + std::string(ns) + ": tiers reads " + prefix +
