@@ -144,6 +144,7 @@ def main():
                 note="bench/baseline_convert.py (csv, json modules)")
 
     # Linearity: seconds per byte at the largest size against the smallest.
+    linearity = []
     if len(sizes) > 1:
         small, large = min(sizes), max(sizes)
         for op in sorted({(r["operation"], r["format"]) for r in rows}):
@@ -153,9 +154,9 @@ def main():
                 ratio = (b[0]["seconds"] / b[0]["bytes"]) / (a[0]["seconds"] / a[0]["bytes"])
                 print(f"linearity {op[0]:<8} {op[1]:<8}: seconds per byte at {large // MB} MB are "
                       f"{ratio:.2f} x those at {small // MB} MB")
-                rows.append({"linearity": list(op), "ratio": round(ratio, 3)})
+                linearity.append({"operation": op[0], "format": op[1], "ratio": round(ratio, 3)})
     with open(os.path.join(out_dir, "results.json"), "w") as fh:
-        json.dump({"rows": rows}, fh, indent=1)
+        json.dump({"rows": rows, "linearity": linearity}, fh, indent=1)
     print(f"results: {os.path.join(out_dir, 'results.json')}")
 
 

@@ -75,6 +75,7 @@ class table_reader {
                                   "the file is empty; a table needs a header row"));
     }
     if (!read_header()) return;
+    count_rows();
     while (scanner_.next(cells_, offset))
       if (!read_row(offset)) return;
     if (scanner_.failed()) fail(scanner_.problem);
@@ -128,6 +129,27 @@ class table_reader {
     return true;
   }
 
+  // Rows per tier, counted before reading them: each tier's annotations are then allocated
+  // once, at their final size, instead of growing and moving every annotation made so far —
+  // faster, and a lower peak of memory. A problem stops the count; the reading reports it.
+  void count_rows() {
+    table_scanner counter = scanner_;
+    std::vector<table_cell> cells;
+    std::size_t offset = 0;
+    std::string last;
+    std::size_t* count = nullptr;
+    while (counter.next(cells, offset) && cells.size() == header_.size()) {
+      const std::string_view name = columns_[r_tier] == absent
+                                        ? std::string_view(options_.tier_name)
+                                        : cells[columns_[r_tier]].text;
+      if (!count || name != last) {
+        last = name;
+        count = &expected_rows_[last];
+      }
+      ++*count;
+    }
+  }
+
   std::string header_list() const {
     std::string s;
     for (std::size_t k = 0; k < header_.size(); ++k)
@@ -145,6 +167,8 @@ class table_reader {
       tier& t = out_.doc.tiers.emplace_back();
       t.name = name;
       t.kind = kind_;
+      if (auto e = expected_rows_.find(t.name); e != expected_rows_.end())
+        t.annotations.reserve(e->second);
       positions_.tier(row_offset);
     }
     last_tier_ = it->second;
@@ -220,6 +244,7 @@ class table_reader {
   std::vector<std::size_t> attribute_columns_;
   tier_kind kind_ = tier_kind::interval;
   std::unordered_map<std::string, std::size_t> tier_index_;
+  std::unordered_map<std::string, std::size_t> expected_rows_;  // tier name -> rows, counted
   std::size_t last_tier_ = absent;
 };
 
