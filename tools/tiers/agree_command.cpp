@@ -13,6 +13,31 @@
 
 namespace tiers::cli {
 
+void add_comparison_options(CLI::App& cmd, comparison_options& o) {
+  cmd.add_option("--step", o.step, "The time grid's step (default 10ms)")->type_name("DURATION");
+  cmd.add_option("--match", o.match,
+                 "Segments match by boundaries (default: onset and offset within --collar) or "
+                 "by overlap (at least --min-overlap of their union)")
+      ->check(CLI::IsMember({"boundaries", "overlap"}))
+      ->type_name("HOW");
+  cmd.add_option("--collar", o.collar, "Boundary tolerance for --match boundaries (200ms)")
+      ->type_name("DURATION");
+  cmd.add_option("--min-overlap", o.min_overlap, "Least overlap ratio for --match overlap (0.5)")
+      ->check(CLI::Range(0.0, 1.0))
+      ->type_name("X");
+  cmd.add_flag("--any-label", o.any_label, "Segments match whatever their labels");
+}
+
+segment_options segment_matching(const comparison_options& o) {
+  segment_options matching;
+  matching.by = o.match == "overlap" ? segment_options::criterion::overlap
+                                     : segment_options::criterion::boundaries;
+  matching.collar = parse_duration_option("--collar", o.collar, duration_kind::positive);
+  matching.min_overlap = o.min_overlap;
+  matching.same_label = !o.any_label;
+  return matching;
+}
+
 CLI::App* setup_agree(CLI::App& app, agree_options& o) {
   CLI::App* cmd = app.add_subcommand(
       "agree", "How far a candidate tier agrees with a reference, or annotators with each other");
@@ -26,18 +51,7 @@ CLI::App* setup_agree(CLI::App& app, agree_options& o) {
   cmd->add_option("--cand-tier", o.cand_tier, "The candidate tier")->type_name("NAME");
   cmd->add_option("--tiers", o.tiers, "Several annotators' tiers of one file: Krippendorff's alpha")
       ->type_name("A,B,C...");
-  cmd->add_option("--step", o.step, "The time grid's step (default 10ms)")->type_name("DURATION");
-  cmd->add_option("--match", o.match,
-                  "Segments match by boundaries (default: onset and offset within --collar) or "
-                  "by overlap (at least --min-overlap of their union)")
-      ->check(CLI::IsMember({"boundaries", "overlap"}))
-      ->type_name("HOW");
-  cmd->add_option("--collar", o.collar, "Boundary tolerance for --match boundaries (200ms)")
-      ->type_name("DURATION");
-  cmd->add_option("--min-overlap", o.min_overlap, "Least overlap ratio for --match overlap (0.5)")
-      ->check(CLI::Range(0.0, 1.0))
-      ->type_name("X");
-  cmd->add_flag("--any-label", o.any_label, "Segments match whatever their labels");
+  add_comparison_options(*cmd, o.compare);
   cmd->add_option("--min-confidence", o.min_confidence,
                   "Leave out candidate annotations below this confidence (0-1): a higher "
                   "threshold trades recall for precision")
@@ -162,14 +176,8 @@ int two_tiers(const agree_options& o) {
   std::erase_if(c.annotations, [&](const annotation& a) {
     return a.confidence && *a.confidence < o.min_confidence;
   });
-  segment_options matching;
-  matching.by = o.match == "overlap" ? segment_options::criterion::overlap
-                                     : segment_options::criterion::boundaries;
-  matching.collar = parse_duration_option("--collar", o.collar, duration_kind::positive);
-  matching.min_overlap = o.min_overlap;
-  matching.same_label = !o.any_label;
-  agreement_report report =
-      compare_tiers(r, c, grid_for({&ref.doc, &cand.doc}, {&r, &c}, o.step), matching);
+  agreement_report report = compare_tiers(
+      r, c, grid_for({&ref.doc, &cand.doc}, {&r, &c}, o.compare.step), segment_matching(o.compare));
   report.reference.file = ref.file;
   report.candidate.file = cand.file;
   stdout_sink out;
@@ -191,7 +199,7 @@ int many_tiers(const agree_options& o) {
     from = comma + 1;
   }
   if (tiers.size() < 2) throw usage_error("--tiers needs two tiers or more, e.g. --tiers A,B,C");
-  annotators_report r = compare_annotators(tiers, grid_for({&file.doc}, tiers, o.step));
+  annotators_report r = compare_annotators(tiers, grid_for({&file.doc}, tiers, o.compare.step));
   r.file = file.file;
   stdout_sink out;
   if (o.json) {

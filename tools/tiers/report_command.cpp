@@ -41,18 +41,7 @@ CLI::App* setup_report(CLI::App& app, report_options& o) {
                   "The candidate tier compared with --ref-tier: a tier of each file, or FILE or "
                   "FILE:TIER for one of another file (drawn in every file)")
       ->type_name("TIER|FILE[:TIER]");
-  cmd->add_option("--step", h.step, "The agreement grid's step (default 10ms)")
-      ->type_name("DURATION");
-  cmd->add_option("--match", h.match,
-                  "Segments match by boundaries (default) or by overlap, as in `tiers agree`")
-      ->check(CLI::IsMember({"boundaries", "overlap"}))
-      ->type_name("HOW");
-  cmd->add_option("--collar", h.collar, "Boundary tolerance for --match boundaries (200ms)")
-      ->type_name("DURATION");
-  cmd->add_option("--min-overlap", h.min_overlap, "Least overlap ratio for --match overlap (0.5)")
-      ->check(CLI::Range(0.0, 1.0))
-      ->type_name("X");
-  cmd->add_flag("--any-label", h.any_label, "Segments match whatever their labels");
+  add_comparison_options(*cmd, h.compare);
   cmd->add_option("--jobs", c.jobs, "Files read and checked at once (default: one per core)")
       ->type_name("N");
   add_input_options(*cmd, c.input);
@@ -111,12 +100,8 @@ void write_html_page(const html_request& h, const check_run& run, const profile&
   options.profile = p.name;
   options.max_late = p.limits.max_late;
   options.max_early = p.limits.max_early;
-  options.step = parse_duration_option("--step", h.step, duration_kind::positive);
-  options.matching.by = h.match == "overlap" ? segment_options::criterion::overlap
-                                             : segment_options::criterion::boundaries;
-  options.matching.collar = parse_duration_option("--collar", h.collar, duration_kind::positive);
-  options.matching.min_overlap = h.min_overlap;
-  options.matching.same_label = !h.any_label;
+  options.step = parse_duration_option("--step", h.compare.step, duration_kind::positive);
+  options.matching = segment_matching(h.compare);
 
   std::vector<report_file> files(run.reports.size());
   for (std::size_t k = 0; k < files.size(); ++k) {
@@ -149,8 +134,9 @@ int run_report(const report_options& o) {
   const html_request& h = o.page;
   if (h.ref_tier.empty() != h.cand_tier.empty())
     throw usage_error("report: name both tiers to compare: --ref-tier A --cand-tier B");
-  parse_duration_option("--step", h.step, duration_kind::positive);
-  parse_duration_option("--collar", h.collar, duration_kind::positive);
+  // Bad durations are usage errors before any file is read.
+  parse_duration_option("--step", h.compare.step, duration_kind::positive);
+  segment_matching(h.compare);
   const profile p = load_check_profile(o.check.profile);
   check_run run = run_checks(o.check, p, html_drawn_files);
   html_request page = h;

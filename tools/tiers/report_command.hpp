@@ -7,6 +7,7 @@
 #include <cstddef>
 #include <string>
 
+#include "agree_command.hpp"
 #include "check_command.hpp"
 
 namespace tiers::cli {
@@ -16,11 +17,7 @@ struct html_request {
   std::string output;
   std::string title = "tiers report";
   std::string ref_tier, cand_tier;  ///< compared as in `tiers agree`, in each file
-  std::string step = "10ms";
-  std::string match = "boundaries";
-  std::string collar = "200ms";
-  double min_overlap = 0.5;
-  bool any_label = false;
+  comparison_options compare;
 };
 
 struct report_options {
