@@ -83,21 +83,13 @@ cue_text parse_cue_text(std::string_view text);
 std::vector<annotation> timed_words(const cue_text& parsed, time_ns cue_start, time_ns cue_end);
 
 using detail::append_escaped;  ///< escapes `&`, `<` and `>` (tiers/detail/markup.hpp)
+using detail::greater_than;
 
 /// Appends plain text as cue text (§4.2.2): `&` and `<` as references, `>` only where it would
 /// close a `-->` that cue text may not hold. A raw `>` elsewhere is how such text is read, so
 /// the text is written as a reader would have found it and reads back without markup.
 inline void append_cue_text(std::string& out, std::string_view text) {
-  for (char c : text) {
-    if (c == '&')
-      out += "&amp;";
-    else if (c == '<')
-      out += "&lt;";
-    else if (c == '>' && out.ends_with("--"))
-      out += "&gt;";
-    else
-      out += c;
-  }
+  append_escaped(out, text, greater_than::after_two_hyphens);
 }
 
 }  // namespace tiers::detail::vtt

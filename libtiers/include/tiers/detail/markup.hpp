@@ -6,14 +6,20 @@
 
 namespace tiers::detail {
 
-/// Appends `text` with `&`, `<` and `>` written as `&amp;`, `&lt;` and `&gt;`.
-inline void append_escaped(std::string& out, std::string_view text) {
+/// Where `>` becomes `&gt;`: everywhere, or only where it would close a `-->` (WebVTT cue text,
+/// whose readers take any other raw `>` as text).
+enum class greater_than { always, after_two_hyphens };
+
+/// Appends `text` with `&` and `<` written as `&amp;` and `&lt;`, and `>` as `&gt;` where
+/// `gt` says.
+inline void append_escaped(std::string& out, std::string_view text,
+                           greater_than gt = greater_than::always) {
   for (char c : text) {
     if (c == '&')
       out += "&amp;";
     else if (c == '<')
       out += "&lt;";
-    else if (c == '>')
+    else if (c == '>' && (gt == greater_than::always || out.ends_with("--")))
       out += "&gt;";
     else
       out += c;
