@@ -26,6 +26,16 @@ std::string_view local_name(std::string_view qname) {
   return colon == std::string_view::npos ? qname : qname.substr(colon + 1);
 }
 
+// Takes the next id off an IDREFS value (ids between XML white space); empty when none is left.
+std::string_view next_idref(std::string_view& refs) {
+  const std::size_t from = std::min(refs.find_first_not_of(" \t\n\r"), refs.size());
+  refs.remove_prefix(from);
+  const std::size_t to = std::min(refs.find_first_of(" \t\n\r"), refs.size());
+  const std::string_view id = refs.substr(0, to);
+  refs.remove_prefix(to);
+  return id;
+}
+
 std::string inner_xml(const pugi::xml_node& node) {
   std::ostringstream out;
   for (pugi::xml_node child : node.children())
@@ -102,12 +112,13 @@ class ttml_reader {
       ttml_reader& reader;
       pugi::xml_node bad;
       std::string name;
+      std::vector<std::string> names;
       explicit walker(ttml_reader& r) : reader(r) {}
       bool for_each(pugi::xml_node& n) override {
         if (n.type() != pugi::node_element || !n.first_attribute() ||
             !n.first_attribute().next_attribute())
           return true;
-        std::vector<std::string> names;
+        names.clear();  // one buffer for every element
         for (pugi::xml_attribute a : n.attributes())
           names.push_back(reader.canonical(a.name()));
         std::sort(names.begin(), names.end());
@@ -291,14 +302,8 @@ void ttml_reader::run() {
           if (canonical(at.name()) != "ttm:agent") continue;
           std::string_view refs = at.value();
           if (block_ids.count(refs)) continue;
-          while (!refs.empty()) {  // IDREFS: ids between XML white space
-            const std::size_t from = refs.find_first_not_of(" \t\n\r");
-            if (from == std::string_view::npos) break;
-            refs.remove_prefix(from);
-            const std::size_t to = std::min(refs.find_first_of(" \t\n\r"), refs.size());
-            if (block_ids.count(refs.substr(0, to))) block = pugi::xml_node{};
-            refs.remove_prefix(to);
-          }
+          for (std::string_view id = next_idref(refs); !id.empty(); id = next_idref(refs))
+            if (block_ids.count(id)) block = pugi::xml_node{};
         }
       }
     std::string kept;
@@ -491,9 +496,8 @@ void ttml_reader::read_p(const pugi::xml_node& p, const span& active, std::size_
     if (q == "ttm:agent") {
       // IDREFS: the first id names the speaker; the attribute itself is kept unless it is
       // exactly what the writer makes of a speaker.
-      std::string_view first = at_.value();
-      first.remove_prefix(std::min(first.find_first_not_of(" \t\n\r"), first.size()));
-      first = first.substr(0, first.find_first_of(" \t\n\r"));
+      std::string_view refs = at_.value();
+      const std::string_view first = next_idref(refs);
       if (!first.empty()) {
         auto it = agents_.find(std::string(first));
         a.attributes.emplace("speaker", it == agents_.end() ? std::string(first) : it->second);
