@@ -1,6 +1,6 @@
 #!/usr/bin/python3
-"""The HTML report in a real browser: Debian's chromium, headless, driven by playwright-core
-(tests/npm-reference, pinned by its lock file; see report_browser.cjs for what is checked there).
+"""The HTML report in a real browser: Debian's chromium, headless, driven through Debian's
+chromedriver by python3-selenium (see browser.py for what is checked on every page).
 
 Pages made here, each opened in the browser, with a screenshot left in OUTPUT_DIR:
 - the samples' main document, its captions' lag against its words, and its human gestures
@@ -12,13 +12,15 @@ Pages made here, each opened in the browser, with a screenshot left in OUTPUT_DI
   hold a bounded number of elements at the whole-file view.
 The expected tiers of each file are what `tiers convert --to json` reads from it.
 
-Usage: report_browser.py TIERS TIERS_CORPUS NPM_REFERENCE_DIR SAMPLES CHECK_CORPUS OUTPUT_DIR
+Usage: report_browser.py TIERS TIERS_CORPUS SAMPLES CHECK_CORPUS OUTPUT_DIR
 """
 import json
 import os
 import shutil
 import subprocess
 import sys
+
+import browser as browser_module
 
 failures = []
 
@@ -36,22 +38,32 @@ def tiers_of(tiers, path):
     return [t["name"] for t in json.loads(r.stdout)["tiers"]]
 
 
-def browse(reference, page, expect, shot, what):
-    expect_path = page + ".expect.json"
-    with open(expect_path, "w") as fh:
-        json.dump(expect, fh)
-    r = subprocess.run(["node", os.path.join(reference, "report_browser.cjs"), page, expect_path,
-                        shot], capture_output=True, text=True, timeout=600)
-    check(what, r.returncode == 0 and os.path.getsize(shot) > 10_000,
-          (r.stdout + r.stderr).strip())
+def browse(browser, page, expect, shot, what):
+    try:
+        problems, log = browser.check_page(page, expect, shot)
+    except Exception as e:  # a page that never became ready, a lost browser: a failure, shown
+        problems, log = [f"{type(e).__name__}: {e}"], ""
+    big_enough = os.path.exists(shot) and os.path.getsize(shot) > 10_000
+    check(what, not problems and big_enough,
+          "\n".join([log] + ["FAIL " + p for p in problems] +
+                    ([] if big_enough else [f"no screenshot of a page at {shot}"])).strip())
 
 
 def main():
-    tiers, corpus, reference, samples, check_corpus, out = sys.argv[1:7]
+    tiers, corpus, samples, check_corpus, out = sys.argv[1:6]
     shutil.rmtree(out, ignore_errors=True)
     os.makedirs(out)
-    if not os.path.exists("/usr/bin/chromium"):
-        raise SystemExit("FAIL /usr/bin/chromium is missing: run scripts/install-deps")
+    for program in (browser_module.CHROMIUM, browser_module.CHROMEDRIVER):
+        if not os.path.exists(program):
+            raise SystemExit(f"FAIL {program} is missing: run scripts/install-deps")
+    reference = browser_module.Browser()
+    try:
+        return run_pages(reference, tiers, corpus, samples, check_corpus, out)
+    finally:
+        reference.close()
+
+
+def run_pages(reference, tiers, corpus, samples, check_corpus, out):
 
     # 1. The samples: lanes, lag, agreement with a tier of another file.
     main_doc = os.path.join(samples, "panel-discussion.json")
