@@ -87,10 +87,10 @@ void feature_losses(const document& doc, const format& fmt, feature f,
         out.push_back((names.size() == 1 ? "empty tier " : "empty tiers ") + name_list(names));
       break;
     }
-    case feature::point_tiers:
+    case feature::instant_tiers:
       per_tier(
-          doc, "the point kind (read back as zero-length intervals)",
-          [](const tier& t) { return t.kind == tier_kind::point; }, out);
+          doc, "the instant kind (read back as zero-length intervals)",
+          [](const tier& t) { return t.kind == tier_kind::instant; }, out);
       break;
     case feature::tier_sources:
       per_tier(
@@ -191,8 +191,8 @@ std::string_view to_string(feature f) {
       return "several-tiers";
     case feature::empty_tiers:
       return "empty-tiers";
-    case feature::point_tiers:
-      return "point-tiers";
+    case feature::instant_tiers:
+      return "instant-tiers";
     case feature::tier_sources:
       return "tier-sources";
     case feature::tier_parents:

@@ -37,7 +37,7 @@ tier* find_tier(document& doc, std::string_view name) {
 }
 
 std::string_view to_string(tier_kind kind) {
-  return kind == tier_kind::point ? "point" : "interval";
+  return kind == tier_kind::instant ? "instant" : "interval";
 }
 
 std::string_view to_string(source_kind kind) {
@@ -58,7 +58,7 @@ std::string_view to_string(relation rel) {
 
 std::optional<tier_kind> parse_tier_kind(std::string_view text) {
   if (text == "interval") return tier_kind::interval;
-  if (text == "point") return tier_kind::point;
+  if (text == "instant") return tier_kind::instant;
   return std::nullopt;
 }
 

@@ -20,7 +20,7 @@ document join_as_voices(const document& doc, const std::string& name,
     if (t.parent) parts.push_back("parent link");
     if (t.vocabulary) parts.push_back("vocabulary");
     if (!t.attributes.empty()) parts.push_back("attributes");
-    if (t.kind == tier_kind::point) parts.push_back("point kind");
+    if (t.kind == tier_kind::instant) parts.push_back("instant kind");
     if (!parts.empty()) {
       std::string line = "the ";
       for (std::size_t k = 0; k < parts.size(); ++k)

@@ -37,7 +37,7 @@ def main():
     path = os.path.join(out, "normalization.json")
     with open(path, "w", encoding="utf-8") as fh:
         fh.write('{"format": "tiers", "version": 1, "tiers": [{"name": "text", '
-                 '"kind": "point", "annotations": [\n')
+                 '"kind": "instant", "annotations": [\n')
         for n, (c, _) in enumerate(lines):
             fh.write(("," if n else "") + json.dumps({"start": n, "text": c}) + "\n")
         fh.write("]}]}\n")

@@ -82,10 +82,10 @@ def run_pages(reference, tiers, corpus, samples, check_corpus, out):
     # 2. One recording in several formats, on one page.
     files = [os.path.join(samples, f) for f in
              ("panel-discussion.tiers", "panel-discussion.vtt", "panel-discussion.ttml",
-              "gesture-phases.timecode.csv")]
+              "gesture-types.timecode.csv")]
     page = os.path.join(out, "formats.html")
     r = subprocess.run([tiers, "report", *files, "--columns",
-                        "tier=Layer,start=Begin,end=End,text=Value", "--rate", "25", "-o", page],
+                        "tier=track,start=onset,end=offset,text=label", "--rate", "25", "-o", page],
                        capture_output=True, text=True)
     if r.returncode != 0:  # --columns applies to the table only; the others ignore it
         check("report of several formats exits 0", False, r.stderr)
@@ -152,7 +152,7 @@ def run_pages(reference, tiers, corpus, samples, check_corpus, out):
 
 def tiers_of_with(tiers, path):
     r = subprocess.run([tiers, "convert", path, "--to", "json", "--columns",
-                        "tier=Layer,start=Begin,end=End,text=Value", "--rate", "25"],
+                        "tier=track,start=onset,end=offset,text=label", "--rate", "25"],
                        capture_output=True, text=True)
     if r.returncode != 0:
         raise SystemExit(f"FAIL tiers convert {path}: {r.stderr}")

@@ -188,7 +188,7 @@ TEST_CASE("profile mistakes are located", "[check][profile]") {
       {"{\"format\": \"tiers-profile\", \"version\": 2}", "profile.value", 1, 40, "must be 1"},
       {"{\"format\": \"tiers-profile\", \"version\": 1,\n \"extends\": \"../elsewhere.json\"}",
        "profile.value", 2, 13, "not '../elsewhere.json'"},
-      {"{\"format\": \"tiers-profile\", \"version\": 1, \"tiers\": [{\"kind\": \"point\"}]}",
+      {"{\"format\": \"tiers-profile\", \"version\": 1, \"tiers\": [{\"kind\": \"instant\"}]}",
        "profile.member", 1, 53, "has no 'name'"},
       {"{\"format\": \"tiers-profile\",\n \"version\": 1,,}", "json.syntax", 2, 15, "invalid JSON"},
   };

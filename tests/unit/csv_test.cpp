@@ -122,9 +122,9 @@ TEST_CASE("csv reads SMPTE drop-frame timecode", "[csv][timecode]") {
   CHECK(doc.tiers[0].annotations[5].start == 3'599'996'400'000);
 }
 
-TEST_CASE("csv without end or duration column is a point tier", "[csv]") {
+TEST_CASE("csv without end or duration column is an instant tier", "[csv]") {
   const document doc = read_as("csv", "tier,start,text\nnods,1.5,nod\n");
-  CHECK(doc.tiers[0].kind == tier_kind::point);
+  CHECK(doc.tiers[0].kind == tier_kind::instant);
   CHECK(doc.tiers[0].annotations[0].end == 1'500'000'000);
 }
 

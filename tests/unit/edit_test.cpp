@@ -65,7 +65,7 @@ TEST_CASE("snapping moves each time to the nearest frame", "[edit]") {
   CHECK(n.tiers[0].annotations[0].start == 5'105'100'000);
 }
 
-TEST_CASE("cutting keeps what overlaps, clipped, and can rebase", "[edit]") {
+TEST_CASE("cutting keeps what overlaps, clipped, and can start the cut from zero", "[edit]") {
   document d;
   d.media.duration = 100 * ns_per_second;
   tier& t = d.tiers.emplace_back();

@@ -36,7 +36,7 @@ TEST_CASE("without a media duration, coverage is of the span of all tiers", "[in
   const document_summary s = summarize(doc);
   CHECK_FALSE(s.reference_is_media);
   CHECK(s.reference == *s.end - *s.start);
-  CHECK_FALSE(s.tiers[3].coverage);  // a point tier has none
+  CHECK_FALSE(s.tiers[3].coverage);  // an instant tier has none
   CHECK_FALSE(s.tiers[4].start);     // an empty tier has no span
 }
 

@@ -51,9 +51,9 @@ TEST_CASE("json reads numbers in any JSON form exactly", "[json]") {
   CHECK(t.annotations[1].confidence == 1.0);
 }
 
-TEST_CASE("json defaults: point annotations may omit end, kind defaults to interval", "[json]") {
+TEST_CASE("json defaults: instant annotations may omit end, kind defaults to interval", "[json]") {
   const document doc = read_as("json", R"({"format": "tiers", "version": 1, "tiers": [
-    {"name": "p", "kind": "point", "annotations": [{"start": 5, "text": "x"}]},
+    {"name": "p", "kind": "instant", "annotations": [{"start": 5, "text": "x"}]},
     {"annotations": [{"start": 1, "end": 2, "text": "y"}], "name": "i"}]})");
   CHECK(doc.tiers[0].annotations[0].end == 5 * ns_per_second);
   CHECK(doc.tiers[1].kind == tier_kind::interval);
@@ -90,7 +90,7 @@ TEST_CASE("bad json is rejected with its location", "[json][bad-input]") {
        "json.member", 1, 45, "tier has no 'name'"},
       {"{\"format\": \"tiers\", \"version\": 1, \"tiers\": [{\"name\": \"t\", \"kind\": "
        "\"span\"}]}",
-       "json.value", 1, 59, "'kind' must be \"interval\" or \"point\""},
+       "json.value", 1, 59, "'kind' must be \"interval\" or \"instant\""},
       {"{\"format\": \"tiers\", \"version\": 1, \"tiers\": [{\"name\": \"t\", \"annotations\": [\n"
        "  {\"start\": 1, \"text\": \"no end\"}]}]}",
        "json.member", 2, 3, "has no 'end'"},

@@ -38,7 +38,7 @@ document restrict_to(document doc, const format& f) {
   }
   for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
     tier& t = doc.tiers[k];
-    if (!fs.has(feature::point_tiers)) t.kind = tier_kind::interval;
+    if (!fs.has(feature::instant_tiers)) t.kind = tier_kind::interval;
     if (!fs.has(feature::tier_sources)) t.source.reset();
     const bool inline_words = fs.has(feature::inline_words) && fs.has(feature::several_tiers) &&
                               t.parent && t.parent->rel == relation::within &&
@@ -137,7 +137,7 @@ TEST_CASE("loss reports name what is dropped", "[registry][loss]") {
   const std::vector<std::string> losses = find_losses(rich_document(), *find_format("csv"));
   const std::vector<std::string> expected = {
       "empty tier 'gaze (not yet annotated)'",
-      "the point kind (read back as zero-length intervals) of tier 'nods'",
+      "the instant kind (read back as zero-length intervals) of tier 'nods'",
       "the source of tiers 'captions', 'words'",
       "the parent link of tier 'words'",
       "the vocabulary of tier 'gestures'",

@@ -56,7 +56,7 @@ document rich_document() {
 
   tier nods;
   nods.name = "nods";
-  nods.kind = tier_kind::point;
+  nods.kind = tier_kind::instant;
   annotation n;
   n.start = n.end = 5'500'000'000;
   n.text = "nod";

@@ -58,7 +58,7 @@ TEST_CASE("tiers text: the layout of a small document", "[tiers-text]") {
   t.annotations = {a};
   tier& p = doc.tiers.emplace_back();
   p.name = "nods";
-  p.kind = tier_kind::point;
+  p.kind = tier_kind::instant;
   annotation n;
   n.start = n.end = 3723 * ns_per_second;
   p.annotations = {n};
@@ -75,7 +75,7 @@ TEST_CASE("tiers text: the layout of a small document", "[tiers-text]") {
         "  attr coder=B\n"
         "  00:00:01.500 00:00:02.000000001 id=g1 conf=0.25 @hand=left | beat\n"
         "\n"
-        "tier nods point\n"
+        "tier nods instant\n"
         "  01:02:03.000 |\n");
   CHECK(read_as("tiers", text) == doc);
 }
@@ -127,11 +127,11 @@ TEST_CASE("tiers text: random documents round-trip", "[tiers-text][round-trip]")
     for (int k = static_cast<int>(rng() % 4); k > 0; --k) {
       tier& t = doc.tiers.emplace_back();
       t.name = pick();
-      t.kind = rng() % 3 == 0 ? tier_kind::point : tier_kind::interval;
+      t.kind = rng() % 3 == 0 ? tier_kind::instant : tier_kind::interval;
       for (int n = static_cast<int>(rng() % 6); n > 0; --n) {
         annotation a;
         a.start = static_cast<time_ns>(rng()) * 1'000 - 5'000'000;
-        a.end = t.kind == tier_kind::point && rng() % 2
+        a.end = t.kind == tier_kind::instant && rng() % 2
                     ? a.start
                     : a.start + static_cast<time_ns>(rng() % 1'000'000'007);
         a.text = pick();

@@ -380,7 +380,7 @@ TEST_CASE("speaker tiers join into one tier of voices", "[vtt][voices]") {
   for (const char* name : {"Ana", "Bo"}) {
     tier& t = doc.tiers.emplace_back();
     t.name = name;
-    t.kind = std::string_view(name) == "Bo" ? tier_kind::point : tier_kind::interval;
+    t.kind = std::string_view(name) == "Bo" ? tier_kind::instant : tier_kind::interval;
   }
   annotation a;
   a.start = 2 * ns_per_second;
@@ -399,7 +399,7 @@ TEST_CASE("speaker tiers join into one tier of voices", "[vtt][voices]") {
   CHECK(joined.tiers[0].annotations[0].attributes.at("speaker") == "Bo (off screen)");
   CHECK(joined.tiers[0].annotations[1].attributes.at("speaker") == "Ana");
   CHECK(losses == std::vector<std::string>{
-                      "the point kind of tier 'Bo' (joined into the voices of 'dialogue')"});
+                      "the instant kind of tier 'Bo' (joined into the voices of 'dialogue')"});
 }
 
 TEST_CASE("mutated WebVTT that reads without loss writes and reads back the same",

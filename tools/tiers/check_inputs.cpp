@@ -41,7 +41,7 @@ file_report check_one(const std::string& path, const check_options& o, const pro
   read_result r = read_document(content, *fmt, options, name);
   if (!r.ok()) return unreadable_file(name, r.diagnostics);
   check_context roles = shared;
-  roles.point_tiers = fmt->carries.has(feature::point_tiers);
+  roles.instant_tiers = fmt->carries.has(feature::instant_tiers);
   // A WebVTT file is a caption file: its cues are checked as captions unless told otherwise.
   if (!roles.captions && !p.captions && fmt->name == "vtt" && !r.doc.tiers.empty())
     roles.captions = r.doc.tiers.front().name;

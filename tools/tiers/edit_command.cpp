@@ -1,4 +1,4 @@
-// `tiers edit IN -o OUT [--shift D] [--scale FROM:TO] [--snap RATE] [--cut A..B [--rebase]]
+// `tiers edit IN -o OUT [--shift D] [--scale FROM:TO] [--snap RATE] [--cut A..B [--from-zero]]
 // [--select T] [--drop T] [--rename OLD=NEW]`: each operation in the order given.
 #include "edit_command.hpp"
 
@@ -30,7 +30,7 @@ CLI::App* setup_edit(CLI::App& app, edit_options& o) {
                   "00:01:00..00:01:30")
       ->allow_extra_args(false)
       ->type_name("START..END");
-  cmd->add_flag("--rebase", o.rebase, "A cut's start becomes zero");
+  cmd->add_flag("--from-zero", o.from_zero, "A cut's start becomes zero");
   cmd->add_option("--select", o.selects, "Keep this tier (repeatable; the others go)")
       ->allow_extra_args(false)
       ->type_name("TIER");
@@ -109,7 +109,7 @@ int run_edit(const edit_options& o) {
       if (dots == std::string::npos)
         throw usage_error("--cut: expected START..END, got '" + v + "'");
       problem = cut_times(doc, time_option("--cut", std::string_view(v).substr(0, dots)),
-                          time_option("--cut", std::string_view(v).substr(dots + 2)), o.rebase);
+                          time_option("--cut", std::string_view(v).substr(dots + 2)), o.from_zero);
     } else if (name == "--drop") {
       problem = drop_tier(doc, o.drops[k]);
     } else if (name == "--rename") {

@@ -13,7 +13,7 @@ struct edit_options {
   input_options input;
   std::string output, to;
   std::vector<std::string> shifts, scales, snaps, cuts, selects, drops, renames;
-  bool rebase = false;
+  bool from_zero = false;
   bool allow_loss = false;
   const CLI::App* command = nullptr;  ///< for the order the operations were given in
 };

@@ -120,7 +120,7 @@ class table_reader {
     if (columns_[r_end] != absent && columns_[r_duration] != absent)
       return fail_at("csv.header", cells_[columns_[r_duration]].offset,
                      "both 'end' and 'duration' columns: keep one");
-    kind_ = columns_[r_end] == absent && columns_[r_duration] == absent ? tier_kind::point
+    kind_ = columns_[r_end] == absent && columns_[r_duration] == absent ? tier_kind::instant
                                                                         : tier_kind::interval;
     attribute_columns_.clear();
     for (std::size_t k = 0; k < header_.size(); ++k)

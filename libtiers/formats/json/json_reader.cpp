@@ -501,7 +501,7 @@ bool handler::tier_scalar(const scalar& v) {
     auto s = string_of(v);
     if (!s) return false;
     auto k = parse_tier_kind(*s);
-    if (!k) return fail_member("must be \"interval\" or \"point\"");
+    if (!k) return fail_member("must be \"interval\" or \"instant\"");
     t.kind = *k;
     return true;
   }
@@ -558,7 +558,7 @@ bool handler::finish_object(const frame& f) {
       if (!(f.seen & (1u << t_name))) return missing("name");
       if (missing_end_ != no_offset && current_tier().kind == tier_kind::interval)
         return fail_at("json.member", missing_end_,
-                       "annotation has no 'end' (only annotations of point tiers may omit it)");
+                       "annotation has no 'end' (only annotations of instant tiers may omit it)");
       return true;
     case ctx::source:
       if (!(f.seen & (1u << s_kind))) return missing("kind");

@@ -25,10 +25,10 @@ void member(byte_sink& out, std::string_view key) {
   out.write("\": ");
 }
 
-void write_annotation(byte_sink& out, const annotation& a, bool point) {
+void write_annotation(byte_sink& out, const annotation& a, bool instant) {
   out.write("{\"start\": ");
   write_json_seconds(out, a.start);
-  if (!point || a.end != a.start) {
+  if (!instant || a.end != a.start) {
     member(out, "end");
     write_json_seconds(out, a.end);
   }
@@ -87,10 +87,10 @@ void write_tier(byte_sink& out, const tier& t) {
     write_string_map(out, t.attributes);
   }
   out.write(",\n      \"annotations\": [");
-  const bool point = t.kind == tier_kind::point;
+  const bool instant = t.kind == tier_kind::instant;
   for (std::size_t k = 0; k < t.annotations.size(); ++k) {
     out.write(k == 0 ? "\n        " : ",\n        ");
-    write_annotation(out, t.annotations[k], point);
+    write_annotation(out, t.annotations[k], instant);
   }
   out.write(t.annotations.empty() ? "]\n    }" : "\n      ]\n    }");
 }

@@ -149,14 +149,14 @@ class text_reader {
 
   void read_tier() {
     if (items_.size() < 2 || items_.size() > 3 || items_[1].value || items_[1].attribute)
-      return bad(items_[0], "expected 'tier NAME [interval|point]'");
+      return bad(items_[0], "expected 'tier NAME [interval|instant]'");
     tier& t = out_.doc.tiers.emplace_back();
     positions_.tier(line_start_);
     current_ = &t;
     t.name = items_[1].key;
     if (items_.size() == 3) {
       auto kind = parse_tier_kind(items_[2].key);
-      if (!kind || items_[2].value) return bad(items_[2], "a tier's kind is interval or point");
+      if (!kind || items_[2].value) return bad(items_[2], "a tier's kind is interval or instant");
       t.kind = *kind;
     }
   }

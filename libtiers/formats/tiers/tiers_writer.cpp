@@ -29,10 +29,10 @@ void pair(std::string& line, std::string_view key, std::string_view value, bool 
   append_value(line, value);
 }
 
-void write_annotation(std::string& line, const annotation& a, bool point) {
+void write_annotation(std::string& line, const annotation& a, bool instant) {
   line = "  ";
   line += time_text(a.start);
-  if (!point || a.end != a.start) {
+  if (!instant || a.end != a.start) {
     line += ' ';
     line += time_text(a.end);
   }
@@ -105,9 +105,9 @@ void write_tiers_text(const document& doc, byte_sink& out, const write_options&)
       line += '\n';
     }
     out.write(line);
-    const bool point = t.kind == tier_kind::point;
+    const bool instant = t.kind == tier_kind::instant;
     for (const annotation& a : t.annotations) {
-      write_annotation(line, a, point);
+      write_annotation(line, a, instant);
       out.write(line);
     }
   }

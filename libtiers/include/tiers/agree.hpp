@@ -24,7 +24,7 @@ struct time_grid {
 
 /// The label of every frame of `grid` in each tier, as indices into `labels` (-1: no label).
 /// A frame takes the label of the annotation that covers its middle (of the one starting last,
-/// where several do); a point annotation labels the frame it falls in.
+/// where several do); an instant annotation labels the frame it falls in.
 struct framed_tiers {
   std::vector<std::string> labels;
   std::vector<std::vector<std::int32_t>> frames;  ///< one per tier

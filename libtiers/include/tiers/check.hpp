@@ -37,10 +37,10 @@ struct check_context {
   const document* words_doc = nullptr;  ///< or of this document, read from another file
   std::string words_file;
   const source_map* words_positions = nullptr;
-  /// Whether the file's format tells point tiers from intervals (format feature point_tiers).
+  /// Whether the file's format tells instant tiers from intervals (format feature instant_tiers).
   /// When it cannot (tables, captions), a tier whose every annotation is an instant is taken
-  /// as a point tier rather than reported.
-  bool point_tiers = true;
+  /// as an instant tier rather than reported.
+  bool instant_tiers = true;
 };
 
 /// How the captions compared with the words.

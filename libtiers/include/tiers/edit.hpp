@@ -25,10 +25,10 @@ std::optional<std::string> scale_times(document& doc, rational from, rational to
 /// Moves every time to the nearest frame boundary at `rate` (halfway rounds away from zero).
 std::optional<std::string> snap_times(document& doc, rational rate);
 
-/// Keeps what lies in [start, end): intervals that overlap it, clipped to it; points inside it.
-/// With `rebase`, `start` becomes zero and the media's duration end − start (at most what is
+/// Keeps what lies in [start, end): intervals that overlap it, clipped to it; instants inside it.
+/// With `from_zero`, `start` becomes zero and the media's duration end − start (at most what is
 /// left of it).
-std::optional<std::string> cut_times(document& doc, time_ns start, time_ns end, bool rebase);
+std::optional<std::string> cut_times(document& doc, time_ns start, time_ns end, bool from_zero);
 
 /// Tier operations: keep only `names` (in document order); drop `name`; rename `from` to `to`
 /// (parents that name it follow).

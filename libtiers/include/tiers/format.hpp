@@ -22,7 +22,7 @@ namespace tiers {
 enum class feature : std::uint8_t {
   several_tiers,          ///< more than one tier in a file
   empty_tiers,            ///< tiers without annotations
-  point_tiers,            ///< the point kind, as distinct from zero-length intervals
+  instant_tiers,          ///< the instant kind, as distinct from zero-length intervals
   tier_sources,           ///< human/machine, agent, version
   tier_parents,           ///< parent tier and relation
   vocabularies,           ///< allowed labels

@@ -35,7 +35,7 @@ struct document_summary {
 
 document_summary summarize(const document& doc);
 
-/// The summary as one JSON object (docs/cli/info.md): times in exact seconds, coverage as a
+/// The summary as one JSON object (docs/cli.md, "info"): times in exact seconds, coverage as a
 /// fraction. `path` names the file it describes.
 void write_summary_json(const document_summary& summary, std::string_view path, byte_sink& out);
 

@@ -140,7 +140,7 @@ class optional_text {
 /// What an annotation stands for in time.
 enum class tier_kind : std::uint8_t {
   interval,  ///< each annotation spans [start, end)
-  point,     ///< each annotation is an instant: start == end
+  instant,   ///< each annotation is an instant: start == end
 };
 
 /// Who made a tier.
@@ -171,7 +171,7 @@ struct parent_link {
 /// One labelled span or instant.
 struct annotation {
   time_ns start = 0;
-  time_ns end = 0;                   ///< equal to start in a point tier
+  time_ns end = 0;                   ///< equal to start in an instant tier
   std::string text;                  ///< plain text
   optional_text markup;              ///< the original formatted text, e.g. a cue's tags
   std::optional<double> confidence;  ///< in [0, 1]

@@ -11,7 +11,7 @@ namespace tiers {
 /// One tier named `name` holding every annotation of `doc`, in start-time order (ties keep the
 /// document's order), each with attribute `speaker` set to its tier's name unless it has one.
 /// Media and metadata are kept. What the joined tier cannot keep — each tier's source, parent,
-/// vocabulary, attributes and point kind — is appended to `losses`, one line each.
+/// vocabulary, attributes and instant kind — is appended to `losses`, one line each.
 document join_as_voices(const document& doc, const std::string& name,
                         std::vector<std::string>& losses);
 

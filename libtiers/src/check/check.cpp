@@ -107,11 +107,11 @@ void checker::check_profile() {
       continue;
     }
     const tier& have = doc_.tiers[*t];
-    // A format that cannot say a tier is of points (a table) makes it an interval tier of
-    // instants; that is no conflict with a profile that says points.
+    // A format that cannot say a tier is of instants (a table) makes it an interval tier of
+    // instants; that is no conflict with a profile that says instants.
     const bool instants = std::all_of(have.annotations.begin(), have.annotations.end(),
                                       [](const annotation& a) { return a.start == a.end; });
-    const bool unsaid = !context_.point_tiers && have.kind == tier_kind::interval && instants;
+    const bool unsaid = !context_.instant_tiers && have.kind == tier_kind::interval && instants;
     if (spec.kind && *spec.kind != have.kind && !unsaid)
       emit("dataset.tier-kind", *t, no_index,
            "tier " + quote_name(have.name) + " is a " + std::string(to_string(have.kind)) +

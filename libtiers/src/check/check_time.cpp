@@ -62,9 +62,9 @@ void checker::check_time(std::size_t t) {
     if (a > 0 && x.start < as[a - 1].start) {
       if (out_of_order++ == 0) first_out = a;
     }
-    if (tr.kind == tier_kind::point && x.end != x.start)
+    if (tr.kind == tier_kind::instant && x.end != x.start)
       emit("tier.kind", t, a,
-           "a point tier holds an interval (" + clock(x.start) + " to " + clock(x.end) + ")");
+           "an instant tier holds an interval (" + clock(x.start) + " to " + clock(x.end) + ")");
     if (x.start == x.end) ++instants;
     if (find_duplicates) {
       auto [it, added] = seen.emplace(span_key{x.start, x.end, x.text}, a);
@@ -84,11 +84,11 @@ void checker::check_time(std::size_t t) {
                                      " annotations of this tier start before the one before them"
                                : ""));
   if (tr.kind != tier_kind::interval || instants == 0) return;
-  if (instants == as.size() && !context_.point_tiers) return;  // a point tier, as far as known
+  if (instants == as.size() && !context_.instant_tiers) return;  // an instant tier, as far as known
   if (instants == as.size() && as.size() > 1) {
     emit("tier.kind", t, no_index,
          "every annotation of interval tier " + quote_name(tr.name) +
-             " is an instant: it is a point tier");
+             " is an instant: it is an instant tier");
     return;
   }
   for (std::size_t a = 0; a < as.size(); ++a)

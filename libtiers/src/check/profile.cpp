@@ -161,7 +161,7 @@ void profile_reader::read_tier(const json_node& n) {
   if (auto r = f.boolean("required")) spec.required = *r;
   if (auto k = f.string("kind")) {
     spec.kind = parse_tier_kind(*k);
-    if (!spec.kind) f.bad(*f.get("kind"), "'kind' must be \"interval\" or \"point\"");
+    if (!spec.kind) f.bad(*f.get("kind"), "'kind' must be \"interval\" or \"instant\"");
   }
   if (const json_node* p = f.object("parent")) {
     json_fields pf(*p, "parent", "profile", local_);

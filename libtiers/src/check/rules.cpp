@@ -21,7 +21,7 @@ constexpr std::array<rule_info, 74> catalogue{{
     // Tiers as wholes.
     {"tier.duplicate-name", "tier", error, "two tiers have the same name", ""},
     {"tier.kind", "tier", error,
-     "a point tier holds intervals, or an interval tier holds only instants", ""},
+     "an instant tier holds intervals, or an interval tier holds only instants", ""},
     {"tier.overlap", "tier", error,
      "annotations of a tier overlap where the tier does not allow it (the default for "
      "interval tiers)",

@@ -65,7 +65,7 @@ std::optional<std::string> snap_times(document& doc, rational rate) {
       false, "snapping");
 }
 
-std::optional<std::string> cut_times(document& doc, time_ns start, time_ns end, bool rebase) {
+std::optional<std::string> cut_times(document& doc, time_ns start, time_ns end, bool from_zero) {
   if (end <= start) return "the range ends before it starts";
   for (tier& t : doc.tiers) {
     std::vector<annotation> kept;
@@ -75,7 +75,7 @@ std::optional<std::string> cut_times(document& doc, time_ns start, time_ns end, 
         continue;
       a.start = std::clamp(a.start, start, end);
       a.end = std::clamp(a.end, start, end);
-      if (rebase) {
+      if (from_zero) {
         a.start -= start;
         a.end -= start;
       }
@@ -83,7 +83,7 @@ std::optional<std::string> cut_times(document& doc, time_ns start, time_ns end, 
     }
     t.annotations = std::move(kept);
   }
-  if (rebase) {
+  if (from_zero) {
     const time_ns length = end - start;
     doc.media.duration =
         doc.media.duration ? std::clamp<time_ns>(*doc.media.duration - start, 0, length) : length;

@@ -198,7 +198,7 @@ class merger {
     for (const tier* t : {h, m})
       if (t->kind != tier_kind::interval) {
         report(severity::error, "merge.combine",
-               quote_name(t->name) + " is a point tier; combining needs interval tiers");
+               quote_name(t->name) + " is an instant tier; combining needs interval tiers");
         return;
       }
     for (const std::string* name : {&c.into, c.review ? &*c.review : nullptr})

@@ -90,8 +90,8 @@
         if (a[1] < view.start) continue;
         const x0 = Math.max(0, x(a[0])), x1 = Math.min(w, x(a[1]));
         const conf = a[3] === null ? "" : ` (confidence ${a[3]})`;
-        if (tier.kind === "point") {
-          out += `<line class="ann point ${who}" x1="${x0}" x2="${x0}" y1="6" y2="${LANE - 2}"><title>${clock(a[0], 3)} ${esc(a[2])}${conf}</title></line>`;
+        if (tier.kind === "instant") {
+          out += `<line class="ann instant ${who}" x1="${x0}" x2="${x0}" y1="6" y2="${LANE - 2}"><title>${clock(a[0], 3)} ${esc(a[2])}${conf}</title></line>`;
           continue;
         }
         if (x1 - x0 < 1) {
