@@ -153,6 +153,11 @@ void checker::check_lag(std::size_t c) {
     w = index_of(wdoc, "words");
   const std::string in_file = context_.words_doc ? " in " + context_.words_file : "";
   if (!w) {
+    // One problem per cause: a tier of this document that the profile requires is reported
+    // missing by check_profile already.
+    const std::string name = wanted ? *wanted : "words";
+    const tier_spec* spec = context_.words_doc ? nullptr : profile_.find_tier(name);
+    if (spec && spec->required) return;
     emit("dataset.tier-missing", no_index, no_index,
          (wanted ? "no tier " + quote_name(*wanted) : std::string("no tier 'words'")) + in_file +
              " to compare the captions with" + (wanted ? "" : " (name it: --words FILE:TIER)"));
