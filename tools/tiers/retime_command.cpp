@@ -125,6 +125,22 @@ std::string text_report(const retime_result& r, const tier& before) {
              unfixed, format_seconds(largest));
 }
 
+// Names the tier that is not there and the tiers that are, and the one option that picks it.
+int missing_tier(const std::string& file, const document& doc, const std::string& name,
+                 const char* role, const char* option) {
+  std::string there;
+  for (const tier& t : doc.tiers)
+    there += (there.empty() ? "" : ", ") + quote_name(t.name);
+  diagnostic d;
+  d.file = file;
+  d.code = "retime.tier";
+  d.message = "no tier " + quote_name(name) + " for " + role + " (" +
+              (there.empty() ? std::string("the file has no tiers") : "its tiers: " + there) +
+              "); name " + role + " with " + option;
+  report(d);
+  return exit_rejected;
+}
+
 }  // namespace
 
 int run_retime(const retime_options_cli& o) {
@@ -159,17 +175,13 @@ int run_retime(const retime_options_cli& o) {
     words = &wdoc.tiers.front();
   else
     words = find_tier(wdoc, "words");
-  for (auto [missing, what] :
-       {std::pair{captions == nullptr, "captions " + quote_name(caption_name)},
-        std::pair{words == nullptr, std::string("word timings")}})
-    if (missing) {
-      diagnostic d;
-      d.file = file;
-      d.code = "retime.tier";
-      d.message = "no tier of " + what + " (name it with --captions or --words FILE:TIER)";
-      report(d);
-      return exit_rejected;
-    }
+  if (!captions)
+    return missing_tier(file, doc, caption_name, "the caption tier", "--captions TIER");
+  if (!words) {
+    const std::string in = other ? display_name(other->path) : file;
+    return missing_tier(in, wdoc, words_tier.value_or("words"), "the word tier",
+                        other ? "--words FILE:TIER" : "--words TIER");
+  }
 
   retime_options ro;
   ro.lead_in = parse_duration_option("--lead-in", o.lead_in);
