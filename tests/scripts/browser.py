@@ -17,11 +17,14 @@ import json
 import os
 import re
 import shutil
+import subprocess
 import tempfile
+import time
 
 from selenium import webdriver
 from selenium.webdriver.chrome.options import Options
 from selenium.webdriver.chrome.service import Service
+from selenium.webdriver.common import utils
 from selenium.webdriver.common.action_chains import ActionChains
 from selenium.webdriver.common.by import By
 from selenium.webdriver.common.keys import Keys
@@ -48,31 +51,68 @@ requestAnimationFrame(() => requestAnimationFrame(() => done(true)));
 """
 
 
+class LoopbackService(Service):
+    """chromedriver reached at 127.0.0.1 rather than by the name `localhost`, which a minimal
+    root (a fresh debootstrap has no /etc/hosts) cannot resolve."""
+
+    @property
+    def service_url(self):
+        return f"http://127.0.0.1:{self.port}"
+
+    def is_connectable(self):
+        return utils.is_connectable(self.port, host="127.0.0.1")
+
+
 class Browser:
     """One headless chromium for a whole test run; `check_page` opens one page in it."""
 
     def __init__(self):
         self.profile = tempfile.mkdtemp(prefix="tiers-chromium-")
-        options = Options()
-        options.binary_location = CHROMIUM
+        # Chromium is started here and chromedriver attaches to it at 127.0.0.1: left to start
+        # the browser itself, chromedriver reaches it by the name `localhost`, which a minimal
+        # root (a fresh debootstrap has no /etc/hosts) cannot resolve.
+        port = utils.free_port()
         # As this machine needs them: no sandbox as root, no background connections to a
         # closed network, a fresh profile.
-        for arg in ("--headless=new", "--no-sandbox", "--disable-gpu", "--disable-dev-shm-usage",
-                    "--disable-background-networking", "--no-first-run",
-                    "--disable-component-update", "--disable-sync", "--disable-quic",
-                    "--window-size=1400,1000", f"--user-data-dir={self.profile}"):
-            options.add_argument(arg)
-        options.set_capability("goog:loggingPrefs", {"performance": "ALL"})
-        self.driver = webdriver.Chrome(service=Service(CHROMEDRIVER), options=options)
+        self.chromium = subprocess.Popen(
+            [CHROMIUM, "--headless=new", "--no-sandbox", "--disable-gpu", "--disable-dev-shm-usage",
+             "--disable-background-networking", "--no-first-run", "--disable-component-update",
+             "--disable-sync", "--disable-quic", "--window-size=1400,1000",
+             f"--user-data-dir={self.profile}", "--remote-debugging-address=127.0.0.1",
+             f"--remote-debugging-port={port}", "about:blank"],
+            stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+        try:
+            deadline = time.monotonic() + 60
+            while not utils.is_connectable(port, host="127.0.0.1"):
+                if self.chromium.poll() is not None or time.monotonic() > deadline:
+                    raise RuntimeError(f"{CHROMIUM} did not open its DevTools port "
+                                       f"(exit status {self.chromium.poll()})")
+                time.sleep(0.1)
+            options = Options()
+            options.debugger_address = f"127.0.0.1:{port}"
+            options.set_capability("goog:loggingPrefs", {"performance": "ALL"})
+            self.driver = webdriver.Chrome(service=LoopbackService(CHROMEDRIVER), options=options)
+        except BaseException:
+            self._stop_chromium()
+            raise
         self.driver.set_script_timeout(60)
         self.driver.execute_cdp_cmd("Network.enable", {})
         self.driver.execute_cdp_cmd("Page.addScriptToEvaluateOnNewDocument", {"source": WATCH})
+
+    def _stop_chromium(self):
+        self.chromium.terminate()
+        try:
+            self.chromium.wait(timeout=20)
+        except subprocess.TimeoutExpired:
+            self.chromium.kill()
+            self.chromium.wait()
+        shutil.rmtree(self.profile, ignore_errors=True)
 
     def close(self):
         try:
             self.driver.quit()
         finally:
-            shutil.rmtree(self.profile, ignore_errors=True)
+            self._stop_chromium()
 
     def requests(self):
         """Every URL the page asked for since the last call (from the DevTools network log)."""
