@@ -12,7 +12,7 @@ what was planted, with bounds from the issue that asked for them:
 - edit: a shift by +x then −x, and scaling 25 → 24000/1001 → 25 of frame-aligned times, give back
   the very same file.
 
-Usage: derive_retime.py TIERS OUTPUT_DIR
+Usage: derive_retime.py TIERS OUTPUT_DIR SAMPLES
 """
 import json
 import os
@@ -136,6 +136,59 @@ def retime_case(tiers, out, name, lag):
           report["summary"]["cues"] == len(cues) and len(report["cues"]) == len(cues))
 
 
+def retime_vtt_case(tiers, out, samples):
+    """Re-timing into WebVTT works on its millisecond grid: the minimum duration (5/6 s) rounds
+    up to 834 ms, uneven splits of a gap stay whole milliseconds, sub-millisecond word times
+    round to the nearest; the file written needs no --allow-loss, and `tiers check` finds
+    none of the caption rules retime says it met (the task's own acceptance check)."""
+    rule_ids = ("caption.min-duration", "caption.gap", "caption.overlap")
+    words = [(1.0002, 1.2001, "yes"),                      # one short word: grows to 5/6 s
+             (3.0004, 3.4003, "we"), (3.4003, 3.9007, "planted"),
+             (3.9011, 4.3009, "beans"),                     # then, 0.4 ms later:
+             (4.3013, 4.7001, "then"), (4.7002, 5.6999, "rain"),
+             (8.0006, 8.5004, "and"), (8.5004, 9.0001, "sun")]
+    csv_path = os.path.join(out, "grid.words.csv")
+    with open(csv_path, "w") as fh:
+        fh.write("start,end,text\n")
+        for start, end, text in words:
+            fh.write(f"{start},{end},{text}\n")
+    vtt = os.path.join(out, "grid.vtt")
+    with open(vtt, "w") as fh:
+        fh.write("WEBVTT\n\n00:00:03.000 --> 00:00:03.300\nYes.\n\n"
+                 "00:00:05.000 --> 00:00:06.000\nWe planted beans.\n\n"
+                 "00:00:06.300 --> 00:00:07.700\nThen rain.\n\n"
+                 "00:00:10.000 --> 00:00:11.000\nAnd sun.\n")
+    cases = [("invented cues on sub-millisecond words", vtt, csv_path),
+             ("the samples' WebVTT onto their words", os.path.join(samples, "panel-discussion.vtt"),
+              os.path.join(samples, "panel-discussion.json") + ":words")]
+    for what, captions, word_spec in cases:
+        result = os.path.join(out, os.path.basename(captions).replace(".vtt", ".retimed.vtt"))
+        r = subprocess.run([tiers, "retime", captions, "--words", word_spec, "-o", result,
+                            "--json"], capture_output=True, text=True)
+        check(f"retime into WebVTT, {what}: exits 0 without --allow-loss",
+              r.returncode == 0 and os.path.exists(result), r.stderr)
+        if r.returncode != 0:
+            continue
+        moves = json.loads(r.stdout)["cues"]
+        check(f"retime into WebVTT, {what}: every new time is a whole millisecond",
+              all(round(m[k] * 1000, 6) == round(m[k] * 1000) for m in moves
+                  for k in ("new_start", "new_end")), str(moves[:3]))
+        unfixed = [m for m in moves if m.get("unfixed")]
+        c = subprocess.run([tiers, "check", result, "--format", "json"], capture_output=True,
+                           text=True)
+        problems = [p for f in json.loads(c.stdout)["files"] for p in f["problems"]]
+        undone = [p for p in problems if p["rule"] in rule_ids]
+        check(f"retime into WebVTT, {what}: checked again, no rule retime met is violated",
+              not undone and not unfixed, json.dumps(undone + unfixed))
+        if what.startswith("invented"):
+            short = next(m for m in moves if m["cue"] == 0)
+            check("retime into WebVTT: the minimum duration is 5/6 s rounded up to 834 ms",
+                  round((short["new_end"] - short["new_start"]) * 1000) == 834, json.dumps(short))
+            text = " ".join(m.get("adjusted", "") for m in moves)
+            check("retime into WebVTT: no cue is said to be lengthened by 0 s",
+                  "lengthened by 0 s" not in text, text)
+
+
 def edit_case(tiers, out):
     rng = random.Random(3)
     doc = {"format": "tiers", "version": 1, "media": {"duration": 3600, "frame_rate": "25"},
@@ -165,11 +218,12 @@ def edit_case(tiers, out):
 
 
 def main():
-    tiers, out = sys.argv[1:3]
+    tiers, out, samples = sys.argv[1:4]
     os.makedirs(out, exist_ok=True)
     derive_case(tiers, out)
     retime_case(tiers, out, "constant", lambda t: 2.5)
     retime_case(tiers, out, "drifting", lambda t: 1.0 + 8.0 * t / 600)
+    retime_vtt_case(tiers, out, samples)
     edit_case(tiers, out)
     print(f"{len(failures)} failures")
     return 1 if failures else 0

@@ -251,13 +251,15 @@ TEST_CASE("a missing word tier that the profile requires is one problem, not two
   const profile p = read_ok(R"({"format": "tiers-profile", "version": 1,
     "captions": "captions", "words": "words",
     "tiers": [{"name": "captions"}, {"name": "words", "required": true}]})");
-  const file_report r = check_document(captions_doc({cue(1, 3, "Hello there")}), {}, "t.json", p, {});
+  const file_report r =
+      check_document(captions_doc({cue(1, 3, "Hello there")}), {}, "t.json", p, {});
   const std::vector<std::string> once = rules_of(r);
   CHECK(std::count(once.begin(), once.end(), "dataset.tier-missing") == 1);
   // Not required by the profile, the missing words are still reported once, by the lag check.
   const profile q = read_ok(R"({"format": "tiers-profile", "version": 1,
     "captions": "captions", "words": "words"})");
-  const file_report s = check_document(captions_doc({cue(1, 3, "Hello there")}), {}, "t.json", q, {});
+  const file_report s =
+      check_document(captions_doc({cue(1, 3, "Hello there")}), {}, "t.json", q, {});
   const std::vector<std::string> still = rules_of(s);
   CHECK(std::count(still.begin(), still.end(), "dataset.tier-missing") == 1);
 }

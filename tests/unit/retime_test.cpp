@@ -87,3 +87,35 @@ TEST_CASE("children inside a cue move with it", "[retime]") {
   CHECK(d.tiers[1].annotations[0].end == 1800 * ms);
   CHECK(d.tiers[1].annotations[1].end == 1900 * ms);
 }
+
+TEST_CASE("a cue with no room to grow is not said to be lengthened", "[retime]") {
+  tier words, cues;
+  // Three words 80 ms apart (the minimum gap): the middle cue can grow neither way.
+  words.annotations.push_back(ann(1000 * ms, 1100 * ms, "ay"));
+  words.annotations.push_back(ann(1180 * ms, 1280 * ms, "bee"));
+  words.annotations.push_back(ann(1360 * ms, 1460 * ms, "sea"));
+  cues.annotations.push_back(ann(3000 * ms, 3100 * ms, "Ay."));
+  cues.annotations.push_back(ann(3180 * ms, 3280 * ms, "Bee."));
+  cues.annotations.push_back(ann(3360 * ms, 3460 * ms, "Sea."));
+  const retime_result r = retime_captions(cues, words);
+  REQUIRE(r.moves.size() == 3);
+  CHECK(r.moves[1].adjusted.find("lengthened") == std::string::npos);
+  CHECK_FALSE(r.moves[1].unfixed.empty());
+}
+
+TEST_CASE("on a millisecond grid, minimums round up and word times to the nearest", "[retime]") {
+  tier words, cues;
+  words.annotations.push_back(ann(1'000'400'000, 1'200'600'000, "yes"));
+  cues.annotations.push_back(ann(3000 * ms, 3300 * ms, "Yes."));
+  retime_options o;
+  o.grid = {1000, 1};
+  const retime_result r = retime_captions(cues, words, o);
+  CHECK(r.captions.annotations[0].start == 1000 * ms);  // 1.0004 s to 1.000
+  CHECK(r.captions.annotations[0].end - r.captions.annotations[0].start == 834 * ms);  // ≥ 5/6 s
+  // At 25 frames a second, every time is a whole frame (40 ms).
+  o.grid = {25, 1};
+  const retime_result f = retime_captions(cues, words, o);
+  CHECK(f.captions.annotations[0].start % (40 * ms) == 0);
+  CHECK(f.captions.annotations[0].end % (40 * ms) == 0);
+  CHECK(f.captions.annotations[0].end - f.captions.annotations[0].start == 840 * ms);
+}

@@ -297,8 +297,49 @@ TEST_CASE("vtt writer sorts cues, escapes text and reports what it cannot keep",
       "tier 'cap')",
       "the order of cues that are not in start-time order (written sorted) (1 annotation in tier "
       "'cap')",
-      "times finer than a millisecond (1 annotation in tier 'cap')"};
+      "times finer than a millisecond (written to the nearest millisecond) (1 annotation in "
+      "tier 'cap')"};
   CHECK(losses == expected);
+}
+
+TEST_CASE("vtt writer rounds a time between milliseconds to the nearest, and lists it",
+          "[vtt][writer][loss]") {
+  document doc;
+  tier& c = doc.tiers.emplace_back();
+  c.name = "cap";
+  annotation a;
+  a.start = 1'000'600'000;  // 1.0006 s: 1.001, not 1.000
+  a.end = 2'999'600'000;    // 2.9996 s: 3.000, not 2.999
+  a.text = "near";
+  c.annotations = {a};
+  CHECK(write_as("vtt", doc) == "WEBVTT\n\n00:00:01.001 --> 00:00:03.000\nnear\n");
+  const std::vector<std::string> losses = find_losses(doc, *find_format("vtt"));
+  REQUIRE(losses.size() == 1);
+  CHECK(losses[0].find("times finer than a millisecond (written to the nearest") == 0);
+}
+
+TEST_CASE("vtt writer: a re-timed cue's inline timestamps follow its moved words",
+          "[vtt][writer]") {
+  // The words of a cue's timestamps (§4.2.2) are its word tier; a cue moved 2 s earlier with
+  // its words keeps its markup, with the timestamps the words now have.
+  read_options o;
+  o.tier_name = "cap";
+  document doc = read_as("vtt",
+                         "WEBVTT\n\n00:00:03.000 --> 00:00:05.000\n"
+                         "<i>one</i> <00:00:03.500>two <00:00:04.250>three\n",
+                         o);
+  REQUIRE(doc.tiers.size() == 2);
+  for (annotation& x : doc.tiers[0].annotations)
+    x.start -= 2 * ns_per_second, x.end -= 2 * ns_per_second;
+  for (annotation& x : doc.tiers[1].annotations)
+    x.start -= 2 * ns_per_second, x.end -= 2 * ns_per_second;
+  CHECK(find_losses(doc, *find_format("vtt")).empty());
+  const std::string text = write_as("vtt", doc);
+  CHECK(text ==
+        "WEBVTT\n\n00:00:01.000 --> 00:00:03.000\n"
+        "<i>one</i> <00:00:01.500>two <00:00:02.250>three\n");
+  const document back = read_as("vtt", text, o);
+  CHECK(back.tiers[1].annotations == doc.tiers[1].annotations);
 }
 
 TEST_CASE("vtt writer: '>' is escaped only where a line would hold '-->'", "[vtt][writer]") {

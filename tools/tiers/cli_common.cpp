@@ -164,14 +164,17 @@ const format& output_format(const std::string& to, const std::string& output) {
 }
 
 void write_output(const document& doc, const format& to, const std::string& output, bool allow_loss,
-                  const std::string& file, std::vector<std::string> losses) {
+                  const std::string& file, std::vector<std::string> losses,
+                  const std::string& given_name) {
   for (std::string& loss : find_losses(doc, to))
     losses.push_back(std::move(loss));
-  // A one-tier format keeps no tier name: read back, the tier is named after the file.
+  // A one-tier format keeps no tier name: read back, the tier is named after the file. That
+  // loses a name only when it came from content, not when reading gave it (given_name).
   if (!to.carries.has(feature::several_tiers) && !doc.tiers.empty() && !output.empty() &&
       output != "-") {
     const std::string stem = std::filesystem::path(output).stem().string();
-    if (doc.tiers.front().name != stem)
+    const std::string& name = doc.tiers.front().name;
+    if (name != stem && (given_name.empty() || name != given_name))
       losses.push_back("the tier name " + detail::quote_name(doc.tiers.front().name) + " (a " +
                        std::string(to.name) + " file names no tier; read back, it is named " +
                        detail::quote_name(stem) + " after the file)");
@@ -220,7 +223,7 @@ std::optional<words_file> words_file_of(const std::string& spec, const input_opt
   return w;
 }
 
-document load_document(const input_options& in) {
+document load_document(const input_options& in, std::string* given_name) {
   const read_options options = reading_options(in, in.path);
   const std::string content = read_input(in.path);
   diagnostic why;
@@ -233,6 +236,9 @@ document load_document(const input_options& in) {
   for (const diagnostic& d : result.diagnostics)
     report(d);
   if (!result.ok()) throw rejected();
+  if (given_name && !fmt->carries.has(feature::several_tiers) && !result.doc.tiers.empty() &&
+      result.doc.tiers.front().name == options.tier_name)
+    *given_name = options.tier_name;
   return std::move(result.doc);
 }
 

@@ -54,8 +54,11 @@ read_options reading_options(const input_options& in, const std::string& path);
 const format* input_format(const input_options& in, const std::string& path,
                            std::string_view content, diagnostic& why);
 
-/// Reads and parses the input, printing every diagnostic; throws rejected on errors.
-document load_document(const input_options& in);
+/// Reads and parses the input, printing every diagnostic; throws rejected on errors. When the
+/// format names no tier (WebVTT, a table without a tier column) and so the reading options
+/// named the first tier (after the file, or --tier-name), `given_name` is set to that name:
+/// writing it to another such file loses nothing of the content.
+document load_document(const input_options& in, std::string* given_name = nullptr);
 
 /// The output format: --to, else the extension of `output`; throws usage_error when neither
 /// tells (writing to standard output needs --to).
@@ -64,9 +67,11 @@ const format& output_format(const std::string& to, const std::string& output);
 /// Writes `doc` as `fmt` to `output` (`-` or empty: standard output), atomically. When the
 /// format cannot carry everything (plus `losses` found earlier), lists each loss as an error
 /// and writes nothing (throws rejected), or with `allow_loss` as warnings and writes.
-/// Diagnostics name `file`.
+/// Diagnostics name `file`. A first tier called `given_name` (see load_document) is renamed by
+/// a one-tier output without loss.
 void write_output(const document& doc, const format& fmt, const std::string& output,
-                  bool allow_loss, const std::string& file, std::vector<std::string> losses = {});
+                  bool allow_loss, const std::string& file, std::vector<std::string> losses = {},
+                  const std::string& given_name = {});
 
 /// A word-timing tier in another file (`--words FILE[:TIER]` of check and retime).
 struct words_file {

@@ -73,7 +73,8 @@ namespace {
 // One conversion; throws rejected (reasons printed) or tiers::error.
 void convert_one(const convert_options& o, const input_options& in, const format& to,
                  const std::string& output) {
-  document doc = load_document(in);
+  std::string given_name;
+  document doc = load_document(in, &given_name);
   const std::string file = display_name(in.path);
   keep_tiers(doc, o.tiers, file);
   std::vector<std::string> losses;
@@ -83,7 +84,7 @@ void convert_one(const convert_options& o, const input_options& in, const format
                                  : std::filesystem::path(output).stem().string();
     doc = join_as_voices(doc, name, losses);
   }
-  write_output(doc, to, output, o.allow_loss, file, std::move(losses));
+  write_output(doc, to, output, o.allow_loss, file, std::move(losses), given_name);
 }
 
 int convert_many(const convert_options& o) {

@@ -3,6 +3,8 @@
 
 #include <filesystem>
 
+#include <fmt/format.h>
+
 #include "tiers/derive.hpp"
 #include "tiers/io.hpp"
 
@@ -59,6 +61,13 @@ int run_derive(const derive_options_cli& o) {
   derive_options d;
   d.on = o.on;
   d.off = o.off;
+  // Hysteresis leaves at --off what it entered at --on; above it, an interval would end before
+  // the score that started it fell.
+  if (o.off && *o.off > o.on)
+    throw usage_error(
+        fmt::format("--off {} is above --on {}: an interval ends where the score "
+                    "falls below --off, which must not exceed --on",
+                    *o.off, o.on));
   if (o.smooth % 2 == 0) throw usage_error("--smooth: the median needs an odd number of frames");
   d.smooth = o.smooth;
   d.bridge = parse_duration_option("--bridge", o.bridge);

@@ -63,7 +63,8 @@ time_ns time_option(const std::string& option, std::string_view text) {
 
 int run_edit(const edit_options& o) {
   const format& to = output_format(o.to, o.output);
-  document doc = load_document(o.input);
+  std::string given_name;
+  document doc = load_document(o.input, &given_name);
   const std::string file = display_name(o.input.path);
   std::map<const CLI::Option*, std::size_t> used;  // how many values of each option are done
   std::vector<std::string> selected;  // consecutive --select options make one selection
@@ -130,7 +131,7 @@ int run_edit(const edit_options& o) {
       return exit_rejected;
     }
   }
-  write_output(doc, to, o.output, o.allow_loss, file);
+  write_output(doc, to, o.output, o.allow_loss, file, {}, given_name);
   return exit_ok;
 }
 

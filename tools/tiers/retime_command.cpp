@@ -153,7 +153,8 @@ int run_retime(const retime_options_cli& o) {
     if (!r.ok()) return exit_rejected;
     p = std::move(r.value);
   }
-  document doc = load_document(o.input);
+  std::string given_name;
+  document doc = load_document(o.input, &given_name);
   const std::string file = display_name(o.input.path);
 
   std::string caption_name = !o.captions.empty() ? o.captions : p.captions.value_or("");
@@ -193,11 +194,12 @@ int run_retime(const retime_options_cli& o) {
                         ? p.limits.min_duration
                         : parse_duration_option("--min-duration", o.min_duration);
   ro.window = p.limits.window;
+  ro.grid = to.time_grid;
   const tier before = *captions;
   retime_result r = retime_captions(before, *words, ro);
   *captions = r.captions;
   move_children(doc, caption_name, r);
-  write_output(doc, to, o.output, o.allow_loss, file);
+  write_output(doc, to, o.output, o.allow_loss, file, {}, given_name);
 
   const std::string report_text = o.json ? json_report(r, before) : text_report(r, before);
   // The report goes to standard output, unless the document does.

@@ -187,7 +187,8 @@ std::optional<time_ns> collect_timestamp(std::string_view in, std::size_t& pos,
 }
 
 std::string format_timestamp(time_ns t) {
-  const std::int64_t ms = t / 1'000'000;
+  // To the nearest millisecond, the finest time WebVTT holds (the loss report lists it).
+  const std::int64_t ms = t / 1'000'000 + (t % 1'000'000 >= 500'000);
   char buf[40];
   const int n = std::snprintf(
       buf, sizeof buf, "%02lld:%02lld:%02lld.%03lld", static_cast<long long>(ms / 3'600'000),

@@ -83,6 +83,61 @@ std::optional<std::string> karaoke(const annotation& cue,
   return out;
 }
 
+// The cue's markup with its timestamp tags rewritten to `words`' times, when the markup spells
+// exactly those words (same texts, in order) and only its timestamps disagree with them — as
+// after the cue and its words were re-timed. Empty when that is not so.
+std::optional<std::string> restamped(std::string_view markup, const cue_text& parsed,
+                                     const annotation& cue,
+                                     const std::vector<const annotation*>& words) {
+  const std::vector<annotation> spelled = timed_words(parsed, cue.start, cue.end);
+  if (spelled.size() != words.size() || parsed.stamps.empty()) return std::nullopt;
+  for (std::size_t k = 0; k < words.size(); ++k)
+    if (spelled[k].text != words[k]->text) return std::nullopt;
+  // Each timestamp starts a piece of the text; a piece with words starts at its word's start,
+  // an empty one at the end of the word before it.
+  std::vector<time_ns> stamps;
+  std::size_t next = 0;  // the word the next non-empty piece holds
+  const std::string_view plain = parsed.plain;
+  auto has_words = [&](std::size_t from, std::size_t to) {
+    return plain.substr(from, to - from).find_first_not_of(" \t\n\f\r") != std::string_view::npos;
+  };
+  if (has_words(0, parsed.stamps.front().at)) ++next;
+  for (std::size_t j = 0; j < parsed.stamps.size(); ++j) {
+    const std::size_t end = j + 1 < parsed.stamps.size() ? parsed.stamps[j + 1].at : plain.size();
+    if (has_words(parsed.stamps[j].at, end))
+      stamps.push_back(words[next++]->start);
+    else
+      stamps.push_back(next ? words[next - 1]->end : cue.start);
+  }
+  // Rewrite the tags in place: each '<' followed by a digit opens a timestamp tag (§4.2.2).
+  std::string out;
+  std::size_t from = 0, j = 0;
+  for (std::size_t at = markup.find('<'); at != std::string_view::npos;
+       at = markup.find('<', at + 1)) {
+    if (at + 1 >= markup.size() || markup[at + 1] < '0' || markup[at + 1] > '9') continue;
+    const std::size_t close = markup.find('>', at);
+    if (close == std::string_view::npos || j == stamps.size()) return std::nullopt;
+    out.append(markup.substr(from, at + 1 - from));
+    out += format_timestamp(stamps[j++]);
+    from = close;
+    at = close;
+  }
+  if (j != stamps.size()) return std::nullopt;
+  out.append(markup.substr(from));
+  // Only a result that reads back as exactly these words, inside the cue, will do.
+  const cue_text again = parse_cue_text(out);
+  const std::vector<annotation> check = timed_words(again, cue.start, cue.end);
+  if (again.plain != parsed.plain || again.voice != parsed.voice || check.size() != words.size())
+    return std::nullopt;
+  for (std::size_t k = 0; k < words.size(); ++k)
+    if (check[k].start != words[k]->start || check[k].end != words[k]->end ||
+        words[k]->start % ms != 0 || words[k]->end % ms != 0)
+      return std::nullopt;
+  for (const cue_text::stamp& t : again.stamps)
+    if (t.time <= cue.start || t.time >= cue.end) return std::nullopt;
+  return out;
+}
+
 // The cue text for a cue written from its plain text: escaped, its speaker as a voice span,
 // its words as inline timestamps when they spell the text; blank lines removed.
 std::string text_body(const annotation& a, const std::vector<const annotation*>& words,
@@ -218,13 +273,46 @@ vtt_plan plan(const document& doc) {
       break;
     }
 
-  // Markup is written as it is when it still spells the cue's text and speaker.
+  // Markup is written as it is when it still spells the cue's text and speaker. Its timestamps
+  // are the word tier's times in WebVTT: where the two disagree but the markup spells exactly
+  // the words inside its cue (a re-timed cue), the words' times are written into it.
   const std::size_t n = cues.annotations.size();
   std::vector<std::optional<cue_text>> markup(n);
+  std::vector<std::string> rewritten(n);  // markup with re-stamped timestamps, where it has them
+  std::vector<const annotation*> by_start;
+  if (words) {
+    for (const annotation& w : words->annotations)
+      by_start.push_back(&w);
+    std::stable_sort(by_start.begin(), by_start.end(),
+                     [](const annotation* x, const annotation* y) { return x->start < y->start; });
+  }
+  auto words_inside = [&](const annotation& c) {
+    std::vector<const annotation*> in;
+    auto it = std::lower_bound(by_start.begin(), by_start.end(), c.start,
+                               [](const annotation* w, time_ns t) { return w->start < t; });
+    for (; it != by_start.end() && (*it)->start < c.end; ++it)
+      if ((*it)->end <= c.end) in.push_back(*it);
+    return in;
+  };
   for (std::size_t k = 0; k < n; ++k) {
     const annotation& a = cues.annotations[k];
     if (!a.markup) continue;
     cue_text parsed = parse_cue_text(*a.markup);
+    if (words && !parsed.stamps.empty()) {
+      const std::vector<const annotation*> in = words_inside(a);
+      std::vector<annotation> spelled = timed_words(parsed, a.start, a.end);
+      const bool agree =
+          spelled.size() == in.size() && std::equal(spelled.begin(), spelled.end(), in.begin(),
+                                                    [](const annotation& x, const annotation* y) {
+                                                      return x.start == y->start &&
+                                                             x.end == y->end && x.text == y->text;
+                                                    });
+      if (!agree)
+        if (auto again = restamped(*a.markup, parsed, a, in)) {
+          rewritten[k] = std::move(*again);
+          parsed = parse_cue_text(rewritten[k]);
+        }
+    }
     const auto speaker = a.attributes.find("speaker");
     const bool ok =
         !has_blank_line(*a.markup) && a.markup->find('\r') == std::string::npos &&
@@ -287,12 +375,13 @@ vtt_plan plan(const document& doc) {
   for (std::size_t k : order) {
     const annotation& a = cues.annotations[k];
     planned_cue c;
-    if (a.start % ms != 0 || a.end % ms != 0) problem("times finer than a millisecond");
+    if (a.start % ms != 0 || a.end % ms != 0)
+      problem("times finer than a millisecond (written to the nearest millisecond)");
     if (a.start < 0 || a.end < 0) problem("negative times");
     // A cue that ends before it starts breaks an authoring rule, but parsers keep it, and so
     // does the writer: it is data, and `tiers check` reports it.
-    c.timing = format_timestamp(std::max<time_ns>(a.start, 0) / ms * ms) + " --> " +
-               format_timestamp(std::max<time_ns>(a.end, 0) / ms * ms);
+    c.timing = format_timestamp(std::max<time_ns>(a.start, 0)) + " --> " +
+               format_timestamp(std::max<time_ns>(a.end, 0));
     if (a.id) {
       const bool ok = !a.id->empty() && a.id->find_first_of("\r\n") == std::string::npos &&
                       a.id->find("-->") == std::string::npos &&
@@ -332,7 +421,7 @@ vtt_plan plan(const document& doc) {
     }
 
     if (markup[k]) {
-      c.body = *a.markup;
+      c.body = rewritten[k].empty() ? *a.markup : rewritten[k];
     } else {
       c.body = text_body(a, words_in[k], problem);
     }

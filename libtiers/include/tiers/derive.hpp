@@ -20,7 +20,7 @@ struct signal {
   std::vector<time_ns> ends;                ///< each row's end: the next row's start, or one step
   std::vector<bool> after_gap;              ///< rows that follow missing rows
   std::vector<std::vector<double>> scores;  ///< [column][row]
-  std::optional<rational> rate;             ///< when rows are frames
+  std::optional<rational> rate;  ///< the media's frame rate (given for frames; optional for times)
 };
 
 enum class signal_format : std::uint8_t { csv, tsv, jsonl };

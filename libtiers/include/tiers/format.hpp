@@ -150,6 +150,10 @@ struct format {
   /// Invalid UTF-8 is replaced by U+FFFD with a warning, as the format's spec says, instead
   /// of rejecting the file.
   bool replaces_invalid_utf8 = false;
+  /// The finest time the format holds, in steps per second (WebVTT: 1000). A writer rounds a
+  /// time between steps to the nearest, and the loss report lists it; operations that make new
+  /// times (retime) place them on this grid instead.
+  rational time_grid{ns_per_second, 1};
 };
 
 /// Every format, in a fixed order.

@@ -19,6 +19,11 @@ struct retime_options {
   time_ns min_duration = 833'333'333;  ///< of a cue (5/6 s)
   lag_window window;                   ///< where a cue looks for its words
   std::size_t neighbours = 3;          ///< cues on each side whose shift an unmatched cue borrows
+  /// The time grid of the output, in steps per second (WebVTT: 1000, milliseconds; the
+  /// nanosecond by default). New times are placed on it: word times to the nearest step, the
+  /// minimum gap and duration rounded up to whole steps, so that a writer that holds only
+  /// this grid neither rounds a time nor undoes a rule the re-timing met.
+  rational grid{ns_per_second, 1};
 };
 
 /// What happened to one cue.
@@ -44,7 +49,7 @@ struct retime_result {
 /// applied in start-time order: a cue shorter than `min_duration` grows into free time (later,
 /// then earlier); where consecutive cues overlap or come closer than `min_gap`, the boundary
 /// between them moves, split evenly between the two as far as their minimum durations allow,
-/// and only what remains moves the later cue as a whole.
+/// and only what remains moves the later cue as a whole. Every new time lies on `grid`.
 retime_result retime_captions(const tier& captions, const tier& words,
                               const retime_options& options = {});
 

@@ -73,7 +73,8 @@ bool signal_reader::header(const std::vector<std::string>& names, std::size_t of
     error("derive.header", offset, "frame numbers need a frame rate (--rate)");
     return false;
   }
-  out_.value.rate = frames_ ? options_.rate : std::nullopt;
+  // With times, --rate is still the media's frame rate (and the length of a single row).
+  out_.value.rate = options_.rate;
   if (options_.columns.empty()) {
     for (std::size_t k = 0; k < names.size(); ++k)
       if (k != key_column_) {

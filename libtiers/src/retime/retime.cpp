@@ -5,12 +5,12 @@
 #include <algorithm>
 #include <numeric>
 
+#include "tiers/detail/exact.hpp"
+
 namespace tiers {
 namespace {
 
-std::string seconds_text(time_ns t) {
-  return format_seconds(t) + " s";
-}
+using detail::rounding;
 
 }  // namespace
 
@@ -18,6 +18,14 @@ retime_result retime_captions(const tier& captions, const tier& words,
                               const retime_options& options) {
   const caption_alignment al = align_captions(captions, words, options.window);
   const std::vector<annotation>& cues = captions.annotations;
+  // The rules are applied in steps of the output's grid, so that every sum and split below
+  // stays on it; times return to nanoseconds at the end.
+  const rational grid = options.grid;
+  auto steps = [&](time_ns t, rounding how = rounding::nearest) {
+    return static_cast<time_ns>(detail::to_steps(t, grid, how));
+  };
+  auto nanoseconds = [&](time_ns s) { return static_cast<time_ns>(detail::from_steps(s, grid)); };
+  auto seconds_text = [&](time_ns s) { return format_seconds(nanoseconds(s)) + " s"; };
   std::vector<std::size_t> order(cues.size());
   std::iota(order.begin(), order.end(), std::size_t{0});
   std::stable_sort(order.begin(), order.end(),
@@ -27,14 +35,15 @@ retime_result retime_captions(const tier& captions, const tier& words,
   for (std::size_t k : order) {
     cue_move m;
     m.cue = k;
-    m.old_start = m.new_start = cues[k].start;
-    m.old_end = m.new_end = cues[k].end;
+    // In steps until the end (old_* too, for the shifts neighbours borrow).
+    m.old_start = m.new_start = steps(cues[k].start);
+    m.old_end = m.new_end = steps(cues[k].end);
     const cue_alignment& a = al.cues[k];
     m.words = a.matched;
     if (a.first_word && a.last_word) {
       m.how = cue_move::basis::words;
-      m.new_start = words.annotations[*a.first_word].start - options.lead_in;
-      m.new_end = std::max(words.annotations[*a.last_word].end + options.hold, m.new_start);
+      m.new_start = steps(words.annotations[*a.first_word].start - options.lead_in);
+      m.new_end = std::max(steps(words.annotations[*a.last_word].end + options.hold), m.new_start);
     }
     moves.push_back(m);
   }
@@ -64,7 +73,9 @@ retime_result retime_captions(const tier& captions, const tier& words,
   std::stable_sort(moves.begin(), moves.end(),
                    [](const cue_move& a, const cue_move& b) { return a.new_start < b.new_start; });
 
-  const time_ns gap = options.min_gap, shortest = options.min_duration;
+  // Minimums round up: a rule met on the grid is met in nanoseconds too.
+  const time_ns gap = steps(options.min_gap, rounding::up);
+  const time_ns shortest = steps(options.min_duration, rounding::up);
   auto note = [](std::string& into, const std::string& what) {
     into += (into.empty() ? "" : "; ") + what;
   };
@@ -80,7 +91,9 @@ retime_result retime_captions(const tier& captions, const tier& words,
     const time_ns earlier = std::clamp<time_ns>(room_before, 0, need - later);
     m.new_end += later;
     m.new_start -= earlier;
-    note(m.adjusted, "lengthened by " + seconds_text(later + earlier) + " to the minimum duration");
+    if (later + earlier > 0)
+      note(m.adjusted,
+           "lengthened by " + seconds_text(later + earlier) + " to the minimum duration");
     if (later + earlier < need)
       note(m.unfixed,
            "shorter than " + seconds_text(shortest) + ": its neighbours leave no more room");
@@ -110,10 +123,12 @@ retime_result retime_captions(const tier& captions, const tier& words,
   retime_result out;
   out.captions = captions;
   out.captions.annotations.clear();
-  for (const cue_move& m : moves) {
+  for (cue_move& m : moves) {
     annotation a = cues[m.cue];
-    a.start = m.new_start;
-    a.end = m.new_end;
+    m.old_start = a.start;
+    m.old_end = a.end;
+    a.start = m.new_start = nanoseconds(m.new_start);
+    a.end = m.new_end = nanoseconds(m.new_end);
     out.captions.annotations.push_back(std::move(a));
   }
   out.moves = std::move(moves);
@@ -135,9 +150,13 @@ void move_children(document& doc, const std::string& captions, const retime_resu
       if (it == by_old.begin()) continue;
       const cue_move& m = **(it - 1);
       if (a.end > m.old_end) continue;  // not inside this cue: left as it is
+      // A child that began or ended with its cue still does (as the first and last of a
+      // cue's inline words do); the rest move by the cue's start shift, kept inside it.
       const time_ns shift = m.new_start - m.old_start;
-      a.start = std::clamp(a.start + shift, m.new_start, m.new_end);
-      a.end = std::clamp(a.end + shift, a.start, m.new_end);
+      const bool to_end = a.end == m.old_end;
+      a.start = a.start == m.old_start ? m.new_start
+                                       : std::clamp(a.start + shift, m.new_start, m.new_end);
+      a.end = to_end ? m.new_end : std::clamp(a.end + shift, a.start, m.new_end);
     }
   }
 }

@@ -23,4 +23,27 @@ constexpr std::optional<time_ns> to_time(i128 v) {
   return static_cast<time_ns>(v);
 }
 
+/// n / d rounded towards minus infinity, and towards plus infinity; d > 0.
+constexpr i128 floor_div(i128 n, i128 d) {
+  return n >= 0 ? n / d : -((-n + d - 1) / d);
+}
+constexpr i128 ceil_div(i128 n, i128 d) {
+  return -floor_div(-n, d);
+}
+
+enum class rounding : unsigned char { nearest, down, up };
+
+/// `t` counted in steps of 1/`rate` seconds (frames, milliseconds), rounded as asked.
+constexpr i128 to_steps(time_ns t, rational rate, rounding how = rounding::nearest) {
+  const i128 n = static_cast<i128>(t) * rate.num, d = static_cast<i128>(rate.den) * ns_per_second;
+  return how == rounding::nearest ? round_div(n, d)
+         : how == rounding::down  ? floor_div(n, d)
+                                  : ceil_div(n, d);
+}
+
+/// The time of `steps` steps of 1/`rate` seconds, to the nearest nanosecond.
+constexpr i128 from_steps(i128 steps, rational rate) {
+  return round_div(steps * rate.den * ns_per_second, rate.num);
+}
+
 }  // namespace tiers::detail
