@@ -164,6 +164,21 @@ std::string hours_minutes_seconds(std::uint64_t secs) {
 
 }  // namespace
 
+std::optional<rational> ntsc_rate_abbreviated(std::string_view text) {
+  if (text.find('.') == std::string_view::npos) return std::nullopt;
+  const std::optional<rational> r = parse_rational(text);
+  if (!r) return std::nullopt;
+  for (std::int64_t whole : {24, 30, 48, 60, 120}) {
+    // Within a hundredth of a frame a second of whole × 1000/1001, but not the whole rate.
+    const detail::i128 diff = static_cast<detail::i128>(r->num) * 1001 * 100 -
+                              static_cast<detail::i128>(whole) * 1000 * r->den * 100;
+    const detail::i128 bound = static_cast<detail::i128>(r->den) * 1001;
+    if ((diff < 0 ? -diff : diff) <= bound && !(r->num == whole && r->den == 1))
+      return rational{whole * 1000, 1001};
+  }
+  return std::nullopt;
+}
+
 std::optional<rational> parse_rational(std::string_view text) {
   auto whole = [](std::string_view s) -> std::optional<std::int64_t> {
     std::int64_t v = 0;

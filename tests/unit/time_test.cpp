@@ -197,3 +197,18 @@ TEST_CASE("durations take a unit: s, ms or frames", "[time]") {
   CHECK(format_duration(*parse_duration("2f")) == "2f");
   CHECK(format_duration(*parse_duration("250ms")) == "0.25s");
 }
+
+TEST_CASE("decimals that abbreviate an NTSC rate are named, never taken for it", "[time]") {
+  // The NTSC rates are whole × 1000/1001 (SMPTE ST 12-1; 29.97 and 23.976 are their usual
+  // abbreviations, common practice). parse_rational still takes the decimal exactly.
+  CHECK(parse_rational("29.97") == rational{2997, 100});
+  CHECK(ntsc_rate_abbreviated("29.97") == rational{30000, 1001});
+  CHECK(ntsc_rate_abbreviated("23.976") == rational{24000, 1001});
+  CHECK(ntsc_rate_abbreviated("23.98") == rational{24000, 1001});
+  CHECK(ntsc_rate_abbreviated("59.94") == rational{60000, 1001});
+  CHECK_FALSE(ntsc_rate_abbreviated("30000/1001"));
+  CHECK_FALSE(ntsc_rate_abbreviated("30"));
+  CHECK_FALSE(ntsc_rate_abbreviated("30.0"));
+  CHECK_FALSE(ntsc_rate_abbreviated("25.0"));
+  CHECK_FALSE(ntsc_rate_abbreviated("29.5"));
+}

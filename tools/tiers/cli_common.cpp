@@ -110,7 +110,19 @@ time_ns parse_duration_option(const std::string& option, const std::string& text
 }
 
 rational parse_rate_option(const std::string& text) {
-  if (auto r = parse_rational(text)) return *r;
+  if (auto r = parse_rational(text)) {
+    // Taken exactly, as the option says; but a likely slip is named, once a run.
+    static std::once_flag noted;
+    if (const auto ntsc = ntsc_rate_abbreviated(text))
+      std::call_once(noted, [&] {
+        std::fprintf(stderr,
+                     "tiers: warning: --rate %s is taken exactly, as %s frames a second; NTSC "
+                     "video runs at %s: give --rate %s if that is meant\n",
+                     text.c_str(), format_rational(*r).c_str(), format_rational(*ntsc).c_str(),
+                     format_rational(*ntsc).c_str());
+      });
+    return *r;
+  }
   throw usage_error("--rate: '" + text + "' is not a positive frame rate such as 25 or 30000/1001");
 }
 

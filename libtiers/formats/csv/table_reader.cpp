@@ -122,6 +122,15 @@ class table_reader {
                      "both 'end' and 'duration' columns: keep one");
     kind_ = columns_[r_end] == absent && columns_[r_duration] == absent ? tier_kind::instant
                                                                         : tier_kind::interval;
+    // A time column whose name says milliseconds, read as seconds, is off by a factor of a
+    // thousand; the first row's value shows how (the warning waits for it).
+    if (options_.unit == time_unit::seconds)
+      for (std::size_t r : {r_start, r_end, r_duration})
+        if (columns_[r] != absent && names_milliseconds(header_[columns_[r]])) {
+          ms_column_ = columns_[r];
+          ms_offset_ = cells_[columns_[r]].offset;
+          break;
+        }
     attribute_columns_.clear();
     for (std::size_t k = 0; k < header_.size(); ++k)
       if (std::find(columns_.begin(), columns_.end(), k) == columns_.end())
@@ -202,6 +211,7 @@ class table_reader {
                          std::to_string(header_.size()));
     const std::string_view name = columns_[r_tier] == absent ? std::string_view(options_.tier_name)
                                                              : cells_[columns_[r_tier]].text;
+    if (ms_column_ != absent) warn_milliseconds();
     annotation a;
     if (!time_cell(r_start, a.start)) return false;
     a.end = a.start;
@@ -238,6 +248,37 @@ class table_reader {
   const read_options& options_;
   read_result& out_;
   position_recorder positions_;
+  // Once, at the first row: the column that looks like milliseconds and what its value means.
+  void warn_milliseconds() {
+    const std::string_view cell = trim(cells_[ms_column_].text);
+    const parsed_time as_ms = parse_milliseconds(cell);
+    const bool plain = as_ms && cell.find(':') == std::string_view::npos;
+    const std::string value =
+        plain ? " (its first value, " + std::string(cell) + ", as " + std::string(cell) + " s)"
+              : "";
+    const std::string meant = plain ? " (" + format_seconds(as_ms.value) + " s)" : "";
+    out_.diagnostics.push_back(
+        make_diagnostic(severity::warning, "csv.unit", ms_offset_,
+                        "column " + quote_name(header_[ms_column_]) + " is read in seconds" +
+                            value + ", but its name says milliseconds" + meant +
+                            "; give --time-unit ms if it holds milliseconds"));
+    ms_column_ = absent;
+  }
+
+  // `*_ms`, `*_msec`, `*millis*` (as in `millisecond`), in any case.
+  static bool names_milliseconds(std::string_view name) {
+    std::string lower(name);
+    for (char& c : lower)
+      c = static_cast<char>(c >= 'A' && c <= 'Z' ? c - 'A' + 'a' : c);
+    auto ends = [&](std::string_view suffix) {
+      return lower.size() >= suffix.size() &&
+             lower.compare(lower.size() - suffix.size(), suffix.size(), suffix) == 0;
+    };
+    return ends("_ms") || ends("_msec") || ends("-ms") || ends("_msecs") ||
+           lower.find("millis") != std::string::npos;
+  }
+
+  std::size_t ms_column_ = absent, ms_offset_ = 0;
   std::vector<table_cell> cells_;
   std::vector<std::string> header_;
   std::array<std::size_t, role_count> columns_{};

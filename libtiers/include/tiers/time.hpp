@@ -27,6 +27,12 @@ struct rational {
 /// rational. Returns nothing for zero, negative, malformed or oversized values.
 std::optional<rational> parse_rational(std::string_view text);
 
+/// The NTSC rate (24000/1001, 30000/1001, 48000/1001, 60000/1001, 120000/1001) that a decimal
+/// such as `29.97` or `23.976` abbreviates, when `text` is one: parse_rational takes the
+/// decimal exactly (2997/100), which drifts from the video's frames by 3.6 s an hour, so a
+/// caller warns rather than guessing. Nothing for integers, fractions and other decimals.
+std::optional<rational> ntsc_rate_abbreviated(std::string_view text);
+
 /// `25` for integers, `30000/1001` otherwise.
 std::string format_rational(rational r);
 

@@ -8,7 +8,7 @@ namespace {
 
 using enum rule_level;
 
-constexpr std::array<rule_info, 74> catalogue{{
+constexpr std::array<rule_info, 75> catalogue{{
     // Times of single annotations and their order.
     {"time.range", "time", error, "a time beyond what the model holds (about ±292 years)", ""},
     {"time.negative", "time", error, "an annotation starts or ends before zero", ""},
@@ -94,6 +94,8 @@ constexpr std::array<rule_info, 74> catalogue{{
     {"csv.fields", "read", error, "a table row has more or fewer fields than the header", ""},
     {"csv.time", "read", error, "a table time cell is empty, malformed or needs a frame rate", ""},
     {"csv.confidence", "read", error, "a table confidence is not a number from 0 to 1", ""},
+    {"csv.unit", "read", warning,
+     "a table time column whose name says milliseconds is read as seconds", ""},
     {"vtt.signature", "read", error, "not a WebVTT file", ""},
     {"vtt.timing", "read", warning, "a WebVTT cue with an invalid timing line is skipped", ""},
     {"vtt.block", "read", warning, "a WebVTT block browsers ignore", ""},
