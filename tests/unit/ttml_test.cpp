@@ -130,6 +130,36 @@ TEST_CASE("ttml writer: IMSC 1.1 text document that reads back the same", "[ttml
   CHECK(read_as("ttml", text) == doc);
 }
 
+TEST_CASE("ttml writer: ids and tier names that xml:id cannot hold are dropped as reported",
+          "[ttml][writer][loss]") {
+  // xml:id (W3C xml:id 1.0 §4) holds an NCName (Namespaces in XML 1.0, production [4]), unique
+  // in the document: '1' and '2 words' are not NCNames, and a second 'c1' repeats one.
+  document doc;
+  tier& t = doc.tiers.emplace_back();
+  t.name = "2 words";
+  for (const char* id : {"1", "c1", "c1"}) {
+    annotation a;
+    a.start = static_cast<time_ns>(t.annotations.size() + 1) * ns_per_second;
+    a.end = a.start + ns_per_second / 2;
+    a.text = "x";
+    a.id = id;
+    t.annotations.push_back(a);
+  }
+  const std::vector<std::string> losses = find_losses(doc, *find_format("ttml"));
+  REQUIRE(losses.size() == 2);
+  const std::string text = write_as("ttml", doc);
+  // What the report says is dropped is not written; what is written is a valid id.
+  CHECK(text.find("xml:id=\"1\"") == std::string::npos);
+  CHECK(text.find("xml:id=\"2 words\"") == std::string::npos);
+  CHECK(text.find("xml:id=\"c1\"") != std::string::npos);
+  CHECK(text.find("xml:id=\"c1\"", text.find("xml:id=\"c1\"") + 1) == std::string::npos);
+  const document back = read_as("ttml", text);
+  REQUIRE(back.tiers.size() == 1);
+  CHECK_FALSE(back.tiers[0].annotations[0].id);
+  CHECK(back.tiers[0].annotations[1].id == "c1");
+  CHECK_FALSE(back.tiers[0].annotations[2].id);
+}
+
 TEST_CASE("ttml: DTDs, entity bombs, deep nesting and broken XML are refused",
           "[ttml][bad-input]") {
   std::string bomb = "<?xml version=\"1.0\"?>\n<!DOCTYPE tt [<!ENTITY a \"aaaaaaaaaa\">";

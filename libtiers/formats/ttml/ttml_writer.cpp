@@ -106,6 +106,10 @@ struct plan {
   std::map<std::string, std::size_t> counted;
   std::set<std::size_t> skipped_tiers;        // word tiers their parent's markup already carries
   std::set<const annotation*> usable_markup;  // markup that is TTML content spelling the text
+  // What xml:id may hold (an NCName, unique in the document, as xml:id requires): the ids and
+  // tier names written; the others are reported lost and written without one.
+  std::set<const annotation*> written_ids;
+  std::set<std::size_t> named_tiers;
 };
 
 plan make_plan(const document& doc) {
@@ -162,7 +166,9 @@ plan make_plan(const document& doc) {
   for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
     const tier& t = doc.tiers[k];
     if (p.skipped_tiers.count(k)) continue;
-    if (!take_id(t.name))
+    if (take_id(t.name))
+      p.named_tiers.insert(k);
+    else
       p.problems.push_back("the tier name " + quote_name(t.name) +
                            " (not a unique XML identifier)");
     if (t.annotations.empty())
@@ -176,7 +182,10 @@ plan make_plan(const document& doc) {
       if (a.start < 0) problem("negative times");
       if (a.end <= a.start)
         problem("annotations that do not end after they start (never shown in TTML)");
-      if (a.id && !take_id(*a.id)) problem("ids that are not unique XML identifiers");
+      if (a.id && take_id(*a.id))
+        p.written_ids.insert(&a);
+      else if (a.id)
+        problem("ids that are not unique XML identifiers");
       if (!xml_safe(a.text) || a.text.find('\r') != std::string::npos)
         problem("text with characters XML cannot hold");
       if (a.markup) {
@@ -227,7 +236,7 @@ plan make_plan(const document& doc) {
 void write_annotation(std::string& out, const annotation& a, const std::optional<rational>& rate,
                       const plan& p) {
   out += "      <p";
-  if (a.id) {
+  if (p.written_ids.count(&a)) {
     out += " xml:id=\"";
     escape(out, *a.id, true);
     out += '"';
@@ -300,9 +309,12 @@ void write_ttml(const document& doc, byte_sink& out, const write_options&) {
   for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
     if (p.skipped_tiers.count(k)) continue;
     const tier& t = doc.tiers[k];
-    s = "    <div xml:id=\"";
-    escape(s, t.name, true);
-    s += '"';
+    s = "    <div";
+    if (p.named_tiers.count(k)) {
+      s += " xml:id=\"";
+      escape(s, t.name, true);
+      s += '"';
+    }
     for (const auto& [key, value] : t.attributes) {
       if (key.rfind("ttml:", 0) != 0) continue;
       s += " " + key.substr(5) + "=\"";
