@@ -230,8 +230,13 @@ class Browser:
               f"{len(rows)} problem rows with a time, expected at least {expect.get('problems', 0)}")
         if rows:
             row = rows[len(rows) // 2]
-            start, end = self.js("return [Number(arguments[0].dataset.start),"
-                                 " Number(arguments[0].dataset.end)]", row)
+            if expect.get("choose"):  # the row of this rule
+                chosen = [r for r in rows if expect["choose"] in r.text]
+                check(bool(chosen), f"no problem row of {expect['choose']}")
+                row = chosen[0] if chosen else row
+            # A reversed annotation's problem ends before it starts: its span is between the two.
+            start, end = sorted(self.js("return [Number(arguments[0].dataset.start),"
+                                        " Number(arguments[0].dataset.end)]", row))
             self.js("arguments[0].scrollIntoView({block: 'center'})", row)
             row.click()
             self.settle()
@@ -241,6 +246,8 @@ class Browser:
                   f"the view {shown} does not show the problem at {start}-{end}")
             check(self.js("return arguments[0].classList.contains('current')", row),
                   "the chosen row is not marked")
+            check(shown[1] - shown[0] >= end - start,
+                  f"the view {shown} is narrower than the problem's span {start}-{end}")
             if self.js("return arguments[0].dataset.tier", row):
                 check(len(first.find_elements(By.CSS_SELECTOR, ".lane[data-tier] svg .focus")) == 1,
                       "the chosen problem is not outlined on its lane")
@@ -253,6 +260,12 @@ class Browser:
                   "Enter on a row did not choose it")
         self.js("arguments[0].querySelector('.toolbar button[data-act=fit]').click()", first)
         self.settle()
+        if expect.get("reversed"):
+            drawn = first.find_elements(By.CSS_SELECTOR, ".lane[data-tier] svg .ann.reversed")
+            check(len(drawn) == expect["reversed"],
+                  f"{len(drawn)} reversed annotations drawn, expected {expect['reversed']}")
+            widths = [d.rect["width"] for d in drawn]
+            check(all(w >= 3 for w in widths), f"reversed annotations drawn {widths} px wide")
         self.screenshot(shot_path)
         # For the log only: speed is measured by the benchmarks, not asserted here.
         load_ms = self.js("return performance.getEntriesByType('navigation')[0].duration")

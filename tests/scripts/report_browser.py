@@ -129,7 +129,25 @@ def run_pages(reference, tiers, corpus, samples, check_corpus, out):
                                         "agreement": False}]},
            os.path.join(out, "hostile.png"), "hostile names stay text: no script runs, lanes match")
 
-    # 5. An invented hour: opens, every lane drawn, drawing bounded by the screen.
+    # 5. An annotation that ends before it starts (time.reversed): choosing its problem shows
+    #    the span between its two times, and the annotation is drawn over that span.
+    reversed_doc = {"format": "tiers", "version": 1, "tiers": [
+        {"name": "gestures", "kind": "interval", "annotations": [
+            {"start": 1, "end": 2, "text": "beat"}, {"start": 12, "end": 4, "text": "wave"},
+            {"start": 14, "end": 15, "text": "rest"}]}]}
+    reversed_path = os.path.join(out, "reversed.json")
+    with open(reversed_path, "w") as fh:
+        json.dump(reversed_doc, fh)
+    page = os.path.join(out, "reversed.html")
+    r = subprocess.run([tiers, "check", reversed_path, "--html", page], capture_output=True,
+                       text=True)
+    check("check --html of a reversed annotation exits 1", r.returncode == 1, r.stderr)
+    browse(reference, page, {"files": [{"tiers": ["gestures"], "lag": False, "agreement": False}],
+                             "problems": 1, "choose": "time.reversed", "reversed": 1},
+           os.path.join(out, "reversed.png"),
+           "a reversed annotation: drawn over its span, its problem shown whole")
+
+    # 6. An invented hour: opens, every lane drawn, drawing bounded by the screen.
     hour_dir = os.path.join(out, "hour")
     subprocess.run([corpus, "--hours", "1", "--only", "json", "--out", hour_dir], check=True,
                    capture_output=True)

@@ -43,6 +43,9 @@
     for (const t of file.tiers) {
       t.longest = 0;
       for (const a of t.annotations) t.longest = Math.max(t.longest, a[1] - a[0]);
+      // Annotations that end before they start (time.reversed) are drawn apart, over the span
+      // between their two times, so that the problem can be seen; they are few.
+      t.reversed = t.annotations.filter((a) => a[1] < a[0]);
     }
     const problemsBy = new Map();
     for (const p of file.problems) {
@@ -87,7 +90,7 @@
       for (let i = firstFrom(list, view.start - tier.longest); i < list.length; ++i) {
         const a = list[i];
         if (a[0] > view.end) break;
-        if (a[1] < view.start) continue;
+        if (a[1] < view.start || a[1] < a[0]) continue;
         const x0 = Math.max(0, x(a[0])), x1 = Math.min(w, x(a[1]));
         const conf = a[3] === null ? "" : ` (confidence ${a[3]})`;
         if (tier.kind === "instant") {
@@ -114,9 +117,15 @@
         }
       }
       flush();
+      for (const a of tier.reversed) {
+        if (a[0] < view.start || a[1] > view.end) continue;
+        const x0 = Math.max(0, x(a[1])), x1 = Math.min(w, Math.max(x(a[0]), x0 + 3));
+        out += `<rect class="ann reversed" x="${x0}" y="8" width="${x1 - x0}" height="${LANE - 10}"><title>ends at ${clock(a[1], 3)}, before it starts at ${clock(a[0], 3)}: ${esc(a[2])}</title></rect>`;
+      }
       for (const p of problemsBy.get(tier.name) || []) {
-        if (p.end < view.start || p.start > view.end) continue;
-        const x0 = x(p.start), x1 = Math.max(x0 + 4, x(p.end));
+        const lo = Math.min(p.start, p.end), hi = Math.max(p.start, p.end);
+        if (hi < view.start || lo > view.end) continue;
+        const x0 = x(lo), x1 = Math.max(x0 + 4, x(hi));
         out += `<rect class="problem ${p.severity}" x="${x0}" y="1" width="${x1 - x0}" height="6"><title>${esc(p.severity + ": " + p.message + " [" + p.rule + "]")}</title></rect>`;
       }
       if (focus && focus.tier === tier.name)
@@ -244,7 +253,9 @@
       setView(drag.start + shift, drag.end + shift);
     });
     function show(row) {
-      const start = parseFloat(row.dataset.start), end = parseFloat(row.dataset.end);
+      // A reversed annotation's problem ends before it starts: show the span between the two.
+      const a = parseFloat(row.dataset.start), b = parseFloat(row.dataset.end);
+      const start = Math.min(a, b), end = Math.max(a, b);
       const margin = Math.max(2, (end - start) * 0.5);
       focus = {tier: row.dataset.tier, start, end};
       section.querySelectorAll("tbody tr.current").forEach((r) => r.classList.remove("current"));
