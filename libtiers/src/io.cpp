@@ -16,21 +16,57 @@
 namespace tiers {
 namespace {
 
-// The temporary file being written, for the signal handler; one atomic_file at a time is
-// enough for a command-line program.
-std::atomic<const char*> active_temp{nullptr};
+// The temporary files being written, for the signal handler: every thread of a batch run may
+// be writing one. Each slot holds a copy of its path, so that the handler never reads memory a
+// thread is freeing; a slot is active (2) from the moment its path is complete until the file
+// is renamed or removed. The handler claims an active slot (3) before it unlinks the path, so a
+// slot is never reused under it.
+constexpr std::size_t temp_slots = 256;
+struct temp_slot {
+  std::atomic<int> state{0};  // 0 free, 1 being filled, 2 active, 3 taken by the handler
+  char path[4096];
+};
+temp_slot slots[temp_slots];
 
 extern "C" void on_fatal_signal(int sig) {
   // Only async-signal-safe calls here: unlink, signal, raise.
-  if (const char* path = active_temp.exchange(nullptr)) ::unlink(path);
+  for (temp_slot& slot : slots) {
+    int active = 2;
+    if (slot.state.compare_exchange_strong(active, 3)) ::unlink(slot.path);
+  }
   std::signal(sig, SIG_DFL);
   std::raise(sig);
 }
 
-void forget_temp(const std::string& path) {
-  const char* mine = path.c_str();
-  active_temp.compare_exchange_strong(mine, nullptr);
+// The slot that now holds `path`, or -1 when every slot is in use (or the path is too long):
+// that file is then not removed on a signal, which docs/cli.md says.
+int remember_temp(const std::string& path) {
+  if (path.size() >= sizeof(temp_slot::path)) return -1;
+  for (std::size_t k = 0; k < temp_slots; ++k) {
+    int free = 0;
+    if (!slots[k].state.compare_exchange_strong(free, 1)) continue;
+    std::memcpy(slots[k].path, path.c_str(), path.size() + 1);
+    slots[k].state.store(2);
+    return static_cast<int>(k);
+  }
+  return -1;
 }
+
+void forget_temp(int& slot) {
+  if (slot < 0) return;
+  // Fails only while the handler removes the file: the process is ending then.
+  int active = 2;
+  slots[slot].state.compare_exchange_strong(active, 0);
+  slot = -1;
+}
+
+// The process's umask, read once before any thread can create a file: reading it means setting
+// it, which would race with threads creating files and folders (they would get mode 0777).
+const mode_t process_umask = [] {
+  const mode_t mask = ::umask(0);
+  ::umask(mask);
+  return mask;
+}();
 
 [[noreturn]] void fail(std::string code, const std::string& file, const std::string& what) {
   diagnostic d;
@@ -109,16 +145,14 @@ atomic_file::atomic_file(std::string path) : path_(std::move(path)) {
   fd_ = ::mkstemp(pattern.data());
   if (fd_ < 0) fail("io.open", path_, "cannot create a temporary file in the output's folder");
   temp_path_ = pattern;
-  active_temp.store(temp_path_.c_str());
+  temp_slot_ = remember_temp(temp_path_);
   ::fcntl(fd_, F_SETFD, FD_CLOEXEC);
   // mkstemp makes the file private; give it the mode a plainly created file would have.
   mode_t mode = 0;
   if (exists) {
     mode = st.st_mode & 07777;
   } else {
-    const mode_t mask = ::umask(0);
-    ::umask(mask);
-    mode = 0666 & ~mask;
+    mode = 0666 & ~process_umask;
   }
   ::fchmod(fd_, mode);
 }
@@ -126,7 +160,7 @@ atomic_file::atomic_file(std::string path) : path_(std::move(path)) {
 atomic_file::~atomic_file() {
   if (fd_ >= 0) ::close(fd_);
   if (!temp_path_.empty()) {
-    forget_temp(temp_path_);
+    forget_temp(temp_slot_);
     ::unlink(temp_path_.c_str());
   }
 }
@@ -150,7 +184,7 @@ void atomic_file::commit() {
   fd_ = -1;
   if (rc != 0) fail("io.write", path_, "cannot write");
   if (::rename(temp_path_.c_str(), path_.c_str()) != 0) fail("io.write", path_, "cannot replace");
-  forget_temp(temp_path_);
+  forget_temp(temp_slot_);
   temp_path_.clear();
 }
 

@@ -10,6 +10,8 @@
   field, a million tiers: each status 1 with a located message, within the time limit.
 - A conversion of a large file to an existing output, killed with SIGKILL at random moments,
   leaves the old file or the whole new one, never a partial one.
+- A batch conversion on three threads, interrupted by SIGINT or SIGTERM while two or more of
+  them write, leaves no temporary file of any thread.
 
 Usage: hostile_cli.py TIERS SAMPLES_DIR WORK_DIR
 """
@@ -161,8 +163,70 @@ def main():
     for leftover in os.listdir(work):
         if leftover.startswith(".target.tiers"):
             os.remove(os.path.join(work, leftover))  # SIGKILL cannot be caught: documented
+
+    parallel_interrupt(tiers, work, big)
     print(f"{len(failures)} failures")
     return 1 if failures else 0
+
+
+def parallel_interrupt(tiers, work, big):
+    """`convert DIR -d OUT --jobs 3` interrupted by SIGINT or SIGTERM while two or more threads
+    are writing: every thread's temporary file is removed, and each output is whole or absent."""
+    import json
+    import shutil
+    inputs = os.path.join(work, "many")
+    os.makedirs(inputs, exist_ok=True)
+    for k in range(6):
+        shutil.copy(big, os.path.join(inputs, f"part{k}.csv"))
+    seen = []
+    for k, sig in enumerate([signal.SIGINT, signal.SIGTERM, signal.SIGINT]):
+        out = os.path.join(work, f"many-out-{k}")
+        shutil.rmtree(out, ignore_errors=True)
+        proc = subprocess.Popen([tiers, "convert", inputs, "-d", out, "--to", "json", "--jobs", "3"],
+                                stderr=subprocess.DEVNULL)
+        temps, deadline = [], time.monotonic() + 60
+        while proc.poll() is None and time.monotonic() < deadline:
+            temps = [f for f in (os.listdir(out) if os.path.isdir(out) else []) if ".tiers-" in f]
+            if len(temps) >= 2:
+                proc.send_signal(sig)
+                break
+            time.sleep(0.001)
+        proc.wait()
+        if len(temps) < 2:
+            continue  # finished before two threads were writing at once: try again
+        seen.append(len(temps))
+        left = [f for f in os.listdir(out) if ".tiers-" in f]
+        whole = True
+        for f in os.listdir(out):
+            if f.endswith(".json"):
+                try:
+                    with open(os.path.join(out, f)) as fh:
+                        json.load(fh)
+                except ValueError:
+                    whole = False
+        check(f"{signal.Signals(sig).name} to convert -d --jobs 3 while {len(temps)} temporaries "
+              "exist removes every one, and leaves only whole outputs",
+              proc.returncode == -sig and not left and whole,
+              f"(status {proc.returncode}, left {left})")
+    check("parallel writes were interrupted while several threads wrote", len(seen) > 0,
+          f"({len(seen)} of 3 runs)")
+    # Files and folders made by many threads get the modes the umask gives (the umask is read
+    # once, never set while threads create files).
+    nested = os.path.join(work, "nested")
+    for k in range(8):
+        os.makedirs(os.path.join(nested, f"d{k}"), exist_ok=True)
+        shutil.copy(os.path.join(inputs, "part0.csv"), os.path.join(nested, f"d{k}", "p.csv"))
+    out = os.path.join(work, "nested-out")
+    shutil.rmtree(out, ignore_errors=True)
+    r = subprocess.run([tiers, "convert", nested, "-d", out, "--to", "tsv", "--jobs", "3"],
+                       preexec_fn=lambda: os.umask(0o027), capture_output=True)
+    modes = set()
+    for root, dirs, files in os.walk(out):
+        modes |= {("dir", os.stat(os.path.join(root, d)).st_mode & 0o777) for d in dirs}
+        modes |= {("file", os.stat(os.path.join(root, f)).st_mode & 0o777) for f in files}
+    check("with umask 027, every folder made is 0750 and every file 0640",
+          r.returncode == 0 and modes == {("dir", 0o750), ("file", 0o640)},
+          f"(status {r.returncode}, modes {sorted((k, oct(m)) for k, m in modes)})")
 
 
 if __name__ == "__main__":

@@ -27,10 +27,12 @@ class atomic_file final : public byte_sink {
   std::string path_;
   std::string temp_path_;
   int fd_ = -1;
+  int temp_slot_ = -1;  // where the signal handler finds temp_path_
 };
 
-/// Makes SIGINT, SIGTERM and SIGHUP remove the temporary file of the atomic_file being
-/// written before the process ends as the signal would end it. For programs; call once.
+/// Makes SIGINT, SIGTERM and SIGHUP remove the temporary files of every atomic_file being
+/// written, by any thread (up to 256 at once), before the process ends as the signal would end
+/// it. For programs; call once.
 /// (SIGKILL cannot be caught: then the temporary file stays, and the target is still whole.)
 void remove_partial_output_on_signals();
 
