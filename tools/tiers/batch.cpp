@@ -9,6 +9,7 @@
 #include <cstdio>
 #include <filesystem>
 #include <thread>
+#include <unordered_set>
 
 #include "tiers/format.hpp"
 
@@ -32,18 +33,21 @@ std::vector<input_file> expand_inputs(const std::vector<std::string>& paths) {
         if (it->is_directory(ec)) it.disable_recursion_pending();
         continue;
       }
+      // lexically: the iterator's paths all start with p, and relative() would resolve both
+      // paths on the disk for every file.
       if (it->is_regular_file(ec) && format_for_path(it->path().string()))
-        found.push_back({it->path().string(), fs::relative(it->path(), p, ec).string()});
+        found.push_back({it->path().string(), it->path().lexically_relative(p).string()});
     }
     std::sort(found.begin(), found.end(),
               [](const input_file& a, const input_file& b) { return a.path < b.path; });
     out.insert(out.end(), found.begin(), found.end());
   }
+  // The first of each path, in order: a hash set, since archives list hundreds of thousands.
   std::vector<input_file> unique;
+  std::unordered_set<std::string> seen;
+  seen.reserve(out.size());
   for (input_file& f : out)
-    if (std::none_of(unique.begin(), unique.end(),
-                     [&](const input_file& u) { return u.path == f.path; }))
-      unique.push_back(std::move(f));
+    if (seen.insert(f.path).second) unique.push_back(std::move(f));
   return unique;
 }
 

@@ -7,6 +7,8 @@
 #include <algorithm>
 #include <filesystem>
 #include <memory>
+#include <numeric>
+#include <unordered_set>
 
 #include "tiers/detail/report.hpp"
 #include "tiers/io.hpp"
@@ -97,10 +99,9 @@ int convert_many(const convert_options& o) {
     std::vector<std::string> paths;
     for (const input_file& f : files)
       paths.push_back(f.path);
-    const std::vector<std::string> mine = shard_of(paths, o.shard);
-    std::erase_if(files, [&](const input_file& f) {
-      return std::find(mine.begin(), mine.end(), f.path) == mine.end();
-    });
+    const std::vector<std::string> picked = shard_of(paths, o.shard);
+    const std::unordered_set<std::string> mine(picked.begin(), picked.end());
+    std::erase_if(files, [&](const input_file& f) { return !mine.count(f.path); });
   }
   // Every output path, decided (and checked for clashes) before anything is written.
   std::vector<std::string> outputs;
@@ -110,11 +111,17 @@ int convert_many(const convert_options& o) {
     out.replace_extension(std::string(to.extensions.front()));
     outputs.push_back(out.string());
   }
-  for (std::size_t i = 0; i < outputs.size(); ++i)
-    for (std::size_t j = i + 1; j < outputs.size(); ++j)
-      if (outputs[i] == outputs[j])
-        throw usage_error("convert -d: " + files[i].path + " and " + files[j].path +
-                          " would both be written to " + outputs[i]);
+  // Clashes are neighbours once sorted (stable: the earlier input is named first).
+  std::vector<std::size_t> by_output(outputs.size());
+  std::iota(by_output.begin(), by_output.end(), std::size_t{0});
+  std::stable_sort(by_output.begin(), by_output.end(),
+                   [&](std::size_t a, std::size_t b) { return outputs[a] < outputs[b]; });
+  for (std::size_t k = 1; k < by_output.size(); ++k) {
+    const std::size_t i = by_output[k - 1], j = by_output[k];
+    if (outputs[i] == outputs[j])
+      throw usage_error("convert -d: " + files[std::min(i, j)].path + " and " +
+                        files[std::max(i, j)].path + " would both be written to " + outputs[i]);
+  }
   std::vector<char> failed(files.size(), 0);
   run_parallel(
       files.size(), o.jobs,
