@@ -57,6 +57,35 @@ def main():
             bad += 1
     print(f"{len(results)} results for {len(problems)} problems; "
           f"{'valid' if not errors else 'INVALID'} against {os.path.basename(schema_path)}")
+
+    # With a profile: the configuration in force is in the log (SARIF 2.1.0 §3.20.5
+    # invocation.ruleConfigurationOverrides, §3.49 reportingConfiguration), and still valid.
+    profile = os.path.join(out, "switches-on.profile.json")
+    with open(profile, "w") as fh:
+        json.dump({"format": "tiers-profile", "version": 1,
+                   "rules": {"caption.wpm": {"severity": "error", "max": 150},
+                             "time.order": "off"}}, fh)
+    r = subprocess.run([tiers, "check", corpus, "--format", "sarif", "--profile", profile],
+                       capture_output=True, text=True)
+    with open(os.path.join(out, "corpus.profile.sarif.json"), "w") as fh:
+        fh.write(r.stdout)
+    log = json.loads(r.stdout)
+    invalid = list(validator.iter_errors(log))
+    for e in invalid[:10]:
+        print("FAIL", "/".join(map(str, e.path)), e.message)
+    overrides = {o["descriptor"]["id"]: o["configuration"]
+                 for o in log["runs"][0]["invocations"][0].get("ruleConfigurationOverrides", [])}
+    expected = {"caption.wpm": {"level": "error", "enabled": True, "parameters": {"max": 150}},
+                "time.order": {"level": "none", "enabled": False}}
+    if overrides != expected:
+        print(f"FAIL ruleConfigurationOverrides {overrides}, expected {expected}")
+        bad += 1
+    if log["runs"][0]["invocations"][0]["properties"]["profile"]["name"] != profile:
+        print("FAIL the invocation does not name the profile")
+        bad += 1
+    bad += len(invalid)
+    print(f"with a profile: {len(overrides)} rule configurations overridden; "
+          f"{'valid' if not invalid else 'INVALID'}")
     return 1 if bad else 0
 
 

@@ -39,6 +39,59 @@ def problems(report):
                   for f in report["files"] for p in f["problems"])
 
 
+def byte_identical(tiers, data, out, common):
+    """Combined shards print exactly what one run prints, in every format, with and without a
+    profile; reports of another profile, or of none, are refused; SARIF says what a profile
+    switched on."""
+    common = [c for c in common if c not in ("--format", "json")]
+    profile = os.path.join(out, "wpm-on.profile.json")
+    with open(profile, "w") as fh:
+        json.dump({"format": "tiers-profile", "version": 1, "extends": "broadcast-captions",
+                   "rules": {"caption.wpm": {"severity": "warning", "max": 150}}}, fh)
+    for with_profile in ([], ["--profile", profile]):
+        label = "with a profile" if with_profile else "without a profile"
+        parts = []
+        for k in range(1, 4):
+            path = os.path.join(out, f"third-{k}{'-p' if with_profile else ''}.report.json")
+            run(tiers, "check", data, *common, *with_profile, "--shard", f"{k}/3", "--format",
+                "json", "-o", path)
+            parts.append(path)
+        for fmt in ("text", "json", "sarif"):
+            whole = run(tiers, "check", data, *common, *with_profile, "--format", fmt)
+            combined = run(tiers, "check", "--combine", *parts, *with_profile, "--format", fmt)
+            check(f"combined shards print byte for byte what one run prints ({fmt}, {label})",
+                  whole.stdout == combined.stdout and whole.stderr == combined.stderr and
+                  whole.returncode == combined.returncode,
+                  f"({len(whole.stdout)} and {len(combined.stdout)} bytes)")
+            if fmt == "sarif" and with_profile:
+                log = json.loads(combined.stdout)
+                overrides = {o["descriptor"]["id"]: o["configuration"]
+                             for inv in log["runs"][0].get("invocations", [])
+                             for o in inv.get("ruleConfigurationOverrides", [])}
+                wpm = overrides.get("caption.wpm", {})
+                default = next(r for r in log["runs"][0]["tool"]["driver"]["rules"]
+                               if r["id"] == "caption.wpm")["defaultConfiguration"]
+                check("SARIF: a rule off by default but on in the profile is enabled in the "
+                      "invocation's ruleConfigurationOverrides, with its threshold",
+                      default.get("enabled") is False and wpm.get("enabled") is True and
+                      wpm.get("level") == "warning" and wpm.get("parameters") == {"max": 150},
+                      json.dumps(wpm))
+        # Reports made with the profile cannot be combined without it, nor with another.
+        refused = run(tiers, "check", "--combine", *parts, "--format", "json",
+                      *([] if with_profile else ["--profile", "broadcast-captions"]))
+        check(f"--combine refuses reports made {label} when given "
+              f"{'none' if with_profile else 'a profile'}",
+              refused.returncode == 1 and "report.profile" in refused.stderr,
+              refused.stderr.strip()[:200])
+    other = os.path.join(out, "wpm-other.profile.json")
+    with open(other, "w") as fh:
+        json.dump({"format": "tiers-profile", "version": 1, "extends": "broadcast-captions",
+                   "rules": {"caption.wpm": {"severity": "warning", "max": 140}}}, fh)
+    refused = run(tiers, "check", "--combine", *parts, "--profile", other, "--format", "json")
+    check("--combine refuses reports made with a profile of other settings",
+          refused.returncode == 1 and "report.profile" in refused.stderr, refused.stderr[:200])
+
+
 def main():
     tiers, corpus_tool, work, out = sys.argv[1:5]
     shutil.rmtree(work, ignore_errors=True)
@@ -73,6 +126,8 @@ def main():
     sarif = json.loads(run(tiers, "check", "--combine", *parts, "--format", "sarif").stdout)
     check("the combined SARIF log has a result per problem",
           len(sarif["runs"][0]["results"]) == len(a))
+
+    byte_identical(tiers, data, out, common)
 
     converted = os.path.join(work, "converted")
     for k in range(1, 4):

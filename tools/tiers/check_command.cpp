@@ -60,22 +60,10 @@ CLI::App* setup_check(CLI::App& app, check_options& o) {
 namespace {
 
 std::string limits_of(const rule_info& r, const profile& p) {
-  const check_limits& l = p.limits;
-  const std::string id(r.id);
-  auto dur = [](time_ns t) { return format_seconds(t) + "s"; };
-  if (id == "caption.cps") return fmt::format("max {:g}", l.max_cps);
-  if (id == "caption.wpm") return fmt::format("max {:g}", l.max_wpm);
-  if (id == "caption.line-length") return fmt::format("max {}", l.max_line_length);
-  if (id == "caption.lines") return fmt::format("max {}", l.max_lines);
-  if (id == "caption.min-duration") return "min " + dur(l.min_duration);
-  if (id == "caption.max-duration") return "max " + dur(l.max_duration);
-  if (id == "caption.gap") return "min " + format_duration(l.min_gap);
-  if (id == "lag.late") return "max " + dur(l.max_late);
-  if (id == "lag.early") return "max " + dur(l.max_early);
-  if (id == "lag.coverage") return fmt::format("min {:g}", l.min_coverage);
-  if (id == "text.all-caps")
-    return fmt::format("share {:g}, min_letters {}", l.caps_share, l.caps_min_letters);
-  return "";
+  std::string text;
+  for (const rule_parameter& q : rule_parameters(r.id, p.limits))
+    text += (text.empty() ? "" : ", ") + q.name + " " + q.text;
+  return text;
 }
 
 int list_rules(const profile& p) {
@@ -148,10 +136,14 @@ std::string lag_text(const std::vector<file_report>& reports) {
   return any ? "\n" + lag.render() : "";
 }
 
-void write_report(const check_options& o, const std::vector<file_report>& reports) {
+void write_report(const check_options& o, const std::vector<file_report>& reports,
+                  const profile& used) {
+  report_header header;
+  if (!o.profile.empty()) header.profile = identify(used);
+  if (!o.shard.empty()) header.shard = o.shard;
   auto emit = [&](byte_sink& out, bool with_problems) {
-    if (o.format == "json") return write_check_json(reports, out);
-    if (o.format == "sarif") return write_check_sarif(reports, out);
+    if (o.format == "json") return write_check_json(reports, out, header);
+    if (o.format == "sarif") return write_check_sarif(reports, out, used, header);
     if (with_problems)
       for (const file_report& r : reports)
         for (const problem& p : r.problems)
@@ -173,20 +165,46 @@ void write_report(const check_options& o, const std::vector<file_report>& report
   out.flush();
 }
 
-// The files of several reports, in the order of the reports, compared with one another anew.
-std::vector<file_report> combine_reports(const std::vector<std::string>& paths, const profile& p) {
+// The files of several reports compared with one another anew: shards' files in the order of
+// the whole run (by their index), other reports' in the order given. Every report must have
+// been made with the profile the combining is given (or, without --profile, with none).
+std::vector<file_report> combine_reports(const std::vector<std::string>& paths, const profile& p,
+                                         bool with_profile) {
   std::vector<file_report> all;
   bool failed = false;
+  const std::optional<profile_identity> wanted =
+      with_profile ? std::optional<profile_identity>(identify(p)) : std::nullopt;
   for (const std::string& path : paths) {
     const std::string text = read_input(path);
     report_result r = read_check_report(text, display_name(path));
     for (const diagnostic& d : r.diagnostics)
       report(d);
     failed = failed || !r.ok();
+    const std::optional<profile_identity>& made = r.header.profile;
+    if (r.ok() &&
+        (made.has_value() != wanted.has_value() || (made && made->digest != wanted->digest))) {
+      diagnostic d;
+      d.file = display_name(path);
+      d.code = "report.profile";
+      d.message = !made     ? "was made without a profile; combine it without --profile"
+                  : !wanted ? "was made with the profile '" + made->name + "' (" + made->digest +
+                                  "); combine it with --profile " + made->name
+                            : "was made with the profile '" + made->name + "' (" + made->digest +
+                                  "), not with '" + wanted->name + "' (" + wanted->digest +
+                                  "): its problems were judged otherwise";
+      report(d);
+      failed = true;
+    }
     for (file_report& f : r.files)
       all.push_back(std::move(f));
   }
   if (failed) throw rejected();
+  if (std::all_of(all.begin(), all.end(), [](const file_report& f) { return f.index; }))
+    std::stable_sort(all.begin(), all.end(), [](const file_report& a, const file_report& b) {
+      return *a.index < *b.index;
+    });
+  for (file_report& f : all)
+    f.index.reset();  // the combined report is one whole run's
   check_dataset(all, p);
   return all;
 }
@@ -216,16 +234,25 @@ check_run run_checks(const check_options& o, const profile& p, std::size_t keep_
     }
   }
   if (o.combine) {
-    run.reports = combine_reports(o.paths, p);
+    run.reports = combine_reports(o.paths, p, !o.profile.empty());
     return run;
   }
   std::vector<std::string> files;
   for (input_file& f : expand_inputs(o.paths))
     files.push_back(std::move(f.path));
-  if (!o.shard.empty()) files = shard_of(std::move(files), o.shard);
+  std::vector<std::size_t> places;  // with --shard: each file's place among all of them
+  if (!o.shard.empty()) {
+    places = shard_places(files, o.shard);
+    std::vector<std::string> mine;
+    for (std::size_t k : places)
+      mine.push_back(std::move(files[k]));
+    files = std::move(mine);
+  }
   if (files.empty() && o.shard.empty()) throw usage_error("the folders named hold no tier files");
   run.reports =
       check_files(files, o, p, run.roles, o.shard.empty(), &run.documents, keep_documents);
+  for (std::size_t k = 0; k < places.size() && k < run.reports.size(); ++k)
+    run.reports[k].index = places[k];
   return run;
 }
 
@@ -247,7 +274,7 @@ int run_check(const check_options& o) {
   if (!o.html.empty() && o.combine)
     throw usage_error("check: --html draws the files, which --combine does not read");
   const check_run run = run_checks(o, p, o.html.empty() ? 0 : html_drawn_files);
-  write_report(o, run.reports);
+  write_report(o, run.reports, p);
   if (!o.html.empty()) {
     html_request page;
     page.output = o.html;

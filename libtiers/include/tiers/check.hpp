@@ -72,7 +72,18 @@ struct file_report {
   /// The file's tiers, to compare files (also across reports combined later); none when the
   /// file could not be read.
   std::optional<std::vector<tier_shape>> shape;
+  /// In the report of one shard: the file's place among all the files of the whole run, so
+  /// that combined shards list their files as one run would.
+  std::optional<std::size_t> index;
   std::size_t count(severity level) const;
+};
+
+/// What a report says of the run that made it: the profile it was checked with (--profile),
+/// and which shard of the files it covers.
+struct report_header {
+  std::optional<profile_identity> profile;
+  std::optional<std::string> shard;  ///< "K/N"
+  friend bool operator==(const report_header&, const report_header&) = default;
 };
 
 /// Checks one document read from `file` against the rule catalogue and `p`. `positions` (from
@@ -99,6 +110,7 @@ void check_dataset(std::span<file_report> reports, const profile& p);
 /// Reads a report written by write_check_json (`--format json`), for combining the reports of
 /// runs over parts of a dataset. Problems are located in `file` (codes `report.*`, `json.*`).
 struct report_result {
+  report_header header;
   std::vector<file_report> files;
   std::vector<diagnostic> diagnostics;
   bool ok() const { return !has_errors(diagnostics); }
@@ -123,10 +135,13 @@ check_summary summarize(std::span<const file_report> reports);
 
 /// The report as JSON: {"files": [{"path", "problems": […], "lag": {…}}], "summary": {…}}
 /// (docs/cli.md, "check").
-void write_check_json(std::span<const file_report> reports, byte_sink& out);
+void write_check_json(std::span<const file_report> reports, byte_sink& out,
+                      const report_header& header = {});
 
-/// The report as one SARIF 2.1.0 log: one run, the rule catalogue as the driver's rules, one
-/// result per problem.
-void write_check_sarif(std::span<const file_report> reports, byte_sink& out);
+/// The report as one SARIF 2.1.0 log: one run, the rule catalogue as the driver's rules (each
+/// with its default configuration: level, enabled, thresholds), the profile's changes to them
+/// as the invocation's ruleConfigurationOverrides (§3.20.5, §3.51), one result per problem.
+void write_check_sarif(std::span<const file_report> reports, byte_sink& out,
+                       const profile& used = {}, const report_header& header = {});
 
 }  // namespace tiers

@@ -64,6 +64,27 @@ struct profile {
   const tier_spec* find_tier(std::string_view tier_name) const;
 };
 
+/// A threshold of a rule as a profile sets it: `max` 20, `min` "2f". `json` is the value as a
+/// JSON literal (a number, or a string for durations), `text` as people read it.
+struct rule_parameter {
+  std::string name;
+  std::string json;
+  std::string text;
+};
+
+/// The thresholds of `rule` under `limits` (none for rules without one).
+std::vector<rule_parameter> rule_parameters(std::string_view rule, const check_limits& limits);
+
+/// What a report records of the profile it was checked with: its name and a digest of what it
+/// sets (every rule's level and thresholds, the tiers it declares, its roles and windows), so
+/// that reports made with different profiles, or the same name changed, are told apart.
+struct profile_identity {
+  std::string name;
+  std::string digest;  ///< "fnv1a64:" and 16 hex digits, of the profile's effective settings
+  friend bool operator==(const profile_identity&, const profile_identity&) = default;
+};
+profile_identity identify(const profile& p);
+
 /// The profiles that come with tiers (profiles/ in the source tree), by name.
 std::vector<std::string_view> builtin_profiles();
 

@@ -1,4 +1,5 @@
 // The check report as JSON (docs/cli.md, "check"): every file's problems and lag, and totals.
+#include "report_profile.hpp"
 #include "tiers/check.hpp"
 #include "tiers/detail/json_text.hpp"
 #include "tiers/version.hpp"
@@ -77,16 +78,27 @@ void write_lag(byte_sink& out, const lag_report& lag) {
 
 }  // namespace
 
-void write_check_json(std::span<const file_report> reports, byte_sink& out) {
+void write_check_json(std::span<const file_report> reports, byte_sink& out,
+                      const report_header& header) {
   out.write(
       "{\"format\": \"tiers-check\", \"version\": 1, \"tool\": {\"name\": \"tiers\", "
       "\"version\": ");
   write_json_string(out, version());
-  out.write("},\n \"files\": [");
+  out.put('}');
+  if (header.profile) {
+    out.write(",\n \"profile\": ");
+    detail::write_profile_identity(out, *header.profile);
+  }
+  if (header.shard) {
+    out.write(", \"shard\": ");
+    write_json_string(out, *header.shard);
+  }
+  out.write(",\n \"files\": [");
   for (std::size_t k = 0; k < reports.size(); ++k) {
     const file_report& r = reports[k];
     out.write(k ? ",\n  {\"path\": " : "\n  {\"path\": ");
     write_json_string(out, r.path);
+    if (r.index) write_count(out, "index", *r.index);
     out.write(", \"problems\": [");
     for (std::size_t i = 0; i < r.problems.size(); ++i) {
       out.write(i ? ",\n    " : "\n    ");

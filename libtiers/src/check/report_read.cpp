@@ -23,6 +23,7 @@ class report_reader {
     file_report r;
     if (f.require("path"))
       if (auto p = f.string("path")) r.path = *p;
+    if (f.get("index")) r.index = count(f, "index");
     if (const json_node* ps = f.array("problems"))
       for (const json_node& p : ps->items)
         problem_of(p, r);
@@ -145,6 +146,15 @@ report_result read_check_report(std::string_view text, const std::string& file) 
           "tiers check --format json"));
     f.get("tool");
     f.get("summary");  // recomputed from the files
+    if (const json_node* p = f.object("profile")) {
+      json_fields g(*p, "the profile", "report", r.diagnostics);
+      g.require("name");
+      g.require("digest");
+      r.header.profile =
+          profile_identity{g.string("name").value_or(""), g.string("digest").value_or("")};
+      g.finish();
+    }
+    if (auto shard = f.string("shard")) r.header.shard = *shard;
     report_reader reader(r.diagnostics);
     if (const json_node* files = f.array("files"))
       for (const json_node& n : files->items)

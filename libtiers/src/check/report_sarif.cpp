@@ -2,8 +2,10 @@
 // one result per problem, located by line and column in code points (§3.14.23 columnKind).
 #include <cstdio>
 
+#include "report_profile.hpp"
 #include "tiers/check.hpp"
 #include "tiers/detail/json_text.hpp"
+#include "tiers/profile.hpp"
 #include "tiers/version.hpp"
 
 namespace tiers {
@@ -37,21 +39,73 @@ std::string_view sarif_level(rule_level l) {
   return l == rule_level::off ? "none" : to_string(l);
 }
 
+// A reportingConfiguration (§3.49): level, enabled when off, and the thresholds as parameters.
+void write_configuration(byte_sink& out, rule_level level,
+                         const std::vector<rule_parameter>& parameters) {
+  out.write("{\"level\": ");
+  write_json_string(out, sarif_level(level));
+  out.write(level == rule_level::off ? ", \"enabled\": false" : ", \"enabled\": true");
+  if (!parameters.empty()) {
+    out.write(", \"parameters\": {");
+    for (std::size_t k = 0; k < parameters.size(); ++k) {
+      if (k) out.write(", ");
+      write_json_string(out, parameters[k].name);
+      out.write(": ");
+      out.write(parameters[k].json);
+    }
+    out.put('}');
+  }
+  out.put('}');
+}
+
 void write_rules(byte_sink& out) {
   const auto all = rules();
+  const check_limits defaults;
   for (std::size_t k = 0; k < all.size(); ++k) {
     const rule_info& r = all[k];
     out.write(k ? ",\n      {\"id\": " : "\n      {\"id\": ");
     write_json_string(out, r.id);
     out.write(", \"shortDescription\": {\"text\": ");
     write_json_string(out, r.summary);
-    out.write("}, \"defaultConfiguration\": {\"level\": ");
-    write_json_string(out, sarif_level(r.level));
-    out.write(r.level == rule_level::off ? ", \"enabled\": false}" : "}");
+    out.write("}, \"defaultConfiguration\": ");
+    write_configuration(out, r.level, rule_parameters(r.id, defaults));
     out.write(", \"properties\": {\"group\": ");
     write_json_string(out, r.group);
     out.write("}}");
   }
+}
+
+// The invocation (§3.20): the profile that was used, and every rule whose level or thresholds
+// it changed, with the configuration in force (§3.20.5 ruleConfigurationOverrides) — so that a
+// rule a profile switched on is not read as off by its default configuration.
+void write_invocation(byte_sink& out, const profile& p, const report_header& header) {
+  out.write(",\n  \"invocations\": [{\"executionSuccessful\": true");
+  const auto all = rules();
+  const check_limits defaults;
+  bool first = true;
+  for (std::size_t k = 0; k < all.size(); ++k) {
+    const rule_info& r = all[k];
+    const std::vector<rule_parameter> now = rule_parameters(r.id, p.limits);
+    const std::vector<rule_parameter> was = rule_parameters(r.id, defaults);
+    bool same = p.level(r.id) == r.level && now.size() == was.size();
+    for (std::size_t i = 0; same && i < now.size(); ++i)
+      same = now[i].json == was[i].json;
+    if (same) continue;
+    out.write(first ? ", \"ruleConfigurationOverrides\": [\n    " : ",\n    ");
+    first = false;
+    out.write("{\"descriptor\": {\"id\": ");
+    write_json_string(out, r.id);
+    out.write(", \"index\": " + std::to_string(k) + "}, \"configuration\": ");
+    write_configuration(out, p.level(r.id), now);
+    out.put('}');
+  }
+  if (!first) out.write("]");
+  if (header.profile) {
+    out.write(", \"properties\": {\"profile\": ");
+    detail::write_profile_identity(out, *header.profile);
+    out.put('}');
+  }
+  out.write("}]");
 }
 
 void write_result(byte_sink& out, const problem& p) {
@@ -118,7 +172,8 @@ void write_result(byte_sink& out, const problem& p) {
 
 }  // namespace
 
-void write_check_sarif(std::span<const file_report> reports, byte_sink& out) {
+void write_check_sarif(std::span<const file_report> reports, byte_sink& out, const profile& used,
+                       const report_header& header) {
   out.write(
       "{\"$schema\": "
       "\"https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/"
@@ -127,7 +182,9 @@ void write_check_sarif(std::span<const file_report> reports, byte_sink& out) {
   write_json_string(out, version());
   out.write(", \"rules\": [");
   write_rules(out);
-  out.write("]}},\n  \"columnKind\": \"unicodeCodePoints\",\n  \"results\": [");
+  out.write("]}}");
+  write_invocation(out, used, header);
+  out.write(",\n  \"columnKind\": \"unicodeCodePoints\",\n  \"results\": [");
   bool first = true;
   for (const file_report& r : reports)
     for (const problem& p : r.problems) {
