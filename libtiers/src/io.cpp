@@ -7,9 +7,11 @@
 
 #include <atomic>
 #include <cerrno>
+#include <charconv>
 #include <csignal>
 #include <cstring>
 #include <filesystem>
+#include <optional>
 
 #include "tiers/diagnostic.hpp"
 
@@ -130,27 +132,80 @@ std::string read_input(const std::string& path) {
   return content;
 }
 
+namespace {
+
+// The descriptor a path names when it is one of the process's own: /dev/stdout, /dev/stderr,
+// /dev/fd/N, /proc/self/fd/N (or a link to one). Writing there goes to that descriptor as it
+// is (a redirect, a pipe, a file opened for appending); replacing the path would instead put a
+// file where the link was, and the output would never reach the redirect.
+std::optional<int> own_descriptor(const std::string& path) {
+  std::error_code ec;
+  std::string p = path;
+  for (int hops = 0; hops < 8; ++hops) {
+    for (const auto& [name, fd] :
+         {std::pair<std::string_view, int>{"/dev/stdout", 1}, {"/dev/stderr", 2}})
+      if (p == name) return fd;
+    for (std::string_view prefix : {"/dev/fd/", "/proc/self/fd/"})
+      if (p.rfind(prefix, 0) == 0) {
+        int fd = -1;
+        const char* digits = p.c_str() + prefix.size();
+        const auto [end, err] = std::from_chars(digits, p.c_str() + p.size(), fd);
+        if (err == std::errc{} && *end == '\0' && fd >= 0) return fd;
+      }
+    struct stat st {};
+    if (::lstat(p.c_str(), &st) != 0 || !S_ISLNK(st.st_mode)) return std::nullopt;
+    const std::filesystem::path link = std::filesystem::read_symlink(p, ec);
+    if (ec) return std::nullopt;
+    p = (link.is_absolute() ? link : std::filesystem::path(p).parent_path() / link).string();
+  }
+  return std::nullopt;
+}
+
+}  // namespace
+
 atomic_file::atomic_file(std::string path) : path_(std::move(path)) {
+  if (const std::optional<int> fd = own_descriptor(path_)) {
+    fd_ = ::dup(*fd);
+    if (fd_ < 0) fail("io.open", path_, "cannot open for writing");
+    return;
+  }
+  // A symbolic link to a regular file: the file it names is replaced, and the link stays.
+  std::string target_path = path_;
+  {
+    std::error_code ec;
+    struct stat lst {};
+    if (::lstat(path_.c_str(), &lst) == 0 && S_ISLNK(lst.st_mode)) {
+      const std::filesystem::path resolved = std::filesystem::canonical(path_, ec);
+      if (!ec) target_path = resolved.string();
+    }
+  }
   struct stat st {};
-  const bool exists = ::stat(path_.c_str(), &st) == 0;
+  const bool exists = ::stat(target_path.c_str(), &st) == 0;
   if (exists && !S_ISREG(st.st_mode)) {
     // A device or pipe (say /dev/null) cannot be replaced by renaming: write to it directly.
     fd_ = ::open(path_.c_str(), O_WRONLY | O_CLOEXEC);
     if (fd_ < 0) fail("io.open", path_, "cannot open for writing");
     return;
   }
-  const std::filesystem::path target(path_);
+  replaced_ = target_path;
+  const std::filesystem::path target(target_path);
   const std::filesystem::path dir = target.has_parent_path() ? target.parent_path() : ".";
-  std::string pattern = (dir / ("." + target.filename().string() + ".tiers-XXXXXX")).string();
+  // Short, whatever the target's name: a name of up to 255 bytes must still be writable.
+  std::string pattern = (dir / ".tiers-XXXXXX").string();
   fd_ = ::mkstemp(pattern.data());
   if (fd_ < 0) fail("io.open", path_, "cannot create a temporary file in the output's folder");
   temp_path_ = pattern;
   temp_slot_ = remember_temp(temp_path_);
   ::fcntl(fd_, F_SETFD, FD_CLOEXEC);
-  // mkstemp makes the file private; give it the mode a plainly created file would have.
+  // mkstemp makes the file private; give it the mode a plainly created file would have, or
+  // the replaced file's mode, owner and group (the owner only as root: others cannot give a
+  // file away, and the new file is then theirs).
   mode_t mode = 0;
   if (exists) {
     mode = st.st_mode & 07777;
+    if (st.st_uid != ::geteuid() || st.st_gid != ::getegid())
+      if (::fchown(fd_, st.st_uid, st.st_gid) != 0 && st.st_gid != ::getegid())
+        (void)::fchown(fd_, static_cast<uid_t>(-1), st.st_gid);  // the group, where allowed
   } else {
     mode = 0666 & ~process_umask;
   }
@@ -183,7 +238,8 @@ void atomic_file::commit() {
   const int rc = ::close(fd_);
   fd_ = -1;
   if (rc != 0) fail("io.write", path_, "cannot write");
-  if (::rename(temp_path_.c_str(), path_.c_str()) != 0) fail("io.write", path_, "cannot replace");
+  if (::rename(temp_path_.c_str(), replaced_.c_str()) != 0)
+    fail("io.write", path_, "cannot replace");
   forget_temp(temp_slot_);
   temp_path_.clear();
 }

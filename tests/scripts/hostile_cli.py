@@ -161,7 +161,7 @@ def main():
               finished and (complete is None or complete == whole),
               f"({outcomes['old']} times the old file, {outcomes['new']} the new one)")
     for leftover in os.listdir(work):
-        if leftover.startswith(".target.tiers"):
+        if leftover.startswith(".tiers-"):
             os.remove(os.path.join(work, leftover))  # SIGKILL cannot be caught: documented
 
     parallel_interrupt(tiers, work, big)

@@ -8,6 +8,8 @@
 #include "tiers/diagnostic.hpp"
 #include "tiers/io.hpp"
 
+#include <fcntl.h>
+#include <sys/stat.h>
 #include <sys/wait.h>
 #include <unistd.h>
 
@@ -100,5 +102,74 @@ TEST_CASE("a terminating signal during a write removes the temporary file", "[io
   CHECK(WTERMSIG(status) == SIGTERM);
   CHECK(slurp(target) == "old");
   CHECK(std::distance(fs::directory_iterator(dir), fs::directory_iterator{}) == 1);
+  fs::remove_all(dir);
+}
+
+TEST_CASE("atomic_file writes names of up to 255 bytes (its temporary name is short)", "[io]") {
+  const fs::path dir = fresh_dir("long-name");
+  const fs::path target = dir / (std::string(250, 'n') + ".json");  // 255 bytes, NAME_MAX
+  {
+    atomic_file f(target.string());
+    f.write("long");
+    f.commit();
+  }
+  CHECK(slurp(target) == "long");
+  fs::remove_all(dir);
+}
+
+TEST_CASE("atomic_file replaces the file a link names, and keeps the link", "[io]") {
+  const fs::path dir = fresh_dir("link");
+  std::ofstream(dir / "real.json") << "old";
+  fs::create_symlink("real.json", dir / "link.json");
+  {
+    atomic_file f((dir / "link.json").string());
+    f.write("new");
+    f.commit();
+  }
+  CHECK(fs::is_symlink(dir / "link.json"));
+  CHECK(slurp(dir / "real.json") == "new");
+  fs::remove_all(dir);
+}
+
+TEST_CASE("atomic_file writes to the process's own descriptors, never replacing their links",
+          "[io]") {
+  // As `-o /dev/stdout` with the output redirected: the link stays, the bytes reach the fd.
+  const fs::path dir = fresh_dir("own-fd");
+  const fs::path redirect = dir / "redirect.txt";
+  const int fd = ::open(redirect.c_str(), O_WRONLY | O_CREAT | O_TRUNC, 0644);
+  REQUIRE(fd >= 0);
+  const fs::path link = dir / "stdout-link";
+  fs::create_symlink("/proc/self/fd/" + std::to_string(fd), link);
+  {
+    atomic_file f(link.string());
+    f.write("through the descriptor");
+    f.commit();
+  }
+  ::close(fd);
+  CHECK(fs::is_symlink(link));
+  CHECK(slurp(redirect) == "through the descriptor");
+  fs::remove_all(dir);
+}
+
+TEST_CASE("atomic_file keeps the owner and group of the file it replaces, as root", "[io]") {
+  if (::geteuid() != 0) {
+    WARN("not root: a file's owner cannot be given away, so this is not tested here");
+    return;
+  }
+  const fs::path dir = fresh_dir("owner");
+  const fs::path target = dir / "theirs.json";
+  std::ofstream(target) << "old";
+  REQUIRE(::chown(target.c_str(), 65534, 65534) == 0);  // nobody, by Debian's numbering
+  ::chmod(target.c_str(), 0600);
+  {
+    atomic_file f(target.string());
+    f.write("new");
+    f.commit();
+  }
+  struct stat st {};
+  REQUIRE(::stat(target.c_str(), &st) == 0);
+  CHECK(st.st_uid == 65534);
+  CHECK(st.st_gid == 65534);
+  CHECK((st.st_mode & 07777) == 0600);
   fs::remove_all(dir);
 }

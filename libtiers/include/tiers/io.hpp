@@ -25,6 +25,7 @@ class atomic_file final : public byte_sink {
 
  private:
   std::string path_;
+  std::string replaced_;  // the regular file renamed over: path_, or the file its link names
   std::string temp_path_;
   int fd_ = -1;
   int temp_slot_ = -1;  // where the signal handler finds temp_path_
