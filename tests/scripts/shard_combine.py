@@ -6,7 +6,7 @@ tier, so that the files disagree with one another). The test asserts:
   - the shards 1/4 … 4/4 split the files without overlap and miss none;
   - the four JSON reports joined with --combine hold exactly the problems of one unsharded run
     (the dataset rule included, judged over all files again) and the same summary;
-  - the combined SARIF log has a result per problem;
+  - the combined SARIF log has a result per problem; a report given twice is refused;
   - on 150 more sessions, three shards combined print byte for byte what one run prints, in
     text, JSON and SARIF, with and without a profile; --combine refuses reports of another
     profile or of none; SARIF shows a rule the profile switched on as enabled;
@@ -126,6 +126,9 @@ def main():
           f"dataset.inconsistent)")
     check("and the same summary", whole["summary"] == combined["summary"])
     check("the dataset rule was judged over all files", any(x[1] == "dataset.inconsistent" for x in a))
+    twice = run(tiers, "check", "--combine", *parts, parts[1], "--format", "json")
+    check("--combine refuses a shard's report given twice, naming it", twice.returncode == 1 and
+          "report.repeated" in twice.stderr and parts[1] in twice.stderr, twice.stderr[:300])
     sarif = json.loads(run(tiers, "check", "--combine", *parts, "--format", "sarif").stdout)
     check("the combined SARIF log has a result per problem",
           len(sarif["runs"][0]["results"]) == len(a))

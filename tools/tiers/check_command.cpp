@@ -4,6 +4,7 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <unordered_map>
 
 #include "batch.hpp"
 #include "check_inputs.hpp"
@@ -174,9 +175,24 @@ std::vector<file_report> combine_reports(const std::vector<std::string>& paths, 
   bool failed = false;
   const std::optional<profile_identity> wanted =
       with_profile ? std::optional<profile_identity>(identify(p)) : std::nullopt;
+  // Each file once: a report given twice (or two reports of one shard) would count its
+  // problems twice.
+  std::unordered_map<std::string, std::string> reported_in;
   for (const std::string& path : paths) {
     const std::string text = read_input(path);
     report_result r = read_check_report(text, display_name(path));
+    for (const file_report& f : r.files) {
+      const auto [it, fresh] = reported_in.emplace(f.path, path);
+      if (fresh) continue;
+      diagnostic d;
+      d.file = display_name(path);
+      d.code = "report.repeated";
+      d.message = "reports the file '" + f.path + "' that " + display_name(it->second) +
+                  " reports already: combine each shard once";
+      report(d);
+      failed = true;
+      break;
+    }
     for (const diagnostic& d : r.diagnostics)
       report(d);
     failed = failed || !r.ok();

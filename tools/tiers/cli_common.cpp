@@ -14,6 +14,20 @@
 
 namespace tiers::cli {
 
+CLI::Validator positive_size() {
+  // Checked on the text: read into a size, "-1" would wrap to the largest size and switch the
+  // limit off, and 0 would refuse every file.
+  return CLI::Validator(
+      [](std::string& text) -> std::string {
+        const bool digits =
+            !text.empty() && text.find_first_not_of("0123456789") == std::string::npos;
+        if (!digits || text.find_first_not_of('0') == std::string::npos)
+          return "'" + text + "' is not a whole number of at least 1";
+        return {};
+      },
+      "N >= 1");
+}
+
 void add_input_options(CLI::App& cmd, input_options& in) {
   cmd.add_option("--from", in.from,
                  "Input format (" + format_names() + "); default: by extension, else by content")
@@ -35,9 +49,11 @@ void add_input_options(CLI::App& cmd, input_options& in) {
                "ids) are errors, not warnings");
   cmd.add_option("--max-text-bytes", in.max_text,
                  "Refuse a file with an annotation text longer than this (default 4194304)")
+      ->check(positive_size())
       ->type_name("N");
   cmd.add_option("--max-tiers", in.max_tiers,
                  "Refuse a file with more tiers than this (default 100000)")
+      ->check(positive_size())
       ->type_name("N");
   cmd.add_option("--rate", in.rate,
                  "Frames per second for frame numbers and timecode: 25, 30000/1001")

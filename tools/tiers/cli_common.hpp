@@ -42,6 +42,9 @@ struct input_options {
 void add_output_options(CLI::App& cmd, std::string& output, std::string& to, bool& allow_loss,
                         const char* output_help = nullptr);
 
+/// A validator for limits and counts: a whole number of at least 1, written without a sign.
+CLI::Validator positive_size();
+
 /// Adds --from, --columns, --tier-name, --time-unit and --rate to `cmd`.
 void add_input_options(CLI::App& cmd, input_options& in);
 
