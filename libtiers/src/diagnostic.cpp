@@ -18,10 +18,42 @@ std::string_view to_string(severity level) {
   return "error";
 }
 
+std::string escape_controls(std::string_view text, bool keep_newlines) {
+  static constexpr char hex[] = "0123456789abcdef";
+  std::string s;
+  s.reserve(text.size());
+  for (std::size_t k = 0; k < text.size(); ++k) {
+    const auto u = static_cast<unsigned char>(text[k]);
+    if (u == '\n' && keep_newlines) {
+      s += '\n';
+    } else if (u < 0x20 || u == 0x7F) {
+      s += u == '\n' ? "\\n" : u == '\r' ? "\\r" : u == '\t' ? "\\t" : "\\x";
+      if (u != '\n' && u != '\r' && u != '\t') {
+        s += hex[u >> 4];
+        s += hex[u & 15];
+      }
+    } else if (u == 0xC2 && k + 1 < text.size() &&
+               static_cast<unsigned char>(text[k + 1]) >= 0x80 &&
+               static_cast<unsigned char>(text[k + 1]) <= 0x9F) {
+      // C1 controls (U+0080 to U+009F) act on terminals too (U+009B opens a sequence).
+      const auto c1 = static_cast<unsigned char>(text[++k]);
+      s += "\\u00";
+      s += hex[c1 >> 4];
+      s += hex[c1 & 15];
+    } else {
+      s += text[k];
+    }
+  }
+  return s;
+}
+
 std::string format_diagnostic(const diagnostic& d) {
   std::string s;
   if (!d.file.empty()) {
-    s += d.file;
+    // Messages quote input, and file names come from anywhere; a control character in one (a
+    // line break, an escape sequence for the terminal) would break the one-line form or
+    // worse, so it is shown escaped.
+    s += escape_controls(d.file);
     if (d.line > 0) {
       s += ':' + std::to_string(d.line);
       if (d.column > 0) s += ':' + std::to_string(d.column);
@@ -30,22 +62,7 @@ std::string format_diagnostic(const diagnostic& d) {
   }
   s += to_string(d.level);
   s += ": ";
-  // Messages quote input; a control character in one (a line break, an escape sequence for
-  // the terminal) would break the one-line form or worse, so it is shown escaped.
-  for (char c : d.message) {
-    const auto u = static_cast<unsigned char>(c);
-    if (u >= 0x20 && u != 0x7F) {
-      s += c;
-    } else {
-      static constexpr char hex[] = "0123456789abcdef";
-      s += c == '\n' ? "\\n" : c == '\r' ? "\\r" : c == '\t' ? "\\t" : "";
-      if (c != '\n' && c != '\r' && c != '\t') {
-        s += "\\x";
-        s += hex[u >> 4];
-        s += hex[u & 15];
-      }
-    }
-  }
+  s += escape_controls(d.message);
   if (!d.code.empty()) s += " [" + d.code + "]";
   return s;
 }

@@ -54,3 +54,16 @@ TEST_CASE("control characters in messages are shown escaped, one line each", "[d
   CHECK(format_diagnostic(d) ==
         "a.tiers:3:1: error: time '1\\r2\\n\\x1b[31m' is not a time [tiers.syntax]");
 }
+
+TEST_CASE("text for people shows control characters escaped", "[diagnostic]") {
+  // ECMA-48: ESC (0x1B) and CSI (U+009B) open control sequences; BEL (0x07) ends an OSC.
+  CHECK(escape_controls("\x1b]0;title\x07") == "\\x1b]0;title\\x07");
+  CHECK(escape_controls("a\nb\tc\x7f") == "a\\nb\\tc\\x7f");
+  CHECK(escape_controls("a\nb", true) == "a\nb");
+  CHECK(escape_controls("\xc2\x9b"
+                        "2J caf\xc3\xa9") == "\\u009b2J caf\xc3\xa9");
+  diagnostic d;
+  d.file = "ep\x1b[2J.vtt";
+  d.message = "x";
+  CHECK(format_diagnostic(d) == "ep\\x1b[2J.vtt: error: x");
+}

@@ -184,7 +184,7 @@ int two_tiers(const agree_options& o) {
   if (o.json)
     write_agreement_json(report, out);
   else
-    out.write(text_report(report, r.annotations.size(), cand_count));
+    out.write(escape_controls(text_report(report, r.annotations.size(), cand_count), true));
   out.flush();
   return exit_ok;
 }
@@ -219,7 +219,7 @@ int many_tiers(const agree_options& o) {
   text_table kappas({"pair", ">kappa"});
   for (const auto& p : r.pairwise)
     kappas.add_row({p.a + " / " + p.b, num(p.kappa)});
-  out.write(text + kappas.render());
+  out.write(escape_controls(text + kappas.render(), true));
   out.flush();
   return exit_ok;
 }

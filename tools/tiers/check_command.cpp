@@ -149,7 +149,7 @@ void write_report(const check_options& o, const std::vector<file_report>& report
       for (const file_report& r : reports)
         for (const problem& p : r.problems)
           out.write(format_problem(p) + "\n");
-    out.write(summary_text(reports) + lag_text(reports));
+    out.write(escape_controls(summary_text(reports) + lag_text(reports), true));
   };
   if (!o.output.empty() && o.output != "-") {
     atomic_file out(o.output);

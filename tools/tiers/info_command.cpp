@@ -62,7 +62,7 @@ int run_info(const info_options& o) {
                    t.kind == tier_kind::interval ? format_clock(t.annotated) : "-",
                    t.coverage ? fmt::format("{:.1f} %", *t.coverage * 100) : "-"});
   text += table.render();
-  out.write(text);
+  out.write(escape_controls(text, true));  // names from the file reach a terminal
   out.flush();
   return exit_ok;
 }

@@ -201,7 +201,8 @@ int run_retime(const retime_options_cli& o) {
   move_children(doc, caption_name, r);
   write_output(doc, to, o.output, o.allow_loss, file, {}, given_name);
 
-  const std::string report_text = o.json ? json_report(r, before) : text_report(r, before);
+  const std::string report_text =
+      o.json ? json_report(r, before) : escape_controls(text_report(r, before), true);
   // The report goes to standard output, unless the document does.
   if (o.output == "-")
     std::fputs(report_text.c_str(), stderr);

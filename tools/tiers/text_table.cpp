@@ -1,6 +1,8 @@
 // Rendering of text_table; widths count code points, not bytes, so names in any script align.
 #include "text_table.hpp"
 
+#include "tiers/diagnostic.hpp"
+
 #include <algorithm>
 
 namespace tiers::cli {
@@ -23,6 +25,9 @@ text_table::text_table(std::vector<std::string> titles) {
 
 void text_table::add_row(std::vector<std::string> cells) {
   cells.resize(titles_.size());
+  // Cells hold names from files: escaped before they are measured, so columns still align.
+  for (std::string& cell : cells)
+    cell = escape_controls(cell);
   rows_.push_back(std::move(cells));
 }
 

@@ -29,7 +29,14 @@ struct diagnostic {
   std::size_t column = 0;          ///< 1-based, in code points; 0 when unknown
 };
 
-/// `FILE:LINE:COLUMN: error: MESSAGE [code]`, leaving out the parts that are unknown.
+/// `text` for a terminal: C0 controls (but line breaks when `keep_newlines`), DEL and C1
+/// controls written as `\n`, `\t`, `\x1b`, `\u009b`, so that a name or message from a file
+/// cannot move the cursor, retitle the window or fake a line. For text meant for people only:
+/// JSON and converted files keep every character exactly.
+std::string escape_controls(std::string_view text, bool keep_newlines = false);
+
+/// `FILE:LINE:COLUMN: error: MESSAGE [code]`, leaving out the parts that are unknown; the file
+/// and message with escape_controls.
 std::string format_diagnostic(const diagnostic& d);
 
 /// Line and column (both 1-based, columns in code points) of a byte offset. LF, CR and CRLF
