@@ -2,6 +2,7 @@
 #include "tiers/io.hpp"
 
 #include <fcntl.h>
+#include <pthread.h>
 #include <sys/stat.h>
 #include <unistd.h>
 
@@ -10,6 +11,7 @@
 #include <charconv>
 #include <csignal>
 #include <cstring>
+#include <ctime>
 #include <filesystem>
 #include <optional>
 
@@ -30,8 +32,22 @@ struct temp_slot {
 };
 temp_slot slots[temp_slots];
 
+// A temporary file exists before its slot is active, and other threads go on running while the
+// handler sweeps. So a thread creates and registers its temporary with the signals blocked and
+// counted in `creating`; the handler first says the process is ending (`ending`), waits for
+// those creations to be registered, then sweeps; a thread that sees `ending` creates nothing.
+std::atomic<int> creating{0};
+std::atomic<bool> ending{false};
+
 extern "C" void on_fatal_signal(int sig) {
-  // Only async-signal-safe calls here: unlink, signal, raise.
+  // Only async-signal-safe calls here: nanosleep, unlink, signal, raise.
+  ending.store(true);
+  for (int k = 0; k < 2000 && creating.load() > 0; ++k) {
+    struct timespec pause {
+      0, 1'000'000
+    };
+    ::nanosleep(&pause, nullptr);
+  }
   for (temp_slot& slot : slots) {
     int active = 2;
     if (slot.state.compare_exchange_strong(active, 3)) ::unlink(slot.path);
@@ -192,10 +208,29 @@ atomic_file::atomic_file(std::string path) : path_(std::move(path)) {
   const std::filesystem::path dir = target.has_parent_path() ? target.parent_path() : ".";
   // Short, whatever the target's name: a name of up to 255 bytes must still be writable.
   std::string pattern = (dir / ".tiers-XXXXXX").string();
-  fd_ = ::mkstemp(pattern.data());
+  {
+    sigset_t fatal, old;
+    sigemptyset(&fatal);
+    for (int sig : {SIGINT, SIGTERM, SIGHUP})
+      sigaddset(&fatal, sig);
+    ::pthread_sigmask(SIG_BLOCK, &fatal, &old);
+    creating.fetch_add(1);
+    if (ending.load()) {  // the process is being ended by a signal: make nothing more
+      creating.fetch_sub(1);
+      for (;;)
+        ::pause();
+    }
+    fd_ = ::mkstemp(pattern.data());
+    const int why = errno;
+    if (fd_ >= 0) {
+      temp_path_ = pattern;
+      temp_slot_ = remember_temp(temp_path_);
+    }
+    creating.fetch_sub(1);
+    ::pthread_sigmask(SIG_SETMASK, &old, nullptr);
+    errno = why;
+  }
   if (fd_ < 0) fail("io.open", path_, "cannot create a temporary file in the output's folder");
-  temp_path_ = pattern;
-  temp_slot_ = remember_temp(temp_path_);
   ::fcntl(fd_, F_SETFD, FD_CLOEXEC);
   // mkstemp makes the file private; give it the mode a plainly created file would have, or
   // the replaced file's mode, owner and group (the owner only as root: others cannot give a

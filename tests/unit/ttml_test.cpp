@@ -234,3 +234,25 @@ TEST_CASE("ttml: styles, regions, agents and foreign attributes survive ttml -> 
   CHECK(p1.attributes.at("ttml:ex:mood") == "calm");
   CHECK(first.metadata.at("ttml:xmlns:ex") == "urn:example:extension");
 }
+
+TEST_CASE("ttml: characters XML forbids, raw or by reference, are located errors",
+          "[ttml][bad-input]") {
+  // XML 1.0 §2.2 production [2] Char and §4.1 "Legal Character": no NUL, no C0 control but
+  // tab, LF and CR, no surrogate, nothing beyond U+10FFFF — not even by a character reference.
+  for (const char* bad : {"c&#0;1", "c&#x1F;", "c&#xD800;", "c&#x110000;", "c&#1114112;"}) {
+    const std::string text =
+        tt("", std::string("<div><p xml:id=\"x\" begin=\"1s\" end=\"2s\">") + bad + "</p></div>");
+    const diagnostic d = first_error("ttml", text);
+    INFO(bad);
+    CHECK(d.code == "ttml.xml");
+    CHECK(d.offset == text.find(bad) + 1);  // at the '&'
+  }
+  CHECK(first_error("ttml", tt("", "<div><p begin=\"1s\" end=\"2s\">a\x01</p></div>")).code ==
+        "ttml.xml");
+  // Where '&#' is no reference (a comment, CDATA) it is text; a tab by reference is a character.
+  const document ok = read_as(
+      "ttml",
+      tt("", "<!-- &#0; --><div><p begin=\"1s\" end=\"2s\">a&#x9;b<![CDATA[&#0;]]></p></div>"));
+  REQUIRE(ok.tiers.size() == 1);
+  CHECK(ok.tiers[0].annotations[0].text.find("&#0;") != std::string::npos);
+}
