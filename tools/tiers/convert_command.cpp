@@ -4,8 +4,11 @@
 
 #include "batch.hpp"
 
+#include <sys/stat.h>
+
 #include <algorithm>
 #include <filesystem>
+#include <map>
 #include <memory>
 #include <numeric>
 #include <unordered_set>
@@ -95,6 +98,13 @@ int convert_many(const convert_options& o) {
   const format& to = format_named(o.to);
   if (!o.output.empty()) throw usage_error("convert: give either -o or -d, not both");
   std::vector<input_file> files = expand_inputs(o.inputs);
+  // Every input of the run (all shards'), by identity: an output must never replace one, or
+  // what its reader skipped or could not apply would be gone with the original.
+  std::map<std::pair<dev_t, ino_t>, std::string> inputs;
+  for (const input_file& f : files) {
+    struct stat st {};
+    if (::stat(f.path.c_str(), &st) == 0) inputs.emplace(std::pair{st.st_dev, st.st_ino}, f.path);
+  }
   if (!o.shard.empty()) {
     std::vector<std::string> paths;
     for (const input_file& f : files)
@@ -121,6 +131,13 @@ int convert_many(const convert_options& o) {
     if (outputs[i] == outputs[j])
       throw usage_error("convert -d: " + files[std::min(i, j)].path + " and " +
                         files[std::max(i, j)].path + " would both be written to " + outputs[i]);
+  }
+  for (const std::string& out : outputs) {
+    struct stat st {};
+    if (::stat(out.c_str(), &st) != 0) continue;
+    if (auto it = inputs.find({st.st_dev, st.st_ino}); it != inputs.end())
+      throw usage_error("convert -d: " + out + " would replace the input " + it->second +
+                        "; write to another folder (nothing was written)");
   }
   std::vector<char> failed(files.size(), 0);
   run_parallel(
