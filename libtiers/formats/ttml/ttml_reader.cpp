@@ -213,6 +213,7 @@ std::optional<forbidden> first_forbidden(std::string_view in) {
     std::snprintf(buf, sizeof buf, "U+%04X", c);
     return std::string(buf);
   };
+  // Raw characters, everywhere (comments and CDATA included).
   for (std::size_t k = 0; k < in.size(); ++k) {
     const auto u = static_cast<unsigned char>(in[k]);
     if (u < 0x20 && u != 0x9 && u != 0xA && u != 0xD)
@@ -222,10 +223,12 @@ std::optional<forbidden> first_forbidden(std::string_view in) {
          static_cast<unsigned char>(in[k + 2]) == 0xBF))
       return forbidden{k, "the noncharacter " + hex(0xFFFE + (in[k + 2] & 1)) +
                               ", which XML 1.0 does not allow"};
+  }
+  // Character references, outside the regions where '&#' is text.
+  for (std::size_t k = 0; k < in.size(); ++k) {
+    const auto u = static_cast<unsigned char>(in[k]);
     if (u != '<' && u != '&') continue;
     if (u == '<') {
-      // Regions where '&#' is not a reference: skip them whole (raw characters are still
-      // checked, by scanning them here).
       std::string_view close;
       if (in.substr(k, 4) == "<!--")
         close = "-->";
@@ -236,11 +239,6 @@ std::optional<forbidden> first_forbidden(std::string_view in) {
       if (close.empty()) continue;
       const std::size_t end = in.find(close, k + 2);
       const std::size_t stop = end == std::string_view::npos ? in.size() : end + close.size();
-      for (std::size_t j = k; j < stop; ++j) {
-        const auto v = static_cast<unsigned char>(in[j]);
-        if (v < 0x20 && v != 0x9 && v != 0xA && v != 0xD)
-          return forbidden{j, "the control character " + hex(v) + ", which XML 1.0 does not allow"};
-      }
       k = stop - 1;
       continue;
     }

@@ -86,10 +86,10 @@ std::optional<std::string> karaoke(const annotation& cue,
 // The cue's markup with its timestamp tags rewritten to `words`' times, when the markup spells
 // exactly those words (same texts, in order) and only its timestamps disagree with them — as
 // after the cue and its words were re-timed. Empty when that is not so.
+// `spelled` is timed_words(parsed, cue.start, cue.end), which the caller has at hand.
 std::optional<std::string> restamped(std::string_view markup, const cue_text& parsed,
-                                     const annotation& cue,
+                                     const std::vector<annotation>& spelled, const annotation& cue,
                                      const std::vector<const annotation*>& words) {
-  const std::vector<annotation> spelled = timed_words(parsed, cue.start, cue.end);
   if (spelled.size() != words.size() || parsed.stamps.empty()) return std::nullopt;
   for (std::size_t k = 0; k < words.size(); ++k)
     if (spelled[k].text != words[k]->text) return std::nullopt;
@@ -300,7 +300,7 @@ vtt_plan plan(const document& doc) {
     cue_text parsed = parse_cue_text(*a.markup);
     if (words && !parsed.stamps.empty()) {
       const std::vector<const annotation*> in = words_inside(a);
-      std::vector<annotation> spelled = timed_words(parsed, a.start, a.end);
+      const std::vector<annotation> spelled = timed_words(parsed, a.start, a.end);
       const bool agree =
           spelled.size() == in.size() && std::equal(spelled.begin(), spelled.end(), in.begin(),
                                                     [](const annotation& x, const annotation* y) {
@@ -308,7 +308,7 @@ vtt_plan plan(const document& doc) {
                                                              x.end == y->end && x.text == y->text;
                                                     });
       if (!agree)
-        if (auto again = restamped(*a.markup, parsed, a, in)) {
+        if (auto again = restamped(*a.markup, parsed, spelled, a, in)) {
           rewritten[k] = std::move(*again);
           parsed = parse_cue_text(rewritten[k]);
         }
