@@ -105,3 +105,40 @@ TEST_CASE("numbers with thousands of digits and times beyond range are refused q
   CHECK(read_document(doc, *find_format("json"), {}, "t.json").diagnostics.back().code ==
         "time.range");
 }
+
+// Sizes at which a pairwise comparison would run for many minutes (2.2 s at 30,000 columns,
+// growing with the square) and a sorted or hashed one takes well under a second: the test
+// times out if the work is quadratic again.
+TEST_CASE("a header of a million columns is checked for repeats in n log n", "[hostile]") {
+  std::string table;
+  for (int k = 0; k < 1'000'000; ++k)
+    table += "c" + std::to_string(k) + ",";
+  table += "start,c999999\n";
+  const read_result r = read_document(table, *find_format("csv"), {}, "wide.csv");
+  require_worded(r, table);
+  REQUIRE_FALSE(r.ok());
+  CHECK(r.diagnostics.back().code == "csv.header");
+  CHECK(r.diagnostics.back().message == "column 'c999999' appears twice");
+  CHECK(r.diagnostics.back().offset == table.size() - 8);
+}
+
+TEST_CASE("comparing files with 300,000 tiers each is n log n", "[hostile]") {
+  std::vector<file_report> reports(3);
+  for (std::size_t f = 0; f < reports.size(); ++f) {
+    reports[f].path = "f" + std::to_string(f) + ".json";
+    auto& shape = reports[f].shape.emplace();
+    for (int k = 0; k < 300'000; ++k)
+      shape.push_back({"t" + std::to_string(k),
+                       f == 2 && k == 7 ? tier_kind::instant : tier_kind::interval,
+                       std::nullopt,
+                       {}});
+  }
+  reports[1].shape->pop_back();  // the other two have it
+  check_dataset(reports, profile{});
+  REQUIRE(reports[0].problems.empty());
+  REQUIRE(reports[1].problems.size() == 1);
+  CHECK(reports[1].problems[0].diag.message == "no tier 't299999', which 2 of 3 files have");
+  REQUIRE(reports[2].problems.size() == 1);
+  CHECK(reports[2].problems[0].diag.message ==
+        "tier 't7' is an instant tier here, an interval tier in 2 of the 3 files that have it");
+}

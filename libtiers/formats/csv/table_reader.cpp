@@ -4,6 +4,7 @@
 #include <array>
 #include <charconv>
 #include <unordered_map>
+#include <unordered_set>
 
 #include "csv_format.hpp"
 #include "table_scanner.hpp"
@@ -90,10 +91,10 @@ class table_reader {
 
   bool read_header() {
     header_.clear();
+    std::unordered_set<std::string_view> names;  // a table may have thousands of columns
     for (const table_cell& c : cells_) {
-      for (std::size_t k = 0; k < header_.size(); ++k)
-        if (header_[k] == c.text)
-          return fail_at("csv.header", c.offset, "column " + quote_name(c.text) + " appears twice");
+      if (!names.emplace(c.text).second)
+        return fail_at("csv.header", c.offset, "column " + quote_name(c.text) + " appears twice");
       header_.emplace_back(c.text);
     }
     columns_.fill(absent);

@@ -114,8 +114,8 @@ void checker::check_profile() {
     const bool unsaid = !context_.instant_tiers && have.kind == tier_kind::interval && instants;
     if (spec.kind && *spec.kind != have.kind && !unsaid)
       emit("dataset.tier-kind", *t, no_index,
-           "tier " + quote_name(have.name) + " is a " + std::string(to_string(have.kind)) +
-               " tier; the profile says " + std::string(to_string(*spec.kind)));
+           "tier " + quote_name(have.name) + " is " + detail::kind_tier(have.kind) +
+               "; the profile says " + std::string(to_string(*spec.kind)));
     if (spec.parent && have.parent && *spec.parent != *have.parent)
       emit("dataset.tier-parent", *t, no_index,
            "tier " + quote_name(have.name) + " has parent " + quote_name(have.parent->tier) + " (" +

@@ -63,43 +63,48 @@ void check_dataset(std::span<file_report> reports, const profile& p) {
     std::map<tier_kind, std::size_t> kinds;
     std::map<std::string, std::size_t> vocabularies;
   };
-  std::map<std::string, seen> tiers;
+  std::map<std::string, seen, std::less<>> tiers;
+  // Each file's tiers by name, first of each name only (tier.duplicate-name reports the rest):
+  // a sorted index keeps this O(n log n) in the number of tiers.
+  const auto first_of_each = [](const std::vector<tier_shape>& shapes) {
+    std::map<std::string_view, const tier_shape*> out;
+    for (const tier_shape& t : shapes)
+      out.emplace(t.name, &t);
+    return out;
+  };
   for (const file_report& r : reports) {
     const auto& s = r.shape;
     if (!s) continue;
     ++files;
-    std::vector<std::string_view> names;
-    for (const tier_shape& t : *s) {
-      if (std::find(names.begin(), names.end(), t.name) != names.end()) continue;
-      names.push_back(t.name);
-      seen& x = tiers[t.name];
+    for (const auto& [name, t] : first_of_each(*s)) {
+      seen& x = tiers[std::string(name)];
       ++x.files;
-      ++x.kinds[t.kind];
-      ++x.vocabularies[vocabulary_key(t.vocabulary)];
+      ++x.kinds[t->kind];
+      ++x.vocabularies[vocabulary_key(t->vocabulary)];
     }
   }
+  std::vector<const decltype(tiers)::value_type*> common;  // what most files have
+  for (const auto& entry : tiers)
+    if (most(entry.second.files, files) && !p.find_tier(entry.first)) common.push_back(&entry);
   for (std::size_t k = 0; k < reports.size(); ++k) {
     if (!reports[k].shape) continue;
-    const std::vector<tier_shape>& mine = *reports[k].shape;
-    for (const auto& entry : tiers) {
-      const std::string& name = entry.first;
-      const seen& x = entry.second;
+    const auto mine = first_of_each(*reports[k].shape);
+    for (const auto* entry : common)
+      if (!mine.contains(entry->first))
+        add(reports[k], "", {}, sev,
+            "no tier " + quote_name(entry->first) + ", which " +
+                std::to_string(entry->second.files) + " of " + std::to_string(files) +
+                " files have");
+    for (const auto& [name_view, it] : mine) {
+      const std::string name(name_view);
       if (p.find_tier(name)) continue;  // the profile's own rules hold it to account
-      const auto it = std::find_if(mine.begin(), mine.end(),
-                                   [&](const tier_shape& t) { return t.name == name; });
-      if (it == mine.end()) {
-        if (most(x.files, files))
-          add(reports[k], "", {}, sev,
-              "no tier " + quote_name(name) + ", which " + std::to_string(x.files) + " of " +
-                  std::to_string(files) + " files have");
-        continue;
-      }
+      const seen& x = tiers.find(name_view)->second;
       for (const auto& [kind, n] : x.kinds)
         if (kind != it->kind && most(n, x.files))
           add(reports[k], name, it->where, sev,
-              "tier " + quote_name(name) + " is a " + std::string(to_string(it->kind)) +
-                  " tier here, a " + std::string(to_string(kind)) + " tier in " +
-                  std::to_string(n) + " of the " + std::to_string(x.files) + " files that have it");
+              "tier " + quote_name(name) + " is " + detail::kind_tier(it->kind) + " here, " +
+                  detail::kind_tier(kind) + " in " + std::to_string(n) + " of the " +
+                  std::to_string(x.files) + " files that have it");
       const std::string mine_key = vocabulary_key(it->vocabulary);
       for (const auto& [key, n] : x.vocabularies)
         if (key != mine_key && most(n, x.files))

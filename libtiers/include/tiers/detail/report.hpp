@@ -4,6 +4,7 @@
 #include <string>
 
 #include "tiers/diagnostic.hpp"
+#include "tiers/model.hpp"
 #include "tiers/time.hpp"
 
 namespace tiers::detail {
@@ -30,6 +31,11 @@ inline std::string quote_name(std::string_view name) {
   s += name;
   s += '\'';
   return s;
+}
+
+/// "an interval tier", "an instant tier": a tier kind with its article, for messages.
+inline std::string kind_tier(tier_kind kind) {
+  return std::string("an ") + std::string(to_string(kind)) + " tier";
 }
 
 /// "1 annotation", "3 annotations".
