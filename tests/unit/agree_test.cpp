@@ -88,7 +88,36 @@ TEST_CASE("frames take the label of the annotation over their middle", "[agree]"
   const framed_tiers f = frame_labels({&t}, {0, 40'000'000, 10'000'000});
   // Frame middles at 5, 15, 25, 35 ms: [4, 16) covers the first two; the point at 30 ms falls
   // in the fourth frame.
-  CHECK(f.frames[0] == std::vector<std::int32_t>{0, 0, -1, 1});
+  CHECK(f.frames == 4);
+  CHECK(f.runs[0] == std::vector<frame_run>{{0, 2, 0}, {3, 4, 1}});
+}
+
+TEST_CASE("a later start paints over an earlier one, splitting it", "[agree]") {
+  const tier t = tier_of({seg(0, 10, "a"), seg(2, 4, "b"), seg(3, 3, "p"), seg(8, 12, "c")});
+  const framed_tiers f = frame_labels({&t}, {0, 12 * ns_per_second, ns_per_second});
+  CHECK(f.runs[0] ==
+        std::vector<frame_run>{{0, 2, 0}, {2, 3, 1}, {3, 4, 2}, {4, 8, 0}, {8, 12, 3}});
+}
+
+TEST_CASE("agreement over a long span costs what the annotations cost", "[agree][hostile]") {
+  // Two annotations two million seconds apart: 2·10^8 frames of 10 ms, which a grid held in
+  // memory took 1.5 GB for; runs take a few.
+  const tier a = tier_of({seg(0, 1, "x"), seg(2'000'000, 2'000'001, "x")});
+  const tier b = tier_of({seg(0, 1, "x"), seg(2'000'000, 2'000'000.5, "y")});
+  const time_grid grid{0, 2'000'001 * ns_per_second, 10'000'000};
+  CHECK(grid.frames() == 200'000'100);
+  const frame_agreement f = compare_frames(a, b, grid);
+  REQUIRE(f.labels == std::vector<std::string>{"x", "y", "none"});
+  CHECK(f.confusion[0][0] == 100);  // the first second
+  CHECK(f.confusion[0][1] == 50);   // x judged y
+  CHECK(f.confusion[0][2] == 50);   // x judged none
+  CHECK(f.confusion[2][2] == 200'000'100 - 200);
+  const annotators_report r = compare_annotators({&a, &b}, grid);
+  CHECK(r.pairable == 150);
+  // Krippendorff's alpha by the coincidence formula (alpha.cpp): 100 units (x, x) and 50
+  // (x, y) give o_xx = 200, o_xy = o_yx = 50, n = 300, n_x = 250, n_y = 50, so
+  // alpha = 1 − 299 · 100 / (2 · 250 · 50) = −0.196.
+  CHECK(r.alpha == Approx(-0.196));
 }
 
 TEST_CASE("precision, recall and F1 over labelled frames, per label", "[agree]") {

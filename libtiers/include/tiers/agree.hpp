@@ -3,6 +3,7 @@
 // annotators (Krippendorff's alpha).
 #pragma once
 
+#include <algorithm>
 #include <cstddef>
 #include <cstdint>
 #include <optional>
@@ -19,17 +20,47 @@ struct time_grid {
   time_ns start = 0;
   time_ns end = 0;
   time_ns step = 10'000'000;  ///< 10 ms
-  std::size_t frames() const;
+  std::uint64_t frames() const;
 };
 
-/// The label of every frame of `grid` in each tier, as indices into `labels` (-1: no label).
-/// A frame takes the label of the annotation that covers its middle (of the one starting last,
-/// where several do); an instant annotation labels the frame it falls in.
+/// The label of every frame of `grid` in each tier, as indices into `labels` (-1: no label),
+/// kept as runs of frames with one label, so that memory and work follow the annotations, not
+/// the time they span. A frame takes the label of the annotation that covers its middle (of
+/// the one starting last, where several do); an instant annotation labels the frame it falls in.
+struct frame_run {
+  std::uint64_t from = 0, to = 0;  ///< frames [from, to)
+  std::int32_t label = -1;
+  friend bool operator==(const frame_run&, const frame_run&) = default;
+};
 struct framed_tiers {
   std::vector<std::string> labels;
-  std::vector<std::vector<std::int32_t>> frames;  ///< one per tier
+  std::uint64_t frames = 0;                  ///< on the grid
+  std::vector<std::vector<frame_run>> runs;  ///< one list per tier: labelled runs, in order
+  /// Calls `f(from, to, labels)` for each stretch of frames in which no tier's label changes,
+  /// in order, covering [0, frames); `labels` has one entry per tier.
+  template <class F>
+  void each_stretch(F&& f) const;
 };
 framed_tiers frame_labels(const std::vector<const tier*>& tiers, const time_grid& grid);
+
+template <class F>
+void framed_tiers::each_stretch(F&& f) const {
+  std::vector<std::size_t> next(runs.size(), 0);
+  std::vector<std::int32_t> now(runs.size(), -1);
+  for (std::uint64_t at = 0; at < frames;) {
+    std::uint64_t until = frames;
+    for (std::size_t t = 0; t < runs.size(); ++t) {
+      const std::vector<frame_run>& r = runs[t];
+      while (next[t] < r.size() && r[next[t]].to <= at)
+        ++next[t];
+      const bool inside = next[t] < r.size() && r[next[t]].from <= at;
+      now[t] = inside ? r[next[t]].label : -1;
+      if (next[t] < r.size()) until = std::min(until, inside ? r[next[t]].to : r[next[t]].from);
+    }
+    f(at, until, static_cast<const std::vector<std::int32_t>&>(now));
+    at = until;
+  }
+}
 
 /// Per-label scores of a candidate against a reference, frame by frame.
 struct label_scores {
@@ -97,6 +128,9 @@ segment_agreement compare_segments(const tier& reference, const tier& candidate,
 enum class alpha_metric : std::uint8_t { nominal, interval };
 double krippendorff_alpha(const std::vector<std::vector<std::optional<double>>>& units,
                           alpha_metric metric);
+/// The same with unit u counted `weights[u]` times (a stretch of identical frames, say).
+double krippendorff_alpha(const std::vector<std::vector<std::optional<double>>>& units,
+                          const std::vector<std::uint64_t>& weights, alpha_metric metric);
 
 /// Where a compared tier comes from, for reports.
 struct tier_origin {
@@ -120,7 +154,7 @@ struct annotators_report {
   std::string file;
   std::vector<std::string> tiers;
   time_grid grid;
-  std::size_t pairable = 0;  ///< frames with two values or more
+  std::uint64_t pairable = 0;  ///< frames with two values or more
   double alpha = 0;
   std::optional<double> alpha_interval;  ///< when every label is a number
   struct pair {

@@ -11,6 +11,11 @@ namespace tiers {
 
 double krippendorff_alpha(const std::vector<std::vector<std::optional<double>>>& units,
                           alpha_metric metric) {
+  return krippendorff_alpha(units, std::vector<std::uint64_t>(units.size(), 1), metric);
+}
+
+double krippendorff_alpha(const std::vector<std::vector<std::optional<double>>>& units,
+                          const std::vector<std::uint64_t>& weights, alpha_metric metric) {
   // The distinct values, and the coincidences o_ck: every ordered pair of values within a
   // unit of m values counts 1/(m − 1).
   std::map<double, std::size_t> index;
@@ -24,7 +29,9 @@ double krippendorff_alpha(const std::vector<std::vector<std::optional<double>>>&
   }
   const std::size_t n_values = values.size();
   std::vector<double> o(n_values * n_values, 0.0);
-  for (const auto& u : units) {
+  for (std::size_t k = 0; k < units.size(); ++k) {
+    const auto& u = units[k];
+    const double weight = static_cast<double>(weights[k]);
     std::vector<std::size_t> present;
     for (const auto& v : u)
       if (v) present.push_back(index.at(*v));
@@ -32,7 +39,7 @@ double krippendorff_alpha(const std::vector<std::vector<std::optional<double>>>&
     if (m < 2) continue;
     for (std::size_t i = 0; i < m; ++i)
       for (std::size_t j = 0; j < m; ++j)
-        if (i != j) o[present[i] * n_values + present[j]] += 1.0 / static_cast<double>(m - 1);
+        if (i != j) o[present[i] * n_values + present[j]] += weight / static_cast<double>(m - 1);
   }
   std::vector<double> n_c(n_values, 0.0);
   double n = 0;

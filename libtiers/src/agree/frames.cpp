@@ -3,10 +3,12 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <map>
 #include <numeric>
 #include <unordered_map>
 
 #include "tiers/agree.hpp"
+#include "tiers/detail/exact.hpp"
 
 namespace tiers {
 namespace {
@@ -22,47 +24,88 @@ double harmonic(double p, double r) {
   return p + r == 0 ? 0 : 2 * p * r / (p + r);
 }
 
-// The first k whose value 2·(k·step) + step, twice the frame's middle, is at least `twice`.
-std::int64_t first_frame_from(time_ns twice, time_ns step) {
-  const time_ns n = twice - step;  // want 2·k·step ≥ n
-  const time_ns d = 2 * step;
+// The first k whose value 2·(k·step) + step, twice the frame's middle, is at least `twice`
+// (wide arithmetic: twice a time may not fit in 64 bits).
+detail::i128 first_frame_from(detail::i128 twice, time_ns step) {
+  const detail::i128 n = twice - step;  // want 2·k·step ≥ n
+  const detail::i128 d = 2 * static_cast<detail::i128>(step);
   return n <= 0 ? -((-n) / d) : (n + d - 1) / d;
 }
 
+// Labels painted over runs of frames, a later painting over an earlier one; each painting
+// splits at most two runs and removes those it covers, so n paintings cost O(n log n).
+class run_painter {
+ public:
+  void paint(std::uint64_t from, std::uint64_t to, std::int32_t label) {
+    auto it = runs_.upper_bound(from);
+    if (it != runs_.begin() && std::prev(it)->second.to > from) --it;
+    std::vector<frame_run> kept;  // the parts of covered runs outside [from, to)
+    while (it != runs_.end() && it->first < to) {
+      const frame_run r = it->second;
+      if (r.from < from) kept.push_back({r.from, from, r.label});
+      if (r.to > to) kept.push_back({to, r.to, r.label});
+      it = runs_.erase(it);
+    }
+    for (const frame_run& r : kept)
+      runs_.emplace(r.from, r);
+    runs_.emplace(from, frame_run{from, to, label});
+  }
+  // In order, neighbours with one label joined.
+  std::vector<frame_run> runs() const {
+    std::vector<frame_run> out;
+    for (const auto& [from, r] : runs_)
+      if (!out.empty() && out.back().to == r.from && out.back().label == r.label)
+        out.back().to = r.to;
+      else
+        out.push_back(r);
+    return out;
+  }
+
+ private:
+  std::map<std::uint64_t, frame_run> runs_;
+};
+
 }  // namespace
 
-std::size_t time_grid::frames() const {
+std::uint64_t time_grid::frames() const {
   if (step <= 0 || end <= start) return 0;
-  return static_cast<std::size_t>((end - start + step - 1) / step);
+  const detail::i128 span = static_cast<detail::i128>(end) - start;
+  return static_cast<std::uint64_t>((span + step - 1) / step);
 }
 
 framed_tiers frame_labels(const std::vector<const tier*>& tiers, const time_grid& grid) {
   framed_tiers out;
+  out.frames = grid.frames();
   std::unordered_map<std::string, std::int32_t> index;
-  const auto n = static_cast<std::int64_t>(grid.frames());
+  const auto n = static_cast<detail::i128>(out.frames);
   for (const tier* t : tiers) {
-    std::vector<std::int32_t>& frames = out.frames.emplace_back(static_cast<std::size_t>(n), -1);
     std::vector<const annotation*> order;
     for (const annotation& a : t->annotations)
       order.push_back(&a);
     std::stable_sort(order.begin(), order.end(),
                      [](const annotation* a, const annotation* b) { return a->start < b->start; });
+    run_painter painter;
     for (const annotation* a : order) {
       auto [it, added] = index.try_emplace(a->text, static_cast<std::int32_t>(out.labels.size()));
       if (added) out.labels.push_back(a->text);
-      std::int64_t from = 0, to = 0;  // frames [from, to)
+      detail::i128 from = 0, to = 0;  // frames [from, to)
+      const detail::i128 since = static_cast<detail::i128>(a->start) - grid.start;
       if (a->end == a->start) {
-        if (a->start < grid.start) continue;
-        from = (a->start - grid.start) / grid.step;
+        if (since < 0) continue;
+        from = since / grid.step;
         to = from + 1;
       } else {
         // Frames whose middle lies in [start, end): compare twice the times, exactly.
-        from = first_frame_from(2 * (a->start - grid.start), grid.step);
-        to = first_frame_from(2 * (a->end - grid.start), grid.step);
+        from = first_frame_from(2 * since, grid.step);
+        to = first_frame_from(2 * (static_cast<detail::i128>(a->end) - grid.start), grid.step);
       }
-      for (std::int64_t k = std::max<std::int64_t>(from, 0); k < std::min(to, n); ++k)
-        frames[static_cast<std::size_t>(k)] = it->second;  // a later start wins
+      from = std::max<detail::i128>(from, 0);
+      to = std::min(to, n);
+      if (from < to)
+        painter.paint(static_cast<std::uint64_t>(from), static_cast<std::uint64_t>(to),
+                      it->second);  // a later start wins
     }
+    out.runs.push_back(painter.runs());
   }
   return out;
 }
@@ -96,11 +139,10 @@ frame_agreement compare_frames(const tier& reference, const tier& candidate,
   out.labels = f.labels;
   out.labels.push_back("none");
   out.confusion.assign(none + 1, std::vector<std::uint64_t>(none + 1, 0));
-  for (std::size_t k = 0; k < f.frames[0].size(); ++k) {
-    const std::int32_t r = f.frames[0][k], c = f.frames[1][k];
-    ++out.confusion[r < 0 ? none : static_cast<std::size_t>(r)]
-                   [c < 0 ? none : static_cast<std::size_t>(c)];
-  }
+  f.each_stretch([&](std::uint64_t from, std::uint64_t to, const std::vector<std::int32_t>& l) {
+    out.confusion[l[0] < 0 ? none : static_cast<std::size_t>(l[0])]
+                 [l[1] < 0 ? none : static_cast<std::size_t>(l[1])] += to - from;
+  });
   std::uint64_t total = 0, same = 0, ref_labelled = 0, cand_labelled = 0, agreed = 0;
   std::vector<std::uint64_t> rows(none + 1, 0), cols(none + 1, 0);
   for (std::size_t i = 0; i <= none; ++i)

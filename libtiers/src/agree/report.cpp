@@ -34,22 +34,25 @@ annotators_report compare_annotators(const std::vector<const tier*>& tiers, cons
     numeric[k] = std::strtod(f.labels[k].c_str(), &end);
     all_numeric = all_numeric && !f.labels[k].empty() && *end == '\0' && std::isfinite(numeric[k]);
   }
-  std::vector<std::vector<std::optional<double>>> nominal(grid.frames()), interval(grid.frames());
-  for (std::size_t u = 0; u < grid.frames(); ++u) {
+  // One unit per stretch of frames that no coder's label changes in, weighted by its length.
+  std::vector<std::vector<std::optional<double>>> nominal, interval;
+  std::vector<std::uint64_t> weights;
+  f.each_stretch([&](std::uint64_t from, std::uint64_t to, const std::vector<std::int32_t>& l) {
     std::size_t values = 0;
-    for (const auto& coder : f.frames) {
-      const std::int32_t v = coder[u];
+    auto& n = nominal.emplace_back();
+    auto& i = interval.emplace_back();
+    for (const std::int32_t v : l) {
       const bool given = v >= 0;
-      nominal[u].push_back(given ? std::optional<double>(v) : std::nullopt);
-      interval[u].push_back(given && all_numeric
-                                ? std::optional<double>(numeric[static_cast<std::size_t>(v)])
-                                : std::nullopt);
+      n.push_back(given ? std::optional<double>(v) : std::nullopt);
+      i.push_back(given && all_numeric ? std::optional<double>(numeric[static_cast<std::size_t>(v)])
+                                       : std::nullopt);
       values += given;
     }
-    r.pairable += values >= 2;
-  }
-  r.alpha = krippendorff_alpha(nominal, alpha_metric::nominal);
-  if (all_numeric) r.alpha_interval = krippendorff_alpha(interval, alpha_metric::interval);
+    weights.push_back(to - from);
+    if (values >= 2) r.pairable += to - from;
+  });
+  r.alpha = krippendorff_alpha(nominal, weights, alpha_metric::nominal);
+  if (all_numeric) r.alpha_interval = krippendorff_alpha(interval, weights, alpha_metric::interval);
   for (std::size_t i = 0; i < tiers.size(); ++i)
     for (std::size_t j = i + 1; j < tiers.size(); ++j)
       r.pairwise.push_back(

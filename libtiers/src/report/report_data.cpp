@@ -2,8 +2,10 @@
 #include "report/report_data.hpp"
 
 #include <algorithm>
+#include <limits>
 #include <numeric>
 
+#include "tiers/detail/exact.hpp"
 #include "tiers/detail/json_text.hpp"
 
 namespace tiers::detail {
@@ -170,6 +172,12 @@ void write_file(byte_sink& out, const report_file& f, const agreement_view* agre
   out.put('}');
 }
 
+// Where frame k starts; the last frame may run past the grid's end, so past the model's range.
+time_ns frame_start(const time_grid& grid, std::uint64_t k) {
+  const i128 at = grid.start + static_cast<i128>(k) * grid.step;
+  return static_cast<time_ns>(std::min(at, time_max));
+}
+
 }  // namespace
 
 agreement_view compare_for_report(const document& doc, const tier& reference, const tier& candidate,
@@ -185,22 +193,22 @@ agreement_view compare_for_report(const document& doc, const tier& reference, co
   agreement_view view;
   view.figures = compare_tiers(reference, candidate, grid, options.matching);
   const framed_tiers framed = frame_labels({&reference, &candidate}, grid);
-  const std::vector<std::int32_t>& ref = framed.frames[0];
-  const std::vector<std::int32_t>& cand = framed.frames[1];
   using verdict = agreement_view::verdict;
-  for (std::size_t k = 0; k < ref.size(); ++k) {
-    if (ref[k] < 0 && cand[k] < 0) continue;
-    const verdict what = ref[k] < 0          ? verdict::only_candidate
-                         : cand[k] < 0       ? verdict::only_reference
-                         : ref[k] == cand[k] ? verdict::agree
-                                             : verdict::differ;
-    const time_ns start = grid.start + static_cast<time_ns>(k) * grid.step;
-    if (!view.stretches.empty() && view.stretches.back().what == what &&
-        view.stretches.back().end == start)
-      view.stretches.back().end = start + grid.step;
-    else
-      view.stretches.push_back({start, start + grid.step, what});
-  }
+  framed.each_stretch(
+      [&](std::uint64_t from, std::uint64_t to, const std::vector<std::int32_t>& l) {
+        const std::int32_t ref = l[0], cand = l[1];
+        if (ref < 0 && cand < 0) return;
+        const verdict what = ref < 0       ? verdict::only_candidate
+                             : cand < 0    ? verdict::only_reference
+                             : ref == cand ? verdict::agree
+                                           : verdict::differ;
+        const time_ns start = frame_start(grid, from), end = frame_start(grid, to);
+        if (!view.stretches.empty() && view.stretches.back().what == what &&
+            view.stretches.back().end == start)
+          view.stretches.back().end = end;
+        else
+          view.stretches.push_back({start, end, what});
+      });
   return view;
 }
 
