@@ -100,18 +100,21 @@ TEST_CASE("a later start paints over an earlier one, splitting it", "[agree]") {
 }
 
 TEST_CASE("agreement over a long span costs what the annotations cost", "[agree][hostile]") {
-  // Two annotations two million seconds apart: 2·10^8 frames of 10 ms, which a grid held in
-  // memory took 1.5 GB for; runs take a few.
-  const tier a = tier_of({seg(0, 1, "x"), seg(2'000'000, 2'000'001, "x")});
-  const tier b = tier_of({seg(0, 1, "x"), seg(2'000'000, 2'000'000.5, "y")});
-  const time_grid grid{0, 2'000'001 * ns_per_second, 10'000'000};
-  CHECK(grid.frames() == 200'000'100);
+  // Two annotations nine billion seconds apart (near the end of the range of times): 9·10^11
+  // frames of 10 ms, which a grid held in memory could not be allocated for (3.6 TB); runs
+  // take a few bytes. (At two million seconds apart, the grid took 1.5 GB.)
+  constexpr double far = 9e9;
+  const tier a = tier_of({seg(0, 1, "x"), seg(far, far + 1, "x")});
+  const tier b = tier_of({seg(0, 1, "x"), seg(far, far + 0.5, "y")});
+  const time_grid grid{0, a.annotations[1].end, 10'000'000};
+  constexpr std::uint64_t frames = 900'000'000'100;
+  CHECK(grid.frames() == frames);
   const frame_agreement f = compare_frames(a, b, grid);
   REQUIRE(f.labels == std::vector<std::string>{"x", "y", "none"});
   CHECK(f.confusion[0][0] == 100);  // the first second
   CHECK(f.confusion[0][1] == 50);   // x judged y
   CHECK(f.confusion[0][2] == 50);   // x judged none
-  CHECK(f.confusion[2][2] == 200'000'100 - 200);
+  CHECK(f.confusion[2][2] == frames - 200);
   const annotators_report r = compare_annotators({&a, &b}, grid);
   CHECK(r.pairable == 150);
   // Krippendorff's alpha by the coincidence formula (alpha.cpp): 100 units (x, x) and 50
@@ -173,4 +176,15 @@ TEST_CASE("segment matching by collar, by overlap, and by label", "[agree]") {
   by_overlap.same_label = false;
   s = compare_segments(ref, cand, by_overlap);
   CHECK(s.matches.size() == 3);
+}
+
+TEST_CASE("segments spanning most of the range of times compare without wrapping", "[agree]") {
+  // Their length (1.8·10^19 ns) is more than a time holds: lengths, overlaps and windows are
+  // held at the range's ends instead of wrapping to negative values.
+  const tier a = tier_of({seg(-9e9, 9e9, "x")});
+  const tier b = tier_of({seg(-9e9, 9e9, "x")});
+  segment_options by_overlap;
+  by_overlap.by = segment_options::criterion::overlap;
+  CHECK(compare_segments(a, b, by_overlap).matches.size() == 1);
+  CHECK(compare_segments(a, b).matches.size() == 1);
 }

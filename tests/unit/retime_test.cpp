@@ -1,5 +1,6 @@
 // Re-timing captions: cues onto their words, neighbours' shifts, the caption rules after.
 #include <catch2/catch.hpp>
+#include <limits>
 
 #include "tiers/retime.hpp"
 
@@ -118,4 +119,26 @@ TEST_CASE("on a millisecond grid, minimums round up and word times to the neares
   CHECK(f.captions.annotations[0].start % (40 * ms) == 0);
   CHECK(f.captions.annotations[0].end % (40 * ms) == 0);
   CHECK(f.captions.annotations[0].end - f.captions.annotations[0].start == 840 * ms);
+}
+
+TEST_CASE("a cue whose new times would lie beyond the range keeps its times, said", "[retime]") {
+  // Words near the largest time there is, and a hold that pushes the cue's end past it: the
+  // sum wrapped to a negative end before retime worked in 128 bits.
+  constexpr time_ns top = std::numeric_limits<time_ns>::max();
+  tier words, cues;
+  words.annotations.push_back(ann(top - 2000 * ms, top - 1500 * ms, "hello"));
+  words.annotations.push_back(ann(top - 1000 * ms, top - 400 * ms, "there"));
+  cues.annotations.push_back(ann(top - 2500 * ms, top - 2000 * ms, "hello there"));
+  retime_options o;
+  o.hold = 2000 * ms;
+  const retime_result r = retime_captions(cues, words, o);
+  REQUIRE(r.moves.size() == 1);
+  CHECK(r.captions.annotations[0].start == top - 2500 * ms);
+  CHECK(r.captions.annotations[0].end == top - 2000 * ms);
+  CHECK(r.moves[0].how == cue_move::basis::unchanged);
+  CHECK_THAT(r.moves[0].unfixed, Catch::Contains("time.range"));
+  // Without the hold, the same cue moves onto its words.
+  const retime_result fits = retime_captions(cues, words);
+  CHECK(fits.moves[0].how == cue_move::basis::words);
+  CHECK(fits.captions.annotations[0].end == top - 400 * ms);
 }

@@ -256,3 +256,19 @@ TEST_CASE("ttml: characters XML forbids, raw or by reference, are located errors
   REQUIRE(ok.tiers.size() == 1);
   CHECK(ok.tiers[0].annotations[0].text.find("&#0;") != std::string::npos);
 }
+
+TEST_CASE("ttml: offsets that add up beyond the range of times are time.range", "[ttml]") {
+  // Each begin (5·10^9 s) is in range; their sum along the containers is not, and wrapped to
+  // a negative time before the sums were checked.
+  const diagnostic nested = first_error(
+      "ttml",
+      tt("", R"(<div begin="5000000000s"><p begin="5000000000s" end="5000000001s">x</p></div>)"));
+  CHECK(nested.code == "time.range");
+  CHECK(nested.line == 2);
+  // In a seq container, each child begins where the one before ended.
+  const diagnostic seq = first_error(
+      "ttml",
+      tt("",
+         R"(<div timeContainer="seq"><p dur="5000000000s">a</p><p dur="5000000000s">b</p></div>)"));
+  CHECK(seq.code == "time.range");
+}

@@ -10,6 +10,7 @@
 #include <sstream>
 #include <vector>
 
+#include "tiers/detail/exact.hpp"
 #include "tiers/detail/positions.hpp"
 #include "tiers/detail/report.hpp"
 #include "ttml_format.hpp"
@@ -105,6 +106,17 @@ class ttml_reader {
       bad_time_ = true;
     }
     return t;
+  }
+
+  // Offsets add up along the containers (and a seq's children one after another): each sum is
+  // checked, and one beyond the model's range is time.range, not a wrapped, negative time.
+  time_ns sum(time_ns a, time_ns b, const pugi::xml_node& n) {
+    if (const auto t = add_times(a, b)) return *t;
+    if (!bad_time_)
+      fail(at(n), "time.range",
+           "this element's time, added to the times of the elements it lies in, is out of range");
+    bad_time_ = true;
+    return a;
   }
 
   // XML and its namespaces allow an attribute once per element (Namespaces in XML 1.0 §6.3:
@@ -448,9 +460,9 @@ span ttml_reader::resolve(const pugi::xml_node& n, time_ns sync, std::optional<t
   const auto b = time_attr(n, "begin");
   const auto e = time_attr(n, "end");
   const auto d = time_attr(n, "dur");
-  span s{sync + b.value_or(0), std::nullopt};
-  if (e) s.end = sync + *e;
-  if (d) s.end = s.end ? std::min(*s.end, s.begin + *d) : s.begin + *d;
+  span s{sum(sync, b.value_or(0), n), std::nullopt};
+  if (e) s.end = sum(sync, *e, n);
+  if (d) s.end = s.end ? std::min(*s.end, sum(s.begin, *d, n)) : sum(s.begin, *d, n);
   if (!s.end) {
     if (std::string_view(n.attribute("timeContainer").value()) == "seq") {
       time_ns last = s.begin;

@@ -8,6 +8,7 @@
 #include <numeric>
 
 #include "tiers/agree.hpp"
+#include "tiers/detail/exact.hpp"
 #include "tiers/lag.hpp"
 
 namespace tiers {
@@ -136,28 +137,33 @@ segment_agreement compare_segments(const tier& reference, const tier& candidate,
   time_ns longest = 0;
   for (std::size_t c : order) {
     starts.push_back(cs[c].start);
-    longest = std::max(longest, cs[c].end - cs[c].start);
+    longest = std::max(longest, detail::saturating_difference(cs[c].end, cs[c].start));
   }
   std::vector<edge_candidate> edges;
   const bool by_overlap = options.by == segment_options::criterion::overlap;
   for (std::size_t r = 0; r < rs.size(); ++r) {
     const annotation& a = rs[r];
-    const time_ns from = by_overlap ? a.start - longest : a.start - options.collar;
-    const time_ns to = by_overlap ? a.end : a.start + options.collar;
+    // A search window: its ends are held at the range's ends, never kept as times.
+    const time_ns from =
+        detail::saturating_difference(a.start, by_overlap ? longest : options.collar);
+    const time_ns to = by_overlap ? a.end : detail::saturating_add(a.start, options.collar);
     for (auto it = std::lower_bound(starts.begin(), starts.end(), from);
          it != starts.end() && *it <= to; ++it) {
       const std::size_t c = order[static_cast<std::size_t>(it - starts.begin())];
       const annotation& b = cs[c];
       if (options.same_label && a.text != b.text) continue;
       if (by_overlap) {
-        const time_ns inter = std::min(a.end, b.end) - std::max(a.start, b.start);
-        const time_ns uni = std::max(a.end, b.end) - std::min(a.start, b.start);
+        const time_ns inter =
+            detail::saturating_difference(std::min(a.end, b.end), std::max(a.start, b.start));
+        const time_ns uni =
+            detail::saturating_difference(std::max(a.end, b.end), std::min(a.start, b.start));
         if (inter <= 0 || uni <= 0) continue;
         const double iou = static_cast<double>(inter) / static_cast<double>(uni);
         if (iou < options.min_overlap) continue;
         edges.push_back({r, c, std::llround((1 - iou) * 1e9)});
       } else {
-        const time_ns on = std::abs(b.start - a.start), off = std::abs(b.end - a.end);
+        const time_ns on = std::abs(detail::saturating_difference(b.start, a.start)),
+                      off = std::abs(detail::saturating_difference(b.end, a.end));
         if (on > options.collar || off > options.collar) continue;
         edges.push_back({r, c, on + off});
       }
@@ -191,7 +197,8 @@ segment_agreement compare_segments(const tier& reference, const tier& candidate,
     for (const auto& [r, c] : m.solve()) {
       const annotation& a = rs[refs[r]];
       const annotation& b = cs[cands[c]];
-      out.matches.push_back({refs[r], cands[c], b.start - a.start, b.end - a.end});
+      out.matches.push_back({refs[r], cands[c], detail::saturating_difference(b.start, a.start),
+                             detail::saturating_difference(b.end, a.end)});
     }
   }
   std::sort(

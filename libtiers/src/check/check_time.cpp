@@ -5,6 +5,7 @@
 #include <unordered_map>
 
 #include "checker.hpp"
+#include "tiers/detail/exact.hpp"
 #include "tiers/detail/report.hpp"
 
 namespace tiers::detail {
@@ -118,12 +119,13 @@ void checker::check_tier_spans(std::size_t t) {
         emit("tier.overlap", t, a,
              "overlaps the annotation " + (there.empty() ? "" : "at " + there + " ") + "(" +
                  clock(r.start) + " to " + clock(r.end) + ") by " +
-                 seconds(std::min(r.end, as[a].end) - as[a].start));
+                 seconds(detail::saturating_difference(std::min(r.end, as[a].end), as[a].start)));
       } else if (gaps && as[a].start > r.end) {
-        if (problem* p =
-                emit("tier.gap", t, a,
-                     "leaves a gap of " + seconds(as[a].start - r.end) + " (" + clock(r.end) +
-                         " to " + clock(as[a].start) + ") in a tier that must be contiguous")) {
+        if (problem* p = emit("tier.gap", t, a,
+                              "leaves a gap of " +
+                                  seconds(detail::saturating_difference(as[a].start, r.end)) +
+                                  " (" + clock(r.end) + " to " + clock(as[a].start) +
+                                  ") in a tier that must be contiguous")) {
           p->start = r.end;
           p->end = as[a].start;
         }

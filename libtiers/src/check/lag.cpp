@@ -8,10 +8,13 @@
 #include <string>
 #include <unordered_map>
 
+#include "tiers/detail/exact.hpp"
 #include "tiers/text.hpp"
 
 namespace tiers {
 namespace {
+
+using detail::saturating_add;
 
 // Tokens become small integers, so that the inner loop compares numbers, not strings.
 class interner {
@@ -46,12 +49,6 @@ std::vector<token> tokens_of(const tier& t, const std::vector<std::size_t>& orde
     for (std::string& w : word_tokens(t.annotations[k].text))
       out.push_back({ids(std::move(w)), k});
   return out;
-}
-
-time_ns saturating_add(time_ns a, time_ns b) {
-  time_ns r = 0;
-  if (__builtin_add_overflow(a, b, &r)) return b > 0 ? INT64_MAX : INT64_MIN;
-  return r;
 }
 
 }  // namespace
@@ -173,7 +170,8 @@ time_ns quantile(std::vector<time_ns>& values, double q) {
   const std::size_t hi = std::min(lo + 1, values.size() - 1);
   const double frac = rank - static_cast<double>(lo);
   // The difference fits a double exactly enough: it is rounded to the nanosecond once.
-  const double step = static_cast<double>(values[hi] - values[lo]) * frac;
+  const double step =
+      static_cast<double>(static_cast<detail::i128>(values[hi]) - values[lo]) * frac;
   return values[lo] + static_cast<time_ns>(std::llround(step));
 }
 

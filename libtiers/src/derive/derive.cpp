@@ -5,6 +5,7 @@
 #include <cstdio>
 
 #include "tiers/derive.hpp"
+#include "tiers/detail/exact.hpp"
 
 namespace tiers {
 namespace {
@@ -69,7 +70,8 @@ document derive_tiers(const signal& s, const derive_options& options) {
         bool missing = false;
         for (std::size_t k = p.last + 1; k <= x.first; ++k)
           missing = missing || s.after_gap[k];
-        if (!missing && s.times[x.first] - s.ends[p.last] < options.bridge) {
+        if (!missing &&
+            detail::saturating_difference(s.times[x.first], s.ends[p.last]) < options.bridge) {
           joined.back().last = x.last;
           continue;
         }
@@ -89,7 +91,7 @@ document derive_tiers(const signal& s, const derive_options& options) {
       annotation a;
       a.start = s.times[x.first];
       a.end = s.ends[x.last];
-      if (a.end - a.start < options.min_duration) continue;
+      if (detail::saturating_difference(a.end, a.start) < options.min_duration) continue;
       double sum = 0, best = 0;
       for (std::size_t k = x.first; k <= x.last; ++k) {
         sum += raw[k];

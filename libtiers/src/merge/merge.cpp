@@ -5,6 +5,7 @@
 #include <map>
 #include <set>
 
+#include "tiers/detail/exact.hpp"
 #include "tiers/detail/report.hpp"
 #include "tiers/lag.hpp"
 #include "tiers/merge.hpp"
@@ -258,12 +259,14 @@ std::optional<offset_estimate> estimate_offset(const tier& moving, const tier& r
   auto differences = [&](bool by_label) {
     std::vector<time_ns> d;
     for (const annotation& a : moving.annotations) {
-      auto lo = std::lower_bound(refs.begin(), refs.end(), a.start - max_offset,
+      auto lo = std::lower_bound(refs.begin(), refs.end(),
+                                 detail::saturating_difference(a.start, max_offset),
                                  [](const annotation* r, time_ns t) { return r->start < t; });
       std::optional<time_ns> best;
-      for (auto it = lo; it != refs.end() && (*it)->start <= a.start + max_offset; ++it)
+      for (auto it = lo;
+           it != refs.end() && (*it)->start <= detail::saturating_add(a.start, max_offset); ++it)
         if (!by_label || (*it)->text == a.text) {
-          const time_ns diff = (*it)->start - a.start;
+          const time_ns diff = detail::saturating_difference((*it)->start, a.start);
           if (!best || std::abs(diff) < std::abs(*best)) best = diff;
         }
       if (best) d.push_back(*best);

@@ -12,6 +12,26 @@ __extension__ typedef __int128 i128;  // products of frame counts and rates need
 
 inline constexpr i128 time_max = std::numeric_limits<time_ns>::max();
 
+/// a + b, or nothing when the sum lies beyond what time_ns holds (a reader reports time.range).
+inline std::optional<time_ns> add_times(time_ns a, time_ns b) {
+  time_ns r = 0;
+  if (__builtin_add_overflow(a, b, &r)) return std::nullopt;
+  return r;
+}
+
+/// a + b, held at the range's ends: for bounds of a search window, never for a time kept.
+inline time_ns saturating_add(time_ns a, time_ns b) {
+  return add_times(a, b).value_or(b > 0 ? std::numeric_limits<time_ns>::max()
+                                        : std::numeric_limits<time_ns>::min());
+}
+
+/// a − b, held within ±time_max (so that its std::abs is defined): two times far apart differ
+/// by more than time_ns holds.
+inline time_ns saturating_difference(time_ns a, time_ns b) {
+  const i128 d = static_cast<i128>(a) - b;
+  return static_cast<time_ns>(d > time_max ? time_max : d < -time_max ? -time_max : d);
+}
+
 /// n / d rounded to the nearest integer, ties away from zero; d > 0.
 constexpr i128 round_div(i128 n, i128 d) {
   return n >= 0 ? (n + d / 2) / d : -((-n + d / 2) / d);
@@ -34,8 +54,8 @@ constexpr i128 ceil_div(i128 n, i128 d) {
 enum class rounding : unsigned char { nearest, down, up };
 
 /// `t` counted in steps of 1/`rate` seconds (frames, milliseconds), rounded as asked.
-constexpr i128 to_steps(time_ns t, rational rate, rounding how = rounding::nearest) {
-  const i128 n = static_cast<i128>(t) * rate.num, d = static_cast<i128>(rate.den) * ns_per_second;
+constexpr i128 to_steps(i128 t, rational rate, rounding how = rounding::nearest) {
+  const i128 n = t * rate.num, d = static_cast<i128>(rate.den) * ns_per_second;
   return how == rounding::nearest ? round_div(n, d)
          : how == rounding::down  ? floor_div(n, d)
                                   : ceil_div(n, d);
