@@ -272,3 +272,63 @@ TEST_CASE("ttml: offsets that add up beyond the range of times are time.range", 
          R"(<div timeContainer="seq"><p dur="5000000000s">a</p><p dur="5000000000s">b</p></div>)"));
   CHECK(seq.code == "time.range");
 }
+
+TEST_CASE("ttml writer: every value is escaped or listed lost; XML never repeats an attribute",
+          "[ttml][writer]") {
+  // Each of these made a document that was not well-formed XML, or changed a value silently.
+  document doc;
+  doc.metadata = {{"ttml:tt:tts:extent", "1\x01px"},
+                  {"ttml:tt:ttp:frameRate", "25"},
+                  {"ttml:tt:bad name", "x"},
+                  {"ttml:xmlns:ttm", "http://example.org/other"}};
+  tier& t = doc.tiers.emplace_back();
+  t.name = "captions";
+  t.attributes = {{"ttml:begin", "5s"}, {"ttml:style", "s1"}};
+  auto cue = [](time_ns start, std::string text, attribute_map attributes) {
+    annotation a;
+    a.start = start * ns_per_second;
+    a.end = a.start + ns_per_second;
+    a.text = std::move(text);
+    a.attributes = std::move(attributes);
+    return a;
+  };
+  t.annotations = {
+      cue(0, "control in the speaker", {{"speaker", "Ann\x07"}}),
+      cue(2, "a begin of its own", {{"ttml:begin", "7s"}, {"ttml:end", "9s"}}),
+      cue(4, "an agent naming someone else", {{"speaker", "Ann"}, {"ttml:ttm:agent", "bo"}}),
+      cue(6, "white space around the speaker", {{"speaker", " Cy "}}),
+      cue(8, "an attribute in an undeclared namespace", {{"ttml:foo:bar", "1"}}),
+      cue(10, "kept", {{"speaker", "Di"}, {"ttml:tts:color", "red"}}),
+  };
+  const std::vector<std::string> losses = find_losses(doc, *find_format("ttml"));
+  const auto lost = [&](std::string_view what) {
+    return std::any_of(losses.begin(), losses.end(),
+                       [&](const std::string& l) { return l.starts_with(what); });
+  };
+  CHECK(lost("document metadata 'ttml:tt:tts:extent'"));
+  CHECK(lost("document metadata 'ttml:tt:ttp:frameRate'"));
+  CHECK(lost("document metadata 'ttml:tt:bad name'"));
+  CHECK(lost("document metadata 'ttml:xmlns:ttm'"));
+  CHECK(lost("the attribute 'ttml:begin' of tier 'captions'"));
+  CHECK(lost("ttml: attributes the writer cannot write, or writes itself (2 annotations)"));
+  CHECK(lost("speakers other than the one the annotation's own ttm:agent names (1 annotation)"));
+  CHECK(
+      lost("speakers with characters XML cannot hold or white space a name loses (2 annotations)"));
+  const std::string text = write_as("ttml", doc);
+  CHECK(text.find('\x01') == std::string::npos);
+  CHECK(text.find('\x07') == std::string::npos);
+  CHECK(text.find("begin=\"7s\"") == std::string::npos);
+  read_options o;
+  const read_result back = read_document(text, *find_format("ttml"), o, "back.ttml");
+  INFO(text);
+  REQUIRE(back.ok());
+  const tier& r = back.doc.tiers.at(0);
+  CHECK(r.attributes.at("ttml:style") == "s1");
+  CHECK(r.attributes.count("ttml:begin") == 0);
+  REQUIRE(r.annotations.size() == 6);
+  CHECK(r.annotations[1].start == 2 * ns_per_second);        // its own times, not the attribute's
+  CHECK(r.annotations[2].attributes.at("speaker") == "bo");  // what the agent names, as said
+  CHECK(r.annotations[0].attributes.count("speaker") == 0);
+  CHECK(r.annotations[5].attributes.at("speaker") == "Di");
+  CHECK(r.annotations[5].attributes.at("ttml:tts:color") == "red");
+}

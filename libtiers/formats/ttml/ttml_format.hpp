@@ -2,6 +2,7 @@
 // child word tier (docs/formats/ttml.md).
 #pragma once
 
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -27,6 +28,18 @@ inline constexpr std::string_view speakers_block = "tiers-speakers";
 /// Text with runs of XML white space collapsed to one space and none around line breaks or at
 /// the ends, as xml:space="default" presents it.
 std::string collapse_space(std::string_view text);
+
+/// A character XML 1.0 does not allow (§2.2, production [2] Char), and where.
+struct forbidden {
+  std::size_t offset;
+  std::string message;
+};
+/// The first such character: raw (a C0 control but tab, LF and CR; U+FFFE; U+FFFF) anywhere,
+/// and with `references`, by a character reference outside comments, CDATA sections and
+/// processing instructions (markup; a plain value has its '&' escaped instead).
+std::optional<forbidden> first_forbidden(std::string_view in, bool references = true);
+/// The next id of an IDREFS value (white-space separated), taken off `refs`; empty at the end.
+std::string_view next_idref(std::string_view& refs);
 }  // namespace ttml
 
 }  // namespace tiers::detail

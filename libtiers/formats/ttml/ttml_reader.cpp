@@ -31,15 +31,6 @@ std::string_view local_name(std::string_view qname) {
 }
 
 // Takes the next id off an IDREFS value (ids between XML white space); empty when none is left.
-std::string_view next_idref(std::string_view& refs) {
-  const std::size_t from = std::min(refs.find_first_not_of(" \t\n\r"), refs.size());
-  refs.remove_prefix(from);
-  const std::size_t to = std::min(refs.find_first_of(" \t\n\r"), refs.size());
-  const std::string_view id = refs.substr(0, to);
-  refs.remove_prefix(to);
-  return id;
-}
-
 std::string inner_xml(const pugi::xml_node& node) {
   std::ostringstream out;
   for (pugi::xml_node child : node.children())
@@ -200,85 +191,6 @@ class ttml_reader {
   std::map<std::size_t, std::vector<std::size_t>> word_offsets_;  // and where they are
   position_recorder positions_;
 };
-
-namespace {
-
-// XML 1.0 §2.2, production [2] Char: what a document may hold, raw or by reference.
-bool xml_char(std::uint32_t c) {
-  return c == 0x9 || c == 0xA || c == 0xD || (c >= 0x20 && c <= 0xD7FF) ||
-         (c >= 0xE000 && c <= 0xFFFD) || (c >= 0x10000 && c <= 0x10FFFF);
-}
-
-struct forbidden {
-  std::size_t offset;
-  std::string message;
-};
-
-// The first character XML does not allow: raw (a C0 control, U+FFFE, U+FFFF) anywhere, or by
-// a character reference (§4.1 [66], well-formedness constraint "Legal Character") outside
-// comments, CDATA sections and processing instructions, where `&#` is plain text. pugixml
-// would decode `&#0;` into a NUL that ends every string it is in: everything after it in a
-// text, id or tier name would be lost without a word.
-std::optional<forbidden> first_forbidden(std::string_view in) {
-  auto hex = [](std::uint32_t c) {
-    char buf[16];
-    std::snprintf(buf, sizeof buf, "U+%04X", c);
-    return std::string(buf);
-  };
-  // Raw characters, everywhere (comments and CDATA included).
-  for (std::size_t k = 0; k < in.size(); ++k) {
-    const auto u = static_cast<unsigned char>(in[k]);
-    if (u < 0x20 && u != 0x9 && u != 0xA && u != 0xD)
-      return forbidden{k, "the control character " + hex(u) + ", which XML 1.0 does not allow"};
-    if (u == 0xEF && k + 2 < in.size() && static_cast<unsigned char>(in[k + 1]) == 0xBF &&
-        (static_cast<unsigned char>(in[k + 2]) == 0xBE ||
-         static_cast<unsigned char>(in[k + 2]) == 0xBF))
-      return forbidden{k, "the noncharacter " + hex(0xFFFE + (in[k + 2] & 1)) +
-                              ", which XML 1.0 does not allow"};
-  }
-  // Character references, outside the regions where '&#' is text.
-  for (std::size_t k = 0; k < in.size(); ++k) {
-    const auto u = static_cast<unsigned char>(in[k]);
-    if (u != '<' && u != '&') continue;
-    if (u == '<') {
-      std::string_view close;
-      if (in.substr(k, 4) == "<!--")
-        close = "-->";
-      else if (in.substr(k, 9) == "<![CDATA[")
-        close = "]]>";
-      else if (in.substr(k, 2) == "<?")
-        close = "?>";
-      if (close.empty()) continue;
-      const std::size_t end = in.find(close, k + 2);
-      const std::size_t stop = end == std::string_view::npos ? in.size() : end + close.size();
-      k = stop - 1;
-      continue;
-    }
-    if (in.substr(k, 2) != "&#") continue;
-    const bool is_hex = k + 2 < in.size() && in[k + 2] == 'x';
-    std::size_t j = k + (is_hex ? 3 : 2);
-    std::uint64_t c = 0;
-    std::size_t digits = 0;
-    for (; j < in.size() && digits < 12; ++j, ++digits) {
-      const char d = in[j];
-      int v = -1;
-      if (d >= '0' && d <= '9') v = d - '0';
-      if (is_hex && d >= 'a' && d <= 'f') v = d - 'a' + 10;
-      if (is_hex && d >= 'A' && d <= 'F') v = d - 'A' + 10;
-      if (v < 0) break;
-      c = c * (is_hex ? 16 : 10) + static_cast<std::uint64_t>(v);
-    }
-    if (j >= in.size() || in[j] != ';' || digits == 0) continue;  // pugixml reports the syntax
-    if (c > 0x10FFFF || !xml_char(static_cast<std::uint32_t>(c)))
-      return forbidden{
-          k, "the character reference '" + std::string(in.substr(k, j + 1 - k)) + "' names " +
-                 (c > 0x10FFFF ? std::string("no character") : hex(static_cast<std::uint32_t>(c))) +
-                 ", which XML 1.0 does not allow (§2.2)"};
-  }
-  return std::nullopt;
-}
-
-}  // namespace
 
 void ttml_reader::run() {
   // pugixml holds the whole tree in memory, a few times the input: refuse what would not fit.

@@ -31,11 +31,29 @@ bool is_ncname(std::string_view s) {
   return true;
 }
 
-// Characters XML 1.0 cannot hold (C0 controls other than tab, LF and CR).
+// Characters XML 1.0 cannot hold (C0 controls other than tab, LF and CR; U+FFFE, U+FFFF):
+// the same rule the reader refuses them by.
 bool xml_safe(std::string_view s) {
-  for (char c : s)
-    if (static_cast<unsigned char>(c) < 0x20 && c != '\t' && c != '\n' && c != '\r') return false;
-  return true;
+  return !first_forbidden(s, false);
+}
+
+// An attribute name the writer can write: an NCName, or PREFIX:NCName with a prefix the
+// document declares (`declared`: the TTML prefixes, xml, and the source's own declarations).
+bool writable_name(std::string_view name, const std::set<std::string, std::less<>>& declared) {
+  const std::size_t colon = name.find(':');
+  if (colon == std::string_view::npos) return is_ncname(name);
+  const std::string_view prefix = name.substr(0, colon), local = name.substr(colon + 1);
+  return is_ncname(prefix) && is_ncname(local) && declared.count(prefix) != 0;
+}
+
+// What the writer writes itself on each element: a kept attribute of the same name would be a
+// second one (not well-formed XML) or would change the times and white space the writer gives.
+bool own_attribute(std::string_view element, std::string_view name) {
+  if (element == "tt")
+    return name == "xml:lang" || name == "xmlns" || name.starts_with("xmlns:") ||
+           name.starts_with("ttp:");
+  if (name == "xml:id" || name == "begin" || name == "end" || name == "dur") return true;
+  return element == "div" ? name == "timeContainer" : name == "xml:space";
 }
 
 // Text content needs `&`, `<`, `>` escaped; attribute values also quotes and the white
@@ -96,6 +114,39 @@ std::optional<std::string> fragment_text(std::string_view markup, const std::str
   return collapse_space(text);
 }
 
+// The agents a kept head defines (id -> name), as the reader finds them: an agent's name is
+// its ttm:name, white space collapsed, else its id.
+std::map<std::string, std::string, std::less<>> head_agents(const std::string& head,
+                                                            const std::string& declarations) {
+  std::map<std::string, std::string, std::less<>> out;
+  if (head.empty()) return out;
+  const std::string wrapped = "<head xmlns=\"" + std::string(ns_tt) + "\" xmlns:ttm=\"" +
+                              std::string(ns_ttm) + "\"" + declarations + ">" + head + "</head>";
+  pugi::xml_document doc;
+  if (!doc.load_buffer(wrapped.data(), wrapped.size(), pugi::parse_default | pugi::parse_ws_pcdata,
+                       pugi::encoding_utf8))
+    return out;
+  for (pugi::xpath_node x : doc.select_nodes("//*")) {
+    const pugi::xml_node n = x.node();
+    const std::string id = n.attribute("xml:id").value();
+    if (std::string_view(n.name()) != "ttm:agent" || id.empty()) continue;
+    std::string name = id;
+    for (pugi::xml_node c : n.children())
+      if (std::string_view(c.name()) == "ttm:name") name = collapse_space(c.text().get());
+    out[id] = name;
+  }
+  return out;
+}
+
+// The speaker the reader takes from a p's ttm:agent: its first id's agent's name, else the id.
+std::optional<std::string> agent_speaker(
+    std::string_view refs, const std::map<std::string, std::string, std::less<>>& agents) {
+  const std::string_view first = next_idref(refs);
+  if (first.empty()) return std::nullopt;
+  const auto it = agents.find(first);
+  return it == agents.end() ? std::string(first) : it->second;
+}
+
 struct plan {
   std::string lang = "und";
   std::string declarations;  // extra xmlns from the source document
@@ -110,24 +161,58 @@ struct plan {
   // tier names written; the others are reported lost and written without one.
   std::set<const annotation*> written_ids;
   std::set<std::size_t> named_tiers;
+  // Kept ttml: attributes (of tt, a div, a p) written back; the others are listed lost.
+  std::set<std::pair<const void*, std::string>> written_attributes;
+  std::set<const annotation*> written_speakers;  // speakers written as agents of their own
 };
 
 plan make_plan(const document& doc) {
   plan p;
   auto problem = [&](const std::string& what) { ++p.counted[what]; };
+  std::set<std::string, std::less<>> declared{"tts", "ttm", "ttp", "xml"};
+  for (const auto& [k, v] : doc.metadata)
+    if (k.starts_with("ttml:xmlns:")) {
+      const std::string prefix = k.substr(11);
+      if (is_ncname(prefix) && !declared.count(prefix) && prefix != "xmlns" && xml_safe(v) &&
+          v != ns_tt && v != ns_tts && v != ns_ttm && v != ns_ttp) {
+        std::string a = " xmlns:" + prefix + "=\"";
+        escape(a, v, true);
+        p.declarations += a + "\"";
+        declared.insert(prefix);
+      } else {
+        p.problems.push_back("document metadata " + quote_name(k) +
+                             " (not a namespace declaration the writer can add)");
+      }
+    }
+  // A kept attribute is written when its name is one XML allows here, the writer does not
+  // write it itself, and its value is text XML can hold.
+  auto keep = [&](const void* owner, std::string_view element, const std::string& key,
+                  const std::string& value) {
+    const std::string_view name = std::string_view(key).substr(key.find(':') + 1);
+    if (!writable_name(name, declared) || own_attribute(element, name) || !xml_safe(value))
+      return false;
+    p.written_attributes.emplace(owner, key);
+    return true;
+  };
   for (const auto& [k, v] : doc.metadata) {
     if (k == "ttml:lang") {
-      p.lang = v;
-    } else if (k.rfind("ttml:xmlns:", 0) == 0) {
-      std::string a = " " + k.substr(5) + "=\"";
-      escape(a, v, true);
-      p.declarations += a + "\"";
-    } else if (k.rfind("ttml:tt:", 0) == 0) {
-      std::string a = " " + k.substr(8) + "=\"";
-      escape(a, v, true);
-      p.tt_attributes += a + "\"";
+      if (xml_safe(v))
+        p.lang = v;
+      else
+        p.problems.push_back("the document's language (characters XML cannot hold)");
+    } else if (k.starts_with("ttml:xmlns:")) {
+      continue;
+    } else if (k.starts_with("ttml:tt:")) {
+      if (keep(&doc, "tt", k.substr(5), v)) {
+        std::string a = " " + k.substr(8) + "=\"";
+        escape(a, v, true);
+        p.tt_attributes += a + "\"";
+      } else {
+        p.problems.push_back("document metadata " + quote_name(k) +
+                             " (an attribute of tt the writer cannot write, or writes itself)");
+      }
     } else if (k == "ttml:head") {
-      if (fragment_text(v, p.declarations))
+      if (!first_forbidden(v) && fragment_text(v, p.declarations))
         p.head = v;
       else
         p.problems.push_back("the TTML head (not well-formed XML)");
@@ -136,6 +221,7 @@ plan make_plan(const document& doc) {
                            " (not a TTML head, language or attribute)");
     }
   }
+  const auto agents = head_agents(p.head, p.declarations);
   // A word tier that the timed spans in its parent's markup already yield is not written
   // again: reading the parent alone, as the reader would, must give exactly these words.
   for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
@@ -174,6 +260,10 @@ plan make_plan(const document& doc) {
     if (t.annotations.empty())
       p.problems.push_back("empty tier " + quote_name(t.name) +
                            " (a div without p is not read back)");
+    for (const auto& [key, value] : t.attributes)
+      if (key.starts_with("ttml:") && !keep(&t, "div", key, value))
+        p.problems.push_back("the attribute " + quote_name(key) + " of tier " + quote_name(t.name) +
+                             " (a name the writer cannot write, or writes itself)");
   }
   for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
     const tier& t = doc.tiers[k];
@@ -189,18 +279,32 @@ plan make_plan(const document& doc) {
       if (!xml_safe(a.text) || a.text.find('\r') != std::string::npos)
         problem("text with characters XML cannot hold");
       if (a.markup) {
-        const auto text = fragment_text(*a.markup, p.declarations);
+        const auto text =
+            first_forbidden(*a.markup) ? std::nullopt : fragment_text(*a.markup, p.declarations);
         if (text && *text == a.text)
           p.usable_markup.insert(&a);
         else
           problem("markup that is not TTML content spelling the text");
       }
+      bool unkept = false;
       for (const auto& [key, value] : a.attributes)
-        if (key.rfind("ttml:", 0) == 0 && (key.size() == 5 || !xml_safe(value)))
-          problem("malformed ttml: attributes");
-      if (auto s = a.attributes.find("speaker");
-          s != a.attributes.end() && !a.attributes.count("ttml:ttm:agent"))
-        p.agent_ids.emplace(s->second, "");
+        if (key.starts_with("ttml:") && !keep(&a, "p", key, value)) unkept = true;
+      if (unkept) problem("ttml: attributes the writer cannot write, or writes itself");
+      const auto speaker = a.attributes.find("speaker");
+      if (speaker == a.attributes.end()) continue;
+      const auto own = a.attributes.find("ttml:ttm:agent");
+      if (own != a.attributes.end() && p.written_attributes.count({&a, own->first})) {
+        // The p's own agent names the speaker when read back: it must name this one.
+        if (agent_speaker(own->second, agents) != speaker->second)
+          problem("speakers other than the one the annotation's own ttm:agent names");
+      } else if (!xml_safe(speaker->second) || collapse_space(speaker->second) != speaker->second ||
+                 speaker->second.empty()) {
+        // An agent's name is read with its white space collapsed.
+        problem("speakers with characters XML cannot hold or white space a name loses");
+      } else {
+        p.agent_ids.emplace(speaker->second, "");
+        p.written_speakers.insert(&a);
+      }
     }
   }
   // Agents for speakers get ids no element or agent reference of the document uses already:
@@ -233,6 +337,17 @@ plan make_plan(const document& doc) {
   return p;
 }
 
+// The kept ttml: attributes of a div or p that the plan writes.
+void write_kept(std::string& out, const void* owner, const attribute_map& attributes,
+                const plan& p) {
+  for (const auto& [key, value] : attributes) {
+    if (!p.written_attributes.count({owner, key})) continue;
+    out += " " + key.substr(5) + "=\"";
+    escape(out, value, true);
+    out += '"';
+  }
+}
+
 void write_annotation(std::string& out, const annotation& a, const std::optional<rational>& rate,
                       const plan& p) {
   out += "      <p";
@@ -243,18 +358,11 @@ void write_annotation(std::string& out, const annotation& a, const std::optional
   }
   out += " begin=\"" + time_text(std::max<time_ns>(a.start, 0), rate) + "\" end=\"" +
          time_text(std::max<time_ns>(a.end, 0), rate) + "\"";
-  for (const auto& [key, value] : a.attributes) {
-    if (key.rfind("ttml:", 0) != 0) continue;
-    out += " " + key.substr(5) + "=\"";
-    escape(out, value, true);
-    out += '"';
-  }
-  if (auto s = a.attributes.find("speaker");
-      s != a.attributes.end() && !a.attributes.count("ttml:ttm:agent"))
-    out += " ttm:agent=\"" + p.agent_ids.at(s->second) + "\"";
+  write_kept(out, &a, a.attributes, p);
+  if (p.written_speakers.count(&a))
+    out += " ttm:agent=\"" + p.agent_ids.at(a.attributes.at("speaker")) + "\"";
   const bool markup = p.usable_markup.count(&a) != 0;
-  if (!markup && collapse_space(a.text) != a.text && !a.attributes.count("ttml:xml:space"))
-    out += " xml:space=\"preserve\"";
+  if (!markup && collapse_space(a.text) != a.text) out += " xml:space=\"preserve\"";
   out += '>';
   if (markup) {
     out += *a.markup;
@@ -315,12 +423,7 @@ void write_ttml(const document& doc, byte_sink& out, const write_options&) {
       escape(s, t.name, true);
       s += '"';
     }
-    for (const auto& [key, value] : t.attributes) {
-      if (key.rfind("ttml:", 0) != 0) continue;
-      s += " " + key.substr(5) + "=\"";
-      escape(s, value, true);
-      s += '"';
-    }
+    write_kept(s, &t, t.attributes, p);
     s += ">\n";
     for (const annotation& a : t.annotations)
       write_annotation(s, a, rate, p);
