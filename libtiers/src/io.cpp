@@ -15,6 +15,7 @@
 #include <filesystem>
 #include <optional>
 
+#include "tiers/detail/utf8.hpp"
 #include "tiers/diagnostic.hpp"
 
 namespace tiers {
@@ -120,6 +121,14 @@ void write_all(int fd, const char* data, std::size_t size, const std::string& na
 }
 
 }  // namespace
+
+std::string name_from_path(std::string_view path, bool* repaired) {
+  const std::string stem = std::filesystem::path(path).stem().string();
+  std::size_t replaced = 0;
+  std::string name = detail::repair_utf8(stem, replaced);
+  if (repaired) *repaired = replaced > 0;
+  return name;
+}
 
 std::string read_input(const std::string& path) {
   std::string content;

@@ -4,6 +4,7 @@
 #include <functional>
 
 #include "tiers/detail/report.hpp"
+#include "tiers/detail/utf8.hpp"
 #include "tiers/format.hpp"
 
 namespace tiers {
@@ -230,6 +231,7 @@ std::vector<std::string> find_losses(const document& doc, const format& fmt) {
     if (!fmt.carries.has(f)) feature_losses(doc, fmt, f, out);
   }
   if (fmt.extra_losses) fmt.extra_losses(doc, out);
+  if (!detail::document_is_utf8(doc)) out.push_back("bytes that are not UTF-8 (written as U+FFFD)");
   return out;
 }
 

@@ -40,21 +40,32 @@ constexpr feature_set table_features{feature::several_tiers, feature::markup,
 constexpr feature_set vtt_features{feature::empty_tiers, feature::markup, feature::ids,
                                    feature::inline_words};
 
+// Every writer is given valid UTF-8: a document holding other bytes (made by a program, not a
+// reader) is written with U+FFFD in their place, which find_losses lists.
+template <void (*write)(const document&, byte_sink&, const write_options&)>
+void utf8_only(const document& doc, byte_sink& out, const write_options& options) {
+  if (detail::document_is_utf8(doc))
+    write(doc, out, options);
+  else
+    write(detail::with_utf8_repaired(doc), out, options);
+}
+
 // To add a format: write libtiers/formats/<name>/, then add one row here (see DEVELOPERS.md).
 const std::array<format, 6> registry{{
     {"json", "tiers native JSON (lossless)", json_extensions, feature_set::all(),
-     detail::sniff_json, detail::read_json, detail::write_json, nullptr},
+     detail::sniff_json, detail::read_json, utf8_only<detail::write_json>, nullptr},
     {"csv", "comma-separated values, one row per annotation (RFC 4180)", csv_extensions,
-     table_features, detail::sniff_csv, detail::read_csv, detail::write_csv, detail::table_losses},
+     table_features, detail::sniff_csv, detail::read_csv, utf8_only<detail::write_csv>,
+     detail::table_losses},
     {"tsv", "tab-separated values, one row per annotation", tsv_extensions, table_features,
-     detail::sniff_tsv, detail::read_tsv, detail::write_tsv, detail::table_losses},
+     detail::sniff_tsv, detail::read_tsv, utf8_only<detail::write_tsv>, detail::table_losses},
     {"vtt",
      "W3C WebVTT captions",
      vtt_extensions,
      vtt_features,
      detail::sniff_vtt,
      detail::read_vtt,
-     detail::write_vtt,
+     utf8_only<detail::write_vtt>,
      detail::vtt_losses,
      "vtt:",
      vtt_keys,
@@ -62,9 +73,9 @@ const std::array<format, 6> registry{{
      {1000, 1}},
     {"tiers", "tiers plain text: one annotation per line (lossless)", tiers_extensions,
      feature_set::all(), detail::sniff_tiers_text, detail::read_tiers_text,
-     detail::write_tiers_text, nullptr},
+     utf8_only<detail::write_tiers_text>, nullptr},
     {"ttml", "W3C TTML2, IMSC 1.1 Text Profile", ttml_extensions, ttml_features, detail::sniff_ttml,
-     detail::read_ttml, detail::write_ttml, detail::ttml_losses, "ttml:", ttml_keys},
+     detail::read_ttml, utf8_only<detail::write_ttml>, detail::ttml_losses, "ttml:", ttml_keys},
 }};
 
 bool ends_with_ignoring_case(std::string_view s, std::string_view suffix) {

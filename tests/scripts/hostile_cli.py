@@ -15,8 +15,10 @@
 
 Usage: hostile_cli.py TIERS SAMPLES_DIR WORK_DIR
 """
+import json
 import os
 import random
+import shutil
 import re
 import signal
 import subprocess
@@ -165,6 +167,7 @@ def main():
             os.remove(os.path.join(work, leftover))  # SIGKILL cannot be caught: documented
 
     parallel_interrupt(tiers, work, big)
+    file_names_not_utf8(tiers, work, samples)
     print(f"{len(failures)} failures")
     return 1 if failures else 0
 
@@ -227,6 +230,33 @@ def parallel_interrupt(tiers, work, big):
     check("with umask 027, every folder made is 0750 and every file 0640",
           r.returncode == 0 and modes == {("dir", 0o750), ("file", 0o640)},
           f"(status {r.returncode}, modes {sorted((k, oct(m)) for k, m in modes)})")
+
+
+def file_names_not_utf8(tiers, work, samples):
+    """A file system's names may hold any bytes; what tiers writes is UTF-8 all the same."""
+    folder = os.path.join(work, "names").encode()
+    shutil.rmtree(folder, ignore_errors=True)
+    os.makedirs(folder)
+    path = os.path.join(folder, b"caf\xe9.vtt")  # Latin-1, not UTF-8
+    shutil.copy(os.path.join(samples, "panel-discussion.vtt"), path)
+    r = subprocess.run([tiers.encode(), b"convert", path, b"--to", b"json"], capture_output=True)
+    try:
+        names = [t["name"] for t in json.loads(r.stdout.decode("utf-8"))["tiers"]]
+    except (UnicodeDecodeError, ValueError) as e:
+        names = [f"not UTF-8 JSON: {e}"]
+    check("a tier named after a file name that is not UTF-8 is named with U+FFFD, and said",
+          r.returncode == 0 and names[0] == "caf\ufffd" and b"[input.name]" in r.stderr,
+          f"(status {r.returncode}, names {names[:2]})")
+    for fmt in ("json", "sarif"):
+        r = subprocess.run([tiers.encode(), b"check", folder, b"--format", fmt.encode()],
+                           capture_output=True)
+        try:
+            json.loads(r.stdout.decode("utf-8"))
+            ok = True
+        except (UnicodeDecodeError, ValueError):
+            ok = False
+        check(f"check --format {fmt} of a file whose name is not UTF-8 writes UTF-8 JSON", ok,
+              f"(status {r.returncode})")
 
 
 if __name__ == "__main__":

@@ -1,9 +1,11 @@
 // Hostile input, in process: every sample cut at every byte, random bytes, and the resource
 // limits. A reader may refuse, but never crash or hang, and says what and where.
+#include <algorithm>
 #include <catch2/catch.hpp>
 #include <random>
 
 #include "support.hpp"
+#include "tiers/detail/utf8.hpp"
 
 using namespace tiers;
 
@@ -141,4 +143,28 @@ TEST_CASE("comparing files with 300,000 tiers each is n log n", "[hostile]") {
   REQUIRE(reports[2].problems.size() == 1);
   CHECK(reports[2].problems[0].diag.message ==
         "tier 't7' is an instant tier here, an interval tier in 2 of the 3 files that have it");
+}
+
+TEST_CASE("no writer writes bytes that are not UTF-8; the loss is listed", "[hostile]") {
+  // A program (not a reader: readers refuse or repair such input) may hand any bytes over.
+  document doc;
+  tier& t = doc.tiers.emplace_back();
+  t.name = "caf\xe9";
+  annotation a;
+  a.start = 0;
+  a.end = ns_per_second;
+  a.text = "lone \xed\xa0\x80 surrogate, cut \xe2\x82";
+  a.id = "c\xff";
+  a.attributes = {{"speaker", "Zo\xeb"}};
+  t.annotations = {a};
+  doc.metadata = {{"note\xc0", "overlong \xc0\xaf"}};
+  for (const format& f : formats()) {
+    INFO(f.name);
+    const std::vector<std::string> losses = find_losses(doc, f);
+    CHECK(std::find(losses.begin(), losses.end(), "bytes that are not UTF-8 (written as U+FFFD)") !=
+          losses.end());
+    const std::string written = test::write_as(f.name, doc);
+    CHECK(detail::find_invalid_utf8(written) == std::string::npos);
+    CHECK(written.find("\xef\xbf\xbd") != std::string::npos);  // U+FFFD where the bytes were
+  }
 }

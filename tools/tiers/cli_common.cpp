@@ -10,6 +10,7 @@
 #include <numeric>
 
 #include "tiers/detail/report.hpp"
+#include "tiers/detail/utf8.hpp"
 #include "tiers/io.hpp"
 
 namespace tiers::cli {
@@ -186,10 +187,23 @@ read_options reading_options(const input_options& in, const std::string& path) {
   options.unit = in.time_unit == "ms"       ? time_unit::milliseconds
                  : in.time_unit == "frames" ? time_unit::frames
                                             : time_unit::seconds;
-  if (!in.tier_name.empty())
+  if (!in.tier_name.empty()) {
+    if (detail::find_invalid_utf8(in.tier_name) != std::string::npos)
+      throw usage_error("--tier-name: the name is not UTF-8");
     options.tier_name = in.tier_name;
-  else if (path != "-")
-    options.tier_name = std::filesystem::path(path).stem().string();
+  } else if (path != "-") {
+    bool repaired = false;
+    options.tier_name = name_from_path(path, &repaired);
+    if (repaired) {
+      diagnostic d;
+      d.file = display_name(path);
+      d.level = severity::warning;
+      d.code = "input.name";
+      d.message = "the file's name is not UTF-8: its tier is named " +
+                  detail::quote_name(options.tier_name) + ", with U+FFFD for what is not";
+      report(d);
+    }
+  }
   if (!in.from.empty()) format_named(in.from);  // a usage error before any input is read
   return options;
 }
@@ -212,7 +226,7 @@ void write_output(const document& doc, const format& to, const std::string& outp
   // loses a name only when it came from content, not when reading gave it (given_name).
   if (!to.carries.has(feature::several_tiers) && !doc.tiers.empty() && !output.empty() &&
       output != "-") {
-    const std::string stem = std::filesystem::path(output).stem().string();
+    const std::string stem = name_from_path(output);
     const std::string& name = doc.tiers.front().name;
     if (name != stem && (given_name.empty() || name != given_name))
       losses.push_back("the tier name " + detail::quote_name(doc.tiers.front().name) + " (a " +

@@ -84,9 +84,8 @@ void convert_one(const convert_options& o, const input_options& in, const format
   keep_tiers(doc, o.tiers, file);
   std::vector<std::string> losses;
   if (o.voices) {
-    const std::string name = output.empty() || output == "-"
-                                 ? std::string("voices")
-                                 : std::filesystem::path(output).stem().string();
+    const std::string name =
+        output.empty() || output == "-" ? std::string("voices") : name_from_path(output);
     doc = join_as_voices(doc, name, losses);
   }
   write_output(doc, to, output, o.allow_loss, file, std::move(losses), given_name);

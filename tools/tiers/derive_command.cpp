@@ -74,7 +74,7 @@ int run_derive(const derive_options_cli& o) {
   d.min_duration = parse_duration_option("--min-duration", o.min_duration);
   d.max_confidence = o.confidence == "max";
   d.source.agent = o.agent.empty() && o.path != "-"
-                       ? std::filesystem::path(o.path).stem().string()
+                       ? name_from_path(o.path)
                        : (o.agent.empty() ? std::string("detector") : o.agent);
   if (!o.agent_version.empty()) d.source.version = o.agent_version;
 

@@ -3,9 +3,18 @@
 
 #include <fmt/format.h>
 
+#include "tiers/detail/utf8.hpp"
+
 namespace tiers::detail {
 
 void write_json_string(byte_sink& out, std::string_view s) {
+  // JSON text is UTF-8 (RFC 8259 §8.1): a string that is not (a file name, say) is written with
+  // U+FFFD in place of what is not, never as bytes a JSON reader refuses.
+  if (find_invalid_utf8(s) != std::string_view::npos) {
+    std::size_t replaced = 0;
+    const std::string fixed = repair_utf8(s, replaced);
+    return write_json_string(out, fixed);
+  }
   static constexpr char hex[] = "0123456789abcdef";
   out.put('"');
   std::size_t run = 0;  // start of the pending run of bytes that need no escape

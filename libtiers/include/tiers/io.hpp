@@ -11,6 +11,11 @@ namespace tiers {
 /// The whole content of `path`; `-` reads standard input. Throws tiers::error.
 std::string read_input(const std::string& path);
 
+/// The name a file gives the tier it holds: its stem (`talk.words.vtt` → `talk.words`), as
+/// UTF-8. A file system's names may hold any bytes; those that are not UTF-8 become U+FFFD and
+/// `repaired`, when given, is set, so that the caller can say so.
+std::string name_from_path(std::string_view path, bool* repaired = nullptr);
+
 /// Writes a file atomically: bytes go to a temporary file beside the target, which replaces the
 /// target only on `commit`. Destroyed without `commit`, it removes the temporary file, so a
 /// failed run never leaves a partial output and never touches an existing one.

@@ -7,6 +7,7 @@
 
 #include "tiers/detail/exact.hpp"
 #include "tiers/detail/report.hpp"
+#include "tiers/io.hpp"
 #include "tiers/lag.hpp"
 #include "tiers/merge.hpp"
 
@@ -45,9 +46,7 @@ class merger {
     d.message = std::move(message);
     out_.diagnostics.push_back(std::move(d));
   }
-  std::string stem(const merge_input& in) const {
-    return std::filesystem::path(in.file).stem().string();
-  }
+  std::string stem(const merge_input& in) const { return name_from_path(in.file); }
 
   void join_media() {
     media_info& m = out_.doc.media;

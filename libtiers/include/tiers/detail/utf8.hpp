@@ -24,3 +24,17 @@ std::string repair_utf8(std::string_view text, std::size_t& replaced);
 void append_utf8(std::string& out, char32_t cp);
 
 }  // namespace tiers::detail
+
+namespace tiers {
+struct document;
+namespace detail {
+
+/// Whether every string of `doc` (names, texts, markup, ids, attributes, metadata) is UTF-8.
+bool document_is_utf8(const document& doc);
+
+/// A copy of `doc` with every invalid sequence replaced by U+FFFD: what a writer is given when
+/// the document holds bytes that are not UTF-8 (find_losses lists it).
+document with_utf8_repaired(const document& doc);
+
+}  // namespace detail
+}  // namespace tiers
