@@ -2,6 +2,8 @@
 // tier, clash rules, shifts and plans.
 #include <catch2/catch.hpp>
 #include <cmath>
+#include <filesystem>
+#include <fstream>
 
 #include "tiers/merge.hpp"
 
@@ -209,4 +211,41 @@ TEST_CASE("plans: read, written back the same, mistakes located", "[merge]") {
   CHECK(bad.diagnostics[1].code == "plan.value");
   CHECK(bad.diagnostics[1].line == 2);
   CHECK(bad.diagnostics[1].column == 14);
+}
+
+TEST_CASE("a plan's inputs stay inside its folder once links are followed", "[merge][hostile]") {
+  // `../` was refused while a symbolic link to the same place was followed: one rule now holds
+  // for the resolved path (docs/security.md).
+  namespace fs = std::filesystem;
+  const fs::path top = fs::temp_directory_path() / "tiers-plan-links";
+  fs::remove_all(top);
+  fs::create_directories(top / "plan" / "sub");
+  fs::create_directories(top / "elsewhere");
+  for (const fs::path& f : {top / "plan" / "a.json", top / "plan" / "sub" / "b.json",
+                            top / "elsewhere" / "secret.json"})
+    std::ofstream(f) << "{}";
+  fs::create_symlink(top / "elsewhere" / "secret.json", top / "plan" / "link.json");
+  fs::create_symlink(top / "elsewhere", top / "plan" / "away");
+  fs::create_symlink("sub/b.json", top / "plan" / "inner.json");  // stays inside: allowed
+  const std::string plan_file = (top / "plan" / "plan.json").string();
+  auto placed = [&](std::vector<std::string> inputs) {
+    merge_plan p;
+    p.inputs = std::move(inputs);
+    const std::vector<diagnostic> d = place_plan_inputs(p, plan_file);
+    return d.empty() ? p.inputs : std::vector<std::string>{"refused: " + d.at(0).message};
+  };
+  CHECK(placed({"a.json", "sub/b.json", "inner.json"}) ==
+        std::vector<std::string>{(top / "plan" / "a.json").string(),
+                                 (top / "plan" / "sub" / "b.json").string(),
+                                 (top / "plan" / "inner.json").string()});
+  for (const std::string& out :
+       {std::string("link.json"), std::string("away/secret.json"),
+        std::string("../elsewhere/secret.json"), std::string("sub/../../elsewhere/secret.json"),
+        (top / "plan" / "a.json").string()}) {
+    INFO(out);
+    const std::vector<std::string> r = placed({"a.json", out});
+    REQUIRE(r.size() == 1);
+    CHECK(r[0].starts_with("refused: input '" + out + "' is outside the plan's folder"));
+  }
+  fs::remove_all(top);
 }

@@ -75,21 +75,10 @@ merge_plan make_plan(const merge_options& o) {
       report(d);
     if (!r.ok()) throw rejected();
     plan = std::move(r.value);
-    // A plan's inputs are beside it: never outside its folder.
-    const fs::path base = fs::path(o.plan).parent_path();
-    for (std::string& in : plan.inputs) {
-      const fs::path rel(in);
-      if (!rel.is_relative() ||
-          std::any_of(rel.begin(), rel.end(), [](const auto& p) { return p == ".."; })) {
-        diagnostic d;
-        d.file = display_name(o.plan);
-        d.code = "plan.value";
-        d.message = "input '" + in + "' is outside the plan's folder; name it on the command line";
-        report(d);
-        throw rejected();
-      }
-      in = (base / rel).string();
-    }
+    const std::vector<diagnostic> outside = place_plan_inputs(plan, display_name(o.plan));
+    for (const diagnostic& d : outside)
+      report(d);
+    if (!outside.empty()) throw rejected();
   }
   for (const std::string& p : o.paths)
     plan.inputs.push_back(p);

@@ -67,6 +67,13 @@ struct plan_result {
 };
 plan_result read_merge_plan(std::string_view text, const std::string& file);
 
+/// The plan's inputs as paths to open, from the plan's folder (`plan_file`'s). A plan from
+/// someone else must not pull in files outside the folder it describes, so every input must
+/// lie inside that folder once every symbolic link on its way is followed (of the folder too):
+/// an absolute path, `..`, or a link that leads out is a `plan.value` error naming the input,
+/// and nothing is changed.
+std::vector<diagnostic> place_plan_inputs(merge_plan& plan, const std::string& plan_file);
+
 /// The plan as JSON, in the form read_merge_plan reads (one line, stable member order).
 std::string plan_json(const merge_plan& plan);
 

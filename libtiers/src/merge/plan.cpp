@@ -1,6 +1,8 @@
 // Merge plans: read from the located JSON tree (every mistake shown where it is), and written
 // back as the canonical one-line form recorded in a merge's output.
 #include <cmath>
+#include <filesystem>
+#include <system_error>
 
 #include "../json_tree.hpp"
 #include "tiers/detail/json_text.hpp"
@@ -206,6 +208,37 @@ std::string plan_json(const merge_plan& plan) {
   out.write("]}");
   out.flush();
   return text;
+}
+
+std::vector<diagnostic> place_plan_inputs(merge_plan& plan, const std::string& plan_file) {
+  namespace fs = std::filesystem;
+  std::vector<diagnostic> out;
+  const fs::path base = fs::path(plan_file).parent_path();
+  std::error_code ec;
+  const fs::path root = fs::weakly_canonical(base.empty() ? fs::path(".") : base, ec);
+  std::vector<std::string> placed;
+  for (const std::string& in : plan.inputs) {
+    const fs::path rel(in);
+    const fs::path at = base / rel;
+    // Resolved: the links followed, and what is left of the path made plain.
+    const fs::path resolved = fs::weakly_canonical(at, ec);
+    const fs::path inside = ec ? fs::path() : resolved.lexically_relative(root);
+    const bool escapes =
+        !rel.is_relative() || ec || inside.empty() || (!inside.empty() && *inside.begin() == "..");
+    if (escapes) {
+      diagnostic d;
+      d.file = plan_file;
+      d.code = "plan.value";
+      d.message = "input " + quote_name(in) +
+                  " is outside the plan's folder (after following links); name it on the "
+                  "command line";
+      out.push_back(std::move(d));
+      continue;
+    }
+    placed.push_back(at.string());
+  }
+  if (out.empty()) plan.inputs = std::move(placed);
+  return out;
 }
 
 }  // namespace tiers
