@@ -168,3 +168,61 @@ TEST_CASE("no writer writes bytes that are not UTF-8; the loss is listed", "[hos
     CHECK(written.find("\xef\xbf\xbd") != std::string::npos);  // U+FFFD where the bytes were
   }
 }
+
+TEST_CASE("a NUL in a text is kept, refused or replaced with a warning: never cut short",
+          "[hostile]") {
+  using namespace std::string_literals;
+  struct sample_case {
+    std::string format, input;
+    enum { kept, refused, replaced } outcome;
+  };
+  const std::vector<sample_case> cases{
+      // RFC 8259 §7: a raw control character is not JSON; \u0000 is, and is kept.
+      {"json",
+       R"({"format":"tiers","version":1,"tiers":[{"name":"t","annotations":[{"start":0,"end":1,"text":"a)"s +
+           '\0' + R"(b"}]}]})",
+       sample_case::refused},
+      {"json",
+       R"({"format":"tiers","version":1,"tiers":[{"name":"t","annotations":[{"start":0,"end":1,"text":"a\u0000b"}]}]})",
+       sample_case::kept},
+      // Tables take any UTF-8 in a field (common practice beyond RFC 4180's ASCII TEXTDATA).
+      {"csv", "tier,start,end,text\nt,0,1,a"s + '\0' + "b\n", sample_case::kept},
+      {"tsv", "tier\tstart\tend\ttext\nt\t0\t1\ta"s + '\0' + "b\n", sample_case::kept},
+      // WebVTT §6.1 step 1: the parser replaces NUL by U+FFFD.
+      {"vtt", "WEBVTT\n\n00:00.000 --> 00:01.000\na"s + '\0' + "b\n", sample_case::replaced},
+      // XML 1.0 §2.2: not a character, raw or by reference.
+      {"ttml",
+       "<tt xmlns=\"http://www.w3.org/ns/ttml\"><body><div><p begin=\"0s\" end=\"1s\">a"s + '\0' +
+           "b</p></div></body></tt>",
+       sample_case::refused},
+      {"ttml",
+       "<tt xmlns=\"http://www.w3.org/ns/ttml\"><body><div><p begin=\"0s\" "
+       "end=\"1s\">a&#0;b</p></div></body></tt>",
+       sample_case::refused},
+      // tiers text writes controls as escapes; a raw one is not its syntax.
+      {"tiers", "tiers 1\n\ntier t interval\n  00:00:00.000 00:00:01.000 a"s + '\0' + "b\n",
+       sample_case::refused},
+  };
+  for (const sample_case& c : cases) {
+    INFO(c.format << ": " << c.input);
+    const read_result r = read_document(c.input, *find_format(c.format), {}, "nul");
+    require_worded(r, c.input);
+    if (c.outcome == sample_case::refused) {
+      CHECK_FALSE(r.ok());
+      continue;
+    }
+    REQUIRE(r.ok());
+    const std::string& text = r.doc.tiers.at(0).annotations.at(0).text;
+    if (c.outcome == sample_case::kept) {
+      CHECK(text == "a\0b"s);
+      CHECK(r.diagnostics.empty());
+    } else {
+      CHECK(text ==
+            "a\xEF\xBF\xBD"
+            "b");
+      REQUIRE(r.diagnostics.size() == 1);
+      CHECK(r.diagnostics[0].code == "input.utf8");
+      CHECK(r.diagnostics[0].level == severity::warning);
+    }
+  }
+}

@@ -86,6 +86,12 @@ void vtt_reader::run() {
          "break");
     return;
   }
+  // The parser replaces NUL by U+FFFD (§6.1 step 1): a change to the text, so it is said.
+  if (const std::size_t nul = in.find('\0', pos); nul != std::string_view::npos)
+    note(severity::warning, "input.utf8", nul,
+         detail::plural(static_cast<std::size_t>(std::count(in.begin(), in.end(), '\0')),
+                        "NUL character", "NUL characters") +
+             " replaced by U+FFFD, as the WebVTT parser does (WebVTT §6.1)");
   bool ended = false;
   const std::string_view first = lines_.next(ended);
   append_line(header_, first.substr(6));
