@@ -168,6 +168,7 @@ def main():
 
     parallel_interrupt(tiers, work, big)
     file_names_not_utf8(tiers, work, samples)
+    in_place(tiers, work)
     print(f"{len(failures)} failures")
     return 1 if failures else 0
 
@@ -257,6 +258,40 @@ def file_names_not_utf8(tiers, work, samples):
             ok = False
         check(f"check --format {fmt} of a file whose name is not UTF-8 writes UTF-8 JSON", ok,
               f"(status {r.returncode})")
+
+
+def in_place(tiers, work):
+    """convert -d DIR into DIR replaces an input only with --in-place, and only when lossless."""
+    folder = os.path.join(work, "in-place")
+    shutil.rmtree(folder, ignore_errors=True)
+    os.makedirs(folder)
+    clean = b"WEBVTT\n\n00:00.000 --> 00:01.000\nfirst\n\n00:01.000 --> 00:02.000\nsecond\n"
+    # A timing line the reader skips (with a warning): rewriting would drop "lost".
+    skipped = (b"WEBVTT\n\n00:00.000 --> 00:01.000\nkept\n\n00:01.000 -> 00:02.000\nlost\n")
+    files = {"clean.vtt": clean, "skipped.vtt": skipped}
+    for name, data in files.items():
+        with open(os.path.join(folder, name), "wb") as fh:
+            fh.write(data)
+
+    def contents():
+        out = {}
+        for name in files:
+            with open(os.path.join(folder, name), "rb") as fh:
+                out[name] = fh.read()
+        return out
+
+    r = subprocess.run([tiers, "convert", folder, "-d", folder, "--to", "vtt", "--allow-loss"],
+                       capture_output=True, text=True)
+    check("convert -d into its own folder without --in-place is refused before writing",
+          r.returncode == 2 and "--in-place" in r.stderr and contents() == files,
+          f"(status {r.returncode})")
+    r = subprocess.run([tiers, "convert", folder, "-d", folder, "--to", "vtt", "--in-place",
+                        "--allow-loss"], capture_output=True, text=True)
+    now = contents()
+    check("--in-place rewrites a lossless input and leaves one whose reading warned as it was",
+          r.returncode == 1 and now["skipped.vtt"] == skipped and
+          now["clean.vtt"] != clean and b"00:00:01.000 -->" in now["clean.vtt"] and "[vtt.block]" in r.stderr and
+          "--in-place" in r.stderr, f"(status {r.returncode})")
 
 
 if __name__ == "__main__":

@@ -277,7 +277,7 @@ std::optional<words_file> words_file_of(const std::string& spec, const input_opt
   return w;
 }
 
-document load_document(const input_options& in, std::string* given_name) {
+document load_document(const input_options& in, std::string* given_name, bool* warned) {
   const read_options options = reading_options(in, in.path);
   const std::string content = read_input(in.path);
   diagnostic why;
@@ -287,8 +287,10 @@ document load_document(const input_options& in, std::string* given_name) {
     throw rejected();
   }
   read_result result = read_document(content, *fmt, options, display_name(in.path));
-  for (const diagnostic& d : result.diagnostics)
+  for (const diagnostic& d : result.diagnostics) {
     report(d);
+    if (warned && d.level == severity::warning) *warned = true;
+  }
   if (!result.ok()) throw rejected();
   if (given_name && !fmt->carries.has(feature::several_tiers) && !result.doc.tiers.empty() &&
       result.doc.tiers.front().name == options.tier_name)

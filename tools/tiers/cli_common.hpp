@@ -61,7 +61,9 @@ const format* input_format(const input_options& in, const std::string& path,
 /// format names no tier (WebVTT, a table without a tier column) and so the reading options
 /// named the first tier (after the file, or --tier-name), `given_name` is set to that name:
 /// writing it to another such file loses nothing of the content.
-document load_document(const input_options& in, std::string* given_name = nullptr);
+/// `warned`, when given, is set when reading gave a warning (something skipped or not applied).
+document load_document(const input_options& in, std::string* given_name = nullptr,
+                       bool* warned = nullptr);
 
 /// The output format: --to, else the extension of `output`; throws usage_error when neither
 /// tells (writing to standard output needs --to).

@@ -37,6 +37,9 @@ CLI::App* setup_convert(CLI::App& app, convert_options& o) {
   cmd->add_flag("--resume", o.resume,
                 "With -d: skip files whose output is already there and newer than the input "
                 "(outputs are written whole or not at all, so one that exists is complete)");
+  cmd->add_flag("--in-place", o.in_place,
+                "With -d: let an output replace its own input, only where the conversion loses "
+                "nothing (no loss, and no warning from reading: a skipped cue counts)");
   cmd->add_option("--tier", o.tiers, "Convert only this tier (repeatable)")
       ->allow_extra_args(false)
       ->type_name("NAME");
@@ -75,12 +78,24 @@ void keep_tiers(document& doc, const std::vector<std::string>& names, const std:
 
 namespace {
 
-// One conversion; throws rejected (reasons printed) or tiers::error.
+// One conversion; throws rejected (reasons printed) or tiers::error. `replaces_input`: the
+// output is the input itself, which only a lossless conversion may replace.
 void convert_one(const convert_options& o, const input_options& in, const format& to,
-                 const std::string& output) {
+                 const std::string& output, bool replaces_input = false) {
   std::string given_name;
-  document doc = load_document(in, &given_name);
+  bool warned = false;
+  document doc = load_document(in, &given_name, &warned);
   const std::string file = display_name(in.path);
+  if (replaces_input && warned) {
+    diagnostic d;
+    d.file = file;
+    d.code = "convert.loss";
+    d.message =
+        "--in-place: reading it gave warnings (above), so its conversion is not "
+        "lossless; the file is left as it was";
+    report(d);
+    throw rejected();
+  }
   keep_tiers(doc, o.tiers, file);
   std::vector<std::string> losses;
   if (o.voices) {
@@ -88,7 +103,9 @@ void convert_one(const convert_options& o, const input_options& in, const format
         output.empty() || output == "-" ? std::string("voices") : name_from_path(output);
     doc = join_as_voices(doc, name, losses);
   }
-  write_output(doc, to, output, o.allow_loss, file, std::move(losses), given_name);
+  // In place, a loss is refused even with --allow-loss: the original would be gone with it.
+  write_output(doc, to, output, o.allow_loss && !replaces_input, file, std::move(losses),
+               given_name);
 }
 
 int convert_many(const convert_options& o) {
@@ -131,12 +148,21 @@ int convert_many(const convert_options& o) {
       throw usage_error("convert -d: " + files[std::min(i, j)].path + " and " +
                         files[std::max(i, j)].path + " would both be written to " + outputs[i]);
   }
-  for (const std::string& out : outputs) {
+  if (o.in_place && o.resume)
+    throw usage_error("convert: --in-place and --resume do not go together");
+  std::vector<char> replaces(outputs.size(), 0);
+  for (std::size_t k = 0; k < outputs.size(); ++k) {
     struct stat st {};
-    if (::stat(out.c_str(), &st) != 0) continue;
-    if (auto it = inputs.find({st.st_dev, st.st_ino}); it != inputs.end())
-      throw usage_error("convert -d: " + out + " would replace the input " + it->second +
-                        "; write to another folder (nothing was written)");
+    if (::stat(outputs[k].c_str(), &st) != 0) continue;
+    const auto it = inputs.find({st.st_dev, st.st_ino});
+    if (it == inputs.end()) continue;
+    // Only its own input, and only when asked: another input's original would be gone.
+    if (!o.in_place || it->second != files[k].path)
+      throw usage_error("convert -d: " + outputs[k] + " would replace the input " + it->second +
+                        "; write to another folder" +
+                        (it->second == files[k].path ? " or give --in-place" : "") +
+                        " (nothing was written)");
+    replaces[k] = 1;
   }
   std::vector<char> failed(files.size(), 0);
   run_parallel(
@@ -150,7 +176,7 @@ int convert_many(const convert_options& o) {
         in.path = files[k].path;
         try {
           fs::create_directories(fs::path(outputs[k]).parent_path(), ec);
-          convert_one(o, in, to, outputs[k]);
+          convert_one(o, in, to, outputs[k], replaces[k] != 0);
         } catch (const rejected&) {
           failed[k] = 1;
         } catch (const error& e) {

@@ -16,6 +16,7 @@ struct convert_options {
   unsigned jobs = 0;
   std::string shard;
   bool resume = false;
+  bool in_place = false;  ///< -d: outputs may replace their inputs, when lossless
   std::string output;
   std::string to;
   std::vector<std::string> tiers;
