@@ -42,6 +42,17 @@ bool valid(std::string_view s) {
 
 }  // namespace
 
+void visit_strings(const document& doc, const std::function<void(std::string_view)>& f) {
+  each_string(
+      doc, [&](const std::string& s) { f(s); },
+      [&](const attribute_map& m) {
+        for (const auto& [k, v] : m) {
+          f(k);
+          f(v);
+        }
+      });
+}
+
 bool document_is_utf8(const document& doc) {
   bool ok = true;
   each_string(

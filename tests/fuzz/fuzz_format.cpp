@@ -1,14 +1,118 @@
 // Fuzz target for one format's reader (TIERS_FUZZ_FORMAT): never a crash, every diagnostic
-// located and worded; and what the reader accepts and the format can carry whole, its writer
-// writes and its reader reads back to the same document (but for how references are spelt).
+// located and worded; no control character of the input vanishes without a diagnostic; what the
+// reader accepts, every format's writer writes as UTF-8, and every format that can carry it
+// whole reads it back; and its own format reads it back to the same document (but for how
+// references are spelt).
+#include <bitset>
 #include <cstddef>
 #include <cstdint>
 #include <string>
 #include <string_view>
 
+#include "tiers/detail/utf8.hpp"
 #include "tiers/tiers.hpp"
 
 namespace {
+
+using controls = std::bitset<32>;  // C0 control characters, by code
+
+void note_control(controls& seen, std::uint32_t c) {
+  if (c < 0x20 && c != '\t' && c != '\n' && c != '\r') seen.set(c);
+}
+
+std::uint32_t hex_value(std::string_view digits, bool& ok) {
+  std::uint32_t v = 0;
+  ok = !digits.empty();
+  for (char d : digits) {
+    const int x = d >= '0' && d <= '9'   ? d - '0'
+                  : d >= 'a' && d <= 'f' ? d - 'a' + 10
+                  : d >= 'A' && d <= 'F' ? d - 'A' + 10
+                                         : -1;
+    if (x < 0 || v > 0xFFFFF) ok = false;
+    if (!ok) return 0;
+    v = v * 16 + static_cast<std::uint32_t>(x);
+  }
+  return v;
+}
+
+// The input without the parts that carry no data by design: a table's header row (a column's
+// name reaches the document only through the values under it; a header with no rows is an
+// empty table) and the comment lines of the tiers format.
+std::string data_of(std::string_view in, std::string_view format) {
+  if (format == "csv" || format == "tsv") {
+    bool quoted = false;
+    std::size_t k = in.find_first_not_of("\r\n");  // empty lines before the header
+    for (; k < in.size(); ++k) {
+      if (in[k] == '"') quoted = !quoted;
+      if (in[k] == '\n' && !quoted) return std::string(in.substr(k + 1));
+    }
+    return {};
+  }
+  if (format != "tiers") return std::string(in);
+  std::string out;
+  for (std::size_t k = 0; k < in.size();) {
+    std::size_t end = in.find('\n', k);
+    end = end == std::string_view::npos ? in.size() : end + 1;
+    const std::string_view line = in.substr(k, end - k);
+    const std::size_t first = line.find_first_not_of(" \t");
+    if (first == std::string_view::npos || line[first] != '#') out += line;
+    k = end;
+  }
+  return out;
+}
+
+// The control characters an input holds where it carries data: raw, and spelt as the format
+// decodes them — XML character references (outside comments, CDATA sections and PIs, where
+// they are text) and JSON \u escapes.
+controls controls_in_input(std::string_view whole, std::string_view format) {
+  const std::string data = data_of(whole, format);
+  const std::string_view in = data;
+  controls seen;
+  for (char c : in)
+    note_control(seen, static_cast<unsigned char>(c));
+  for (std::size_t k = 0; k < in.size(); ++k) {
+    if (format == "json" && in[k] == '\\' && k + 1 < in.size()) {
+      bool ok = false;
+      if (in[k + 1] == 'u' && k + 6 <= in.size()) {
+        const std::uint32_t v = hex_value(in.substr(k + 2, 4), ok);
+        if (ok) note_control(seen, v);
+      }
+      ++k;  // the escaped character is not the start of another escape
+    } else if (format == "ttml" && in[k] == '<') {
+      for (auto [open, close] : {std::pair{"<!--", "-->"}, {"<![CDATA[", "]]>"}, {"<?", "?>"}})
+        if (in.substr(k, std::string_view(open).size()) == open) {
+          const std::size_t end = in.find(close, k + 2);
+          k = end == std::string_view::npos ? in.size() : end;
+          break;
+        }
+    } else if (format == "ttml" && in.substr(k, 2) == "&#") {
+      const std::size_t semi = in.find(';', k);
+      if (semi == std::string_view::npos || semi - k > 14) continue;
+      const std::string_view body = in.substr(k + 2, semi - k - 2);
+      bool ok = !body.empty();
+      std::uint32_t v = 0;
+      if (ok && body[0] == 'x') {
+        v = hex_value(body.substr(1), ok);
+      } else {
+        for (char d : body) {
+          ok = ok && d >= '0' && d <= '9' && v < 100000000;
+          if (ok) v = v * 10 + static_cast<std::uint32_t>(d - '0');
+        }
+      }
+      if (ok) note_control(seen, v);
+    }
+  }
+  return seen;
+}
+
+controls controls_in_document(const tiers::document& doc) {
+  controls seen;
+  tiers::detail::visit_strings(doc, [&](std::string_view s) {
+    for (char c : s)
+      note_control(seen, static_cast<unsigned char>(c));
+  });
+  return seen;
+}
 
 // Markup without a tag only spells the text's characters (a character reference where the
 // file had the character, or the other way round): writers spell text as the standard asks,
@@ -33,6 +137,25 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     if (d.code.empty() || d.message.empty() || (d.offset != tiers::no_offset && d.line == 0))
       __builtin_trap();  // every problem says what and where
   if (!r.ok()) return 0;
+  // A control character the input holds is in the document, or a diagnostic says what became
+  // of it: an `&#0;` that cut a text short without a word fails here.
+  if ((controls_in_input(in, fmt.name) & ~controls_in_document(r.doc)).any() &&
+      r.diagnostics.empty())
+    __builtin_trap();
+  // Every writer writes UTF-8; what a format carries whole, it reads back without an error.
+  for (const tiers::format& to : tiers::formats()) {
+    std::string out;
+    {
+      tiers::string_sink sink(out);
+      to.write(r.doc, sink, {});
+    }
+    if (tiers::detail::find_invalid_utf8(out) != std::string_view::npos) __builtin_trap();
+    if (!tiers::find_losses(r.doc, to).empty()) continue;
+    tiers::read_options plain;
+    plain.tier_name = "fuzz";
+    plain.rate = options.rate;
+    if (!tiers::read_document(out, to, plain, "written").ok()) __builtin_trap();
+  }
   if (!tiers::find_losses(r.doc, fmt).empty()) return 0;  // said, not silent
   std::string written;
   {

@@ -151,6 +151,30 @@ TEST_CASE("atomic_file writes to the process's own descriptors, never replacing 
   fs::remove_all(dir);
 }
 
+TEST_CASE("atomic_file writes into a named pipe and leaves the pipe in place", "[io]") {
+  const fs::path dir = fresh_dir("fifo");
+  const fs::path fifo = dir / "pipe";
+  REQUIRE(::mkfifo(fifo.c_str(), 0600) == 0);
+  const fs::path received = dir / "received.txt";
+  const pid_t child = ::fork();
+  REQUIRE(child >= 0);
+  if (child == 0) {  // the pipe's reader, as `tiers … -o pipe` has one in a shell pipeline
+    std::ifstream in(fifo);
+    std::ofstream(received) << in.rdbuf();
+    ::_exit(0);
+  }
+  {
+    atomic_file f(fifo.string());
+    f.write("through the pipe");
+    f.commit();
+  }
+  int status = 0;
+  ::waitpid(child, &status, 0);
+  CHECK(fs::is_fifo(fifo));
+  CHECK(slurp(received) == "through the pipe");
+  fs::remove_all(dir);
+}
+
 TEST_CASE("atomic_file keeps the owner and group of the file it replaces, as root", "[io]") {
   if (::geteuid() != 0) {
     WARN("not root: a file's owner cannot be given away, so this is not tested here");

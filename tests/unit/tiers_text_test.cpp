@@ -32,6 +32,7 @@ std::vector<std::string> awkward_strings() {
   out.push_back("");
   out.push_back(" ");
   out.push_back("#comment-like");
+  out.push_back("@attribute-like");  // a bare word starting with '@' would read as @key=value
   out.push_back("00:00:01.000 looks like a time");
   return out;
 }
@@ -205,6 +206,8 @@ TEST_CASE("tiers text: every bad line is reported with its place, and reading go
 TEST_CASE("tiers text: the signature and the version", "[tiers-text][bad-input]") {
   CHECK(first_error("tiers", "").code == "tiers.signature");
   CHECK(first_error("tiers", "tier x\n").code == "tiers.signature");
+  // A text after the signature is not ignored: it would be data dropped without a word.
+  CHECK(first_error("tiers", "tiers 1 | \x11 text\n").code == "tiers.version");
   const diagnostic v = first_error("tiers", "# comment\ntiers 2\n");
   CHECK(v.code == "tiers.version");
   CHECK(v.line == 2);

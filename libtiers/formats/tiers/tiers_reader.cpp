@@ -66,7 +66,7 @@ class text_reader {
         stopped_ = true;
         return;
       }
-      if (items_.size() != 2 || items_[1].value || items_[1].key != "1") {
+      if (items_.size() != 2 || items_[1].value || items_[1].key != "1" || text) {
         fail(line_start_ + (items_.size() > 1 ? items_[1].offset : 0), "tiers.version",
              items_.size() > 1 && !items_[1].value && items_[1].key > "1" &&
                      items_[1].key.size() >= 1

@@ -107,7 +107,8 @@ bool read_escape(std::string_view s, std::size_t& i, std::string& out, bool in_q
 }  // namespace
 
 bool is_bare(std::string_view s) {
-  if (s.empty()) return false;
+  // A bare word that starts with '@' reads as an annotation attribute (@key=value).
+  if (s.empty() || s[0] == '@') return false;
   for (std::size_t i = 0; i < s.size(); ++i) {
     const char c = s[i];
     if (c == ' ' || c == '"' || c == '\\' || c == '|' || c == '=' || c == '#') return false;

@@ -3,6 +3,7 @@
 
 #include <cstddef>
 #include <cstdint>
+#include <functional>
 #include <string>
 #include <string_view>
 
@@ -28,6 +29,10 @@ void append_utf8(std::string& out, char32_t cp);
 namespace tiers {
 struct document;
 namespace detail {
+
+/// Calls `f` on every string of `doc`: names, texts, markup, ids, attribute keys and values,
+/// metadata, media uri, vocabularies, sources.
+void visit_strings(const document& doc, const std::function<void(std::string_view)>& f);
 
 /// Whether every string of `doc` (names, texts, markup, ids, attributes, metadata) is UTF-8.
 bool document_is_utf8(const document& doc);
