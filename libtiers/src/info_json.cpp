@@ -1,5 +1,5 @@
 // The JSON form of a document summary, for scripts.
-#include "tiers/detail/json_text.hpp"
+#include "detail/json_text.hpp"
 #include "tiers/info.hpp"
 
 namespace tiers {

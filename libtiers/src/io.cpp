@@ -15,7 +15,7 @@
 #include <filesystem>
 #include <optional>
 
-#include "tiers/detail/utf8.hpp"
+#include "detail/utf8.hpp"
 #include "tiers/diagnostic.hpp"
 
 namespace tiers {

@@ -1,11 +1,11 @@
 // The located JSON tree: the JSON scanner's events, each value stamped with its byte offset.
-#include "json_tree.hpp"
+#include "detail/json_tree.hpp"
 
 #include <algorithm>
 #include <charconv>
 
-#include "json_scan.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/json_scan.hpp"
+#include "detail/report.hpp"
 
 namespace tiers::detail {
 namespace {

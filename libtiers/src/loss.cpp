@@ -3,8 +3,8 @@
 #include <cstddef>
 #include <functional>
 
-#include "tiers/detail/report.hpp"
-#include "tiers/detail/utf8.hpp"
+#include "detail/report.hpp"
+#include "detail/utf8.hpp"
 #include "tiers/format.hpp"
 
 namespace tiers {

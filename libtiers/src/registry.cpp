@@ -4,13 +4,13 @@
 #include <cstdio>
 #include <optional>
 
-#include "../formats/csv/csv_format.hpp"
-#include "../formats/json/json_format.hpp"
-#include "../formats/tiers/tiers_format.hpp"
-#include "../formats/ttml/ttml_format.hpp"
-#include "../formats/vtt/vtt_format.hpp"
-#include "tiers/detail/report.hpp"
-#include "tiers/detail/utf8.hpp"
+#include "detail/report.hpp"
+#include "detail/utf8.hpp"
+#include "formats/csv/csv_format.hpp"
+#include "formats/json/json_format.hpp"
+#include "formats/tiers/tiers_format.hpp"
+#include "formats/ttml/ttml_format.hpp"
+#include "formats/vtt/vtt_format.hpp"
 #include "tiers/format.hpp"
 
 namespace tiers {

@@ -1,7 +1,7 @@
 // Exact parsing and formatting of times, frame numbers, timecodes and rationals.
 #include "tiers/time.hpp"
 
-#include "tiers/detail/exact.hpp"
+#include "detail/exact.hpp"
 
 #include <charconv>
 #include <cstdio>

@@ -1,5 +1,7 @@
 // UTF-8 validation (RFC 3629) with an ASCII fast path.
-#include "tiers/detail/utf8.hpp"
+#include "detail/utf8.hpp"
+
+#include "tiers/text.hpp"
 
 #include <cstring>
 
@@ -112,3 +114,11 @@ void append_utf8(std::string& out, char32_t cp) {
 }
 
 }  // namespace tiers::detail
+
+namespace tiers {
+
+bool is_utf8(std::string_view text) {
+  return detail::find_invalid_utf8(text) == std::string_view::npos;
+}
+
+}  // namespace tiers

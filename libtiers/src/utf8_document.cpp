@@ -1,6 +1,6 @@
 // Every string of a document as valid UTF-8: what writers are given, so that no output holds
 // bytes a reader (or any UTF-8 consumer) would refuse.
-#include "tiers/detail/utf8.hpp"
+#include "detail/utf8.hpp"
 #include "tiers/model.hpp"
 
 namespace tiers::detail {

@@ -3,7 +3,7 @@
 
 #include <algorithm>
 
-#include "tiers/detail/report.hpp"
+#include "detail/report.hpp"
 
 namespace tiers {
 

@@ -9,7 +9,7 @@
 #include <string>
 #include <string_view>
 
-#include "tiers/detail/utf8.hpp"
+#include "detail/utf8.hpp"
 #include "tiers/tiers.hpp"
 
 namespace {

@@ -4,8 +4,8 @@
 #include <catch2/catch.hpp>
 #include <random>
 
+#include "detail/utf8.hpp"
 #include "support.hpp"
-#include "tiers/detail/utf8.hpp"
 
 using namespace tiers;
 

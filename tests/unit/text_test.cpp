@@ -5,7 +5,7 @@
 #include <fstream>
 #include <sstream>
 
-#include "tiers/detail/utf8.hpp"
+#include "detail/utf8.hpp"
 #include "tiers/text.hpp"
 
 using namespace tiers;

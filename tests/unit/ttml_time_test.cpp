@@ -1,7 +1,7 @@
 // TTML2 time expressions and timing parameters (w3c/ttml2, spec/ttml2.xml, §10.3 and §7.2).
 #include <catch2/catch.hpp>
 
-#include "../../libtiers/formats/ttml/ttml_time.hpp"
+#include "formats/ttml/ttml_time.hpp"
 
 using namespace tiers;
 using namespace tiers::detail::ttml;

@@ -1,8 +1,8 @@
 // UTF-8 validation (RFC 3629 §4 syntax) and the refusal of other encodings at read time.
 #include <catch2/catch.hpp>
 
+#include "detail/utf8.hpp"
 #include "support.hpp"
-#include "tiers/detail/utf8.hpp"
 
 using namespace tiers;
 using tiers::detail::find_invalid_utf8;

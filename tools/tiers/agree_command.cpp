@@ -8,7 +8,6 @@
 
 #include "text_table.hpp"
 #include "tiers/agree.hpp"
-#include "tiers/detail/report.hpp"
 #include "tiers/io.hpp"
 
 namespace tiers::cli {
@@ -64,7 +63,7 @@ CLI::App* setup_agree(CLI::App& app, agree_options& o) {
 
 namespace {
 
-using detail::quote_name;
+using tiers::quote_name;
 
 struct loaded {
   std::string file;

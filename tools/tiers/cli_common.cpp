@@ -9,9 +9,8 @@
 #include <mutex>
 #include <numeric>
 
-#include "tiers/detail/report.hpp"
-#include "tiers/detail/utf8.hpp"
 #include "tiers/io.hpp"
+#include "tiers/text.hpp"
 
 namespace tiers::cli {
 
@@ -188,8 +187,7 @@ read_options reading_options(const input_options& in, const std::string& path) {
                  : in.time_unit == "frames" ? time_unit::frames
                                             : time_unit::seconds;
   if (!in.tier_name.empty()) {
-    if (detail::find_invalid_utf8(in.tier_name) != std::string::npos)
-      throw usage_error("--tier-name: the name is not UTF-8");
+    if (!is_utf8(in.tier_name)) throw usage_error("--tier-name: the name is not UTF-8");
     options.tier_name = in.tier_name;
   } else if (path != "-") {
     bool repaired = false;
@@ -200,7 +198,7 @@ read_options reading_options(const input_options& in, const std::string& path) {
       d.level = severity::warning;
       d.code = "input.name";
       d.message = "the file's name is not UTF-8: its tier is named " +
-                  detail::quote_name(options.tier_name) + ", with U+FFFD for what is not";
+                  tiers::quote_name(options.tier_name) + ", with U+FFFD for what is not";
       report(d);
     }
   }
@@ -229,9 +227,9 @@ void write_output(const document& doc, const format& to, const std::string& outp
     const std::string stem = name_from_path(output);
     const std::string& name = doc.tiers.front().name;
     if (name != stem && (given_name.empty() || name != given_name))
-      losses.push_back("the tier name " + detail::quote_name(doc.tiers.front().name) + " (a " +
+      losses.push_back("the tier name " + tiers::quote_name(doc.tiers.front().name) + " (a " +
                        std::string(to.name) + " file names no tier; read back, it is named " +
-                       detail::quote_name(stem) + " after the file)");
+                       tiers::quote_name(stem) + " after the file)");
   }
   for (const std::string& loss : losses) {
     diagnostic d;

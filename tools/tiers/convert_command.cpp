@@ -13,7 +13,6 @@
 #include <numeric>
 #include <unordered_set>
 
-#include "tiers/detail/report.hpp"
 #include "tiers/io.hpp"
 #include "tiers/voices.hpp"
 
@@ -60,12 +59,12 @@ void keep_tiers(document& doc, const std::vector<std::string>& names, const std:
     if (!find_tier(doc, n)) {
       std::string known;
       for (const tier& t : doc.tiers)
-        known += (known.empty() ? "" : ", ") + detail::quote_name(t.name);
+        known += (known.empty() ? "" : ", ") + tiers::quote_name(t.name);
       diagnostic d;
       d.file = file;
       d.code = "convert.tier";
       d.message =
-          "no tier " + detail::quote_name(n) + " (tiers: " + (known.empty() ? "none" : known) + ")";
+          "no tier " + tiers::quote_name(n) + " (tiers: " + (known.empty() ? "none" : known) + ")";
       report(d);
       throw rejected();
     }

@@ -4,7 +4,6 @@
 
 #include <map>
 
-#include "tiers/detail/report.hpp"
 #include "tiers/edit.hpp"
 
 namespace tiers::cli {

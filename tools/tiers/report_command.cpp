@@ -4,7 +4,6 @@
 
 #include <filesystem>
 
-#include "tiers/detail/report.hpp"
 #include "tiers/html_report.hpp"
 #include "tiers/io.hpp"
 
@@ -56,7 +55,7 @@ const tier* named_tier(const document& doc, const std::string& name, const std::
   d.level = severity::warning;
   d.file = file;
   d.code = "report.tier";
-  d.message = "no tier " + detail::quote_name(name) + " to compare; no agreement is drawn";
+  d.message = "no tier " + tiers::quote_name(name) + " to compare; no agreement is drawn";
   report(d);
   return nullptr;
 }
@@ -74,7 +73,7 @@ std::string resolve_compared(const std::string& spec, const char* option, check_
     t = find_tier(other->doc, *other->tier);
     if (!t)
       throw usage_error(std::string(option) + ": " + display_name(other->path) + " has no tier " +
-                        detail::quote_name(*other->tier));
+                        tiers::quote_name(*other->tier));
   } else if (other->doc.tiers.size() == 1) {
     t = &other->doc.tiers.front();
   } else {

@@ -4,8 +4,6 @@
 #include <fmt/format.h>
 
 #include "text_table.hpp"
-#include "tiers/detail/json_text.hpp"
-#include "tiers/detail/report.hpp"
 #include "tiers/io.hpp"
 #include "tiers/profile.hpp"
 #include "tiers/retime.hpp"
@@ -44,61 +42,10 @@ CLI::App* setup_retime(CLI::App& app, retime_options_cli& o) {
 
 namespace {
 
-using detail::quote_name;
-
-std::string_view basis_name(cue_move::basis b) {
-  switch (b) {
-    case cue_move::basis::words:
-      return "words";
-    case cue_move::basis::neighbours:
-      return "neighbours";
-    case cue_move::basis::unchanged:
-      return "unchanged";
-  }
-  return "unchanged";
-}
+using tiers::quote_name;
 
 std::string signed_seconds(time_ns t) {
   return (t < 0 ? "-" : "+") + format_seconds(t < 0 ? -t : t);
-}
-
-std::string json_report(const retime_result& r, const tier& before) {
-  std::string text;
-  string_sink out(text);
-  out.write("{\"cues\": [");
-  std::size_t by_words = 0, by_neighbours = 0, unchanged = 0, unfixed = 0;
-  for (std::size_t k = 0; k < r.moves.size(); ++k) {
-    const cue_move& m = r.moves[k];
-    by_words += m.how == cue_move::basis::words;
-    by_neighbours += m.how == cue_move::basis::neighbours;
-    unchanged += m.how == cue_move::basis::unchanged;
-    unfixed += !m.unfixed.empty();
-    out.write(k ? ",\n  {" : "\n  {");
-    detail::json_members j(out);
-    j.count("cue", m.cue);
-    if (const auto& id = before.annotations[m.cue].id) j.string("id", *id);
-    j.seconds("old_start", m.old_start);
-    j.seconds("old_end", m.old_end);
-    j.seconds("new_start", m.new_start);
-    j.seconds("new_end", m.new_end);
-    j.seconds("start_moved", m.new_start - m.old_start);
-    j.seconds("end_moved", m.new_end - m.old_end);
-    j.string("basis", basis_name(m.how));
-    j.count("words", m.words);
-    if (!m.adjusted.empty()) j.string("adjusted", m.adjusted);
-    if (!m.unfixed.empty()) j.string("unfixed", m.unfixed);
-    out.put('}');
-  }
-  out.write("],\n \"summary\": {");
-  detail::json_members s(out);
-  s.count("cues", r.moves.size());
-  s.count("by_words", by_words);
-  s.count("by_neighbours", by_neighbours);
-  s.count("unchanged", unchanged);
-  s.count("unfixed", unfixed);
-  out.write("}}\n");
-  out.flush();
-  return text;
 }
 
 std::string text_report(const retime_result& r, const tier& before) {
@@ -114,7 +61,7 @@ std::string text_report(const retime_result& r, const tier& before) {
     if (!m.unfixed.empty()) notes += (notes.empty() ? "" : "; ") + ("NOT FIXED: " + m.unfixed);
     table.add_row({std::to_string(m.cue + 1), before.annotations[m.cue].id.value_or("-"),
                    format_clock(m.old_start), format_clock(m.new_start),
-                   signed_seconds(m.new_start - m.old_start) + " s", std::string(basis_name(m.how)),
+                   signed_seconds(m.new_start - m.old_start) + " s", std::string(to_string(m.how)),
                    std::to_string(m.words), notes});
   }
   return table.render() +
@@ -202,7 +149,7 @@ int run_retime(const retime_options_cli& o) {
   write_output(doc, to, o.output, o.allow_loss, file, {}, given_name);
 
   const std::string report_text =
-      o.json ? json_report(r, before) : escape_controls(text_report(r, before), true);
+      o.json ? retime_report_json(r, before) : escape_controls(text_report(r, before), true);
   // The report goes to standard output, unless the document does.
   if (o.output == "-")
     std::fputs(report_text.c_str(), stderr);

@@ -7,9 +7,9 @@
 #include <unordered_set>
 
 #include "csv_format.hpp"
+#include "detail/positions.hpp"
+#include "detail/report.hpp"
 #include "table_scanner.hpp"
-#include "tiers/detail/positions.hpp"
-#include "tiers/detail/report.hpp"
 
 namespace tiers::detail {
 namespace {

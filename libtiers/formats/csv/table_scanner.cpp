@@ -1,7 +1,7 @@
 // The record and field splitter behind the CSV and TSV readers.
 #include "table_scanner.hpp"
 
-#include "tiers/detail/report.hpp"
+#include "detail/report.hpp"
 
 namespace tiers::detail {
 

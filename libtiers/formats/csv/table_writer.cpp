@@ -4,8 +4,8 @@
 #include <set>
 
 #include "csv_format.hpp"
-#include "tiers/detail/json_text.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/json_text.hpp"
+#include "detail/report.hpp"
 
 namespace tiers::detail {
 namespace {

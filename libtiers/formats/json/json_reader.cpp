@@ -6,10 +6,10 @@
 #include <iterator>
 #include <limits>
 
-#include "../../src/json_scan.hpp"
+#include "detail/json_scan.hpp"
+#include "detail/positions.hpp"
+#include "detail/report.hpp"
 #include "json_format.hpp"
-#include "tiers/detail/positions.hpp"
-#include "tiers/detail/report.hpp"
 
 namespace tiers::detail {
 namespace {

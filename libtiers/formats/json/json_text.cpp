@@ -1,9 +1,9 @@
 // JSON strings and numbers written by hand: exact times and no dependency on a DOM.
-#include "tiers/detail/json_text.hpp"
+#include "detail/json_text.hpp"
 
 #include <fmt/format.h>
 
-#include "tiers/detail/utf8.hpp"
+#include "detail/utf8.hpp"
 
 namespace tiers::detail {
 

@@ -1,6 +1,6 @@
 // Writes the native JSON format: one annotation per line, so that diffs stay readable.
+#include "detail/json_text.hpp"
 #include "json_format.hpp"
-#include "tiers/detail/json_text.hpp"
 
 namespace tiers::detail {
 namespace {

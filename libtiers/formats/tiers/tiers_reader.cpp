@@ -3,8 +3,8 @@
 #include <charconv>
 #include <cmath>
 
-#include "tiers/detail/positions.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/positions.hpp"
+#include "detail/report.hpp"
 #include "tiers_format.hpp"
 #include "tiers_syntax.hpp"
 

@@ -3,7 +3,7 @@
 
 #include <cstdio>
 
-#include "tiers/detail/utf8.hpp"
+#include "detail/utf8.hpp"
 
 namespace tiers::detail::text_format {
 namespace {

@@ -1,6 +1,6 @@
 // Writes the plain-text tier format: a signature line, the media and metadata, then each tier
 // with its properties and one line per annotation.
-#include "tiers/detail/json_text.hpp"
+#include "detail/json_text.hpp"
 #include "tiers_format.hpp"
 #include "tiers_syntax.hpp"
 

@@ -10,9 +10,9 @@
 #include <sstream>
 #include <vector>
 
-#include "tiers/detail/exact.hpp"
-#include "tiers/detail/positions.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/exact.hpp"
+#include "detail/positions.hpp"
+#include "detail/report.hpp"
 #include "ttml_format.hpp"
 #include "ttml_time.hpp"
 

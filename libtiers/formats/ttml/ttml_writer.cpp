@@ -6,8 +6,8 @@
 #include <set>
 #include <sstream>
 
-#include "tiers/detail/markup.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/markup.hpp"
+#include "detail/report.hpp"
 #include "ttml_format.hpp"
 #include "ttml_time.hpp"
 

@@ -3,8 +3,8 @@
 #include <algorithm>
 #include <unordered_set>
 
-#include "tiers/detail/positions.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/positions.hpp"
+#include "detail/report.hpp"
 #include "vtt_format.hpp"
 #include "vtt_syntax.hpp"
 

@@ -7,7 +7,7 @@
 #include <cstdio>
 
 #include <limits>
-#include "tiers/detail/utf8.hpp"
+#include "detail/utf8.hpp"
 
 namespace tiers::detail::vtt {
 namespace {

@@ -8,7 +8,7 @@
 #include <string_view>
 #include <vector>
 
-#include "tiers/detail/markup.hpp"
+#include "detail/markup.hpp"
 #include "tiers/model.hpp"
 #include "tiers/time.hpp"
 

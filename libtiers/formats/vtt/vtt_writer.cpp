@@ -6,7 +6,7 @@
 #include <tuple>
 #include <unordered_set>
 
-#include "tiers/detail/report.hpp"
+#include "detail/report.hpp"
 #include "vtt_format.hpp"
 #include "vtt_syntax.hpp"
 

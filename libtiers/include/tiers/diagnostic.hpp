@@ -35,6 +35,14 @@ struct diagnostic {
 /// JSON and converted files keep every character exactly.
 std::string escape_controls(std::string_view text, bool keep_newlines = false);
 
+/// A name as messages quote it: 'captions'.
+inline std::string quote_name(std::string_view name) {
+  std::string s = "'";
+  s += name;
+  s += '\'';
+  return s;
+}
+
 /// `FILE:LINE:COLUMN: error: MESSAGE [code]`, leaving out the parts that are unknown; the file
 /// and message with escape_controls.
 std::string format_diagnostic(const diagnostic& d);

@@ -53,6 +53,13 @@ struct retime_result {
 retime_result retime_captions(const tier& captions, const tier& words,
                               const retime_options& options = {});
 
+/// "words", "neighbours", "unchanged".
+std::string_view to_string(cue_move::basis basis);
+
+/// The re-timing as JSON: one object per cue (`before` is the caption tier as it was, for the
+/// cues' ids) and a summary of how many moved on what basis (docs/retime.md).
+std::string retime_report_json(const retime_result& r, const tier& before);
+
 /// Carries the child tiers of `captions` (relation `within`, such as WebVTT inline word
 /// timestamps) along with their cues: an annotation inside a cue's old span moves by the cue's
 /// start shift, kept inside the cue's new span.

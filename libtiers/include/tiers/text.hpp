@@ -36,6 +36,10 @@ struct case_counts {
 };
 case_counts count_case(std::string_view text);
 
+/// Whether `text` is well-formed UTF-8 (no overlong forms, surrogates or code points beyond
+/// U+10FFFF).
+bool is_utf8(std::string_view text);
+
 /// The first control character (general category Cc) of `text` other than the line feed that
 /// breaks caption lines, as a byte offset; npos when there is none.
 std::size_t find_control(std::string_view text);

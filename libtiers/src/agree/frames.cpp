@@ -7,8 +7,8 @@
 #include <numeric>
 #include <unordered_map>
 
+#include "detail/exact.hpp"
 #include "tiers/agree.hpp"
-#include "tiers/detail/exact.hpp"
 
 namespace tiers {
 namespace {

@@ -2,8 +2,8 @@
 #include <cmath>
 #include <cstdlib>
 
+#include "detail/json_text.hpp"
 #include "tiers/agree.hpp"
-#include "tiers/detail/json_text.hpp"
 
 namespace tiers {
 

@@ -7,8 +7,8 @@
 #include <limits>
 #include <numeric>
 
+#include "detail/exact.hpp"
 #include "tiers/agree.hpp"
-#include "tiers/detail/exact.hpp"
 #include "tiers/lag.hpp"
 
 namespace tiers {

@@ -5,7 +5,7 @@
 #include <cstdio>
 
 #include "checker.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/report.hpp"
 
 namespace tiers::detail {
 

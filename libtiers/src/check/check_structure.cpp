@@ -7,7 +7,7 @@
 #include <unordered_set>
 
 #include "checker.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/report.hpp"
 
 namespace tiers::detail {
 namespace {

@@ -6,7 +6,7 @@
 #include <numeric>
 
 #include "checker.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/report.hpp"
 #include "tiers/text.hpp"
 
 namespace tiers::detail {

@@ -5,8 +5,8 @@
 #include <unordered_map>
 
 #include "checker.hpp"
-#include "tiers/detail/exact.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/exact.hpp"
+#include "detail/report.hpp"
 
 namespace tiers::detail {
 namespace {

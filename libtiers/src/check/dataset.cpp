@@ -3,8 +3,8 @@
 #include <map>
 
 #include "checker.hpp"
+#include "detail/report.hpp"
 #include "tiers/check.hpp"
-#include "tiers/detail/report.hpp"
 
 namespace tiers {
 namespace {

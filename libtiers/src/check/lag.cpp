@@ -8,7 +8,7 @@
 #include <string>
 #include <unordered_map>
 
-#include "tiers/detail/exact.hpp"
+#include "detail/exact.hpp"
 #include "tiers/text.hpp"
 
 namespace tiers {

@@ -7,9 +7,9 @@
 #include <cmath>
 #include <filesystem>
 
-#include "../json_tree.hpp"
-#include "embedded.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/embedded.hpp"
+#include "detail/json_tree.hpp"
+#include "detail/report.hpp"
 #include "tiers/io.hpp"
 
 namespace tiers {

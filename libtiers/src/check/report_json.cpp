@@ -1,7 +1,7 @@
 // The check report as JSON (docs/cli.md, "check"): every file's problems and lag, and totals.
+#include "detail/json_text.hpp"
 #include "report_profile.hpp"
 #include "tiers/check.hpp"
-#include "tiers/detail/json_text.hpp"
 #include "tiers/version.hpp"
 
 namespace tiers {

@@ -1,7 +1,7 @@
 // The profile a check report was made with, as JSON and SARIF reports both record it.
 #pragma once
 
-#include "tiers/detail/json_text.hpp"
+#include "detail/json_text.hpp"
 #include "tiers/profile.hpp"
 
 namespace tiers::detail {

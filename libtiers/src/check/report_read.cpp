@@ -3,9 +3,9 @@
 #include <charconv>
 #include <cmath>
 
-#include "../json_tree.hpp"
+#include "detail/json_tree.hpp"
+#include "detail/report.hpp"
 #include "tiers/check.hpp"
-#include "tiers/detail/report.hpp"
 
 namespace tiers {
 namespace {

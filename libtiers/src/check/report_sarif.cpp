@@ -2,9 +2,9 @@
 // one result per problem, located by line and column in code points (§3.14.23 columnKind).
 #include <cstdio>
 
+#include "detail/json_text.hpp"
 #include "report_profile.hpp"
 #include "tiers/check.hpp"
-#include "tiers/detail/json_text.hpp"
 #include "tiers/profile.hpp"
 #include "tiers/version.hpp"
 

@@ -4,8 +4,8 @@
 #include <cmath>
 #include <cstdio>
 
+#include "detail/exact.hpp"
 #include "tiers/derive.hpp"
-#include "tiers/detail/exact.hpp"
 
 namespace tiers {
 namespace {

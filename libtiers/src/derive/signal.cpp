@@ -5,10 +5,10 @@
 #include <limits>
 #include <numeric>
 
-#include "../../formats/csv/table_scanner.hpp"
-#include "../json_tree.hpp"
+#include "detail/json_tree.hpp"
+#include "detail/report.hpp"
+#include "formats/csv/table_scanner.hpp"
 #include "tiers/derive.hpp"
-#include "tiers/detail/report.hpp"
 #include "tiers/lag.hpp"
 
 namespace tiers {

@@ -4,8 +4,8 @@
 #include <algorithm>
 #include <functional>
 
-#include "tiers/detail/exact.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/exact.hpp"
+#include "detail/report.hpp"
 
 namespace tiers {
 namespace {

@@ -5,8 +5,8 @@
 #include <map>
 #include <set>
 
-#include "tiers/detail/exact.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/exact.hpp"
+#include "detail/report.hpp"
 #include "tiers/io.hpp"
 #include "tiers/lag.hpp"
 #include "tiers/merge.hpp"

@@ -4,9 +4,9 @@
 #include <filesystem>
 #include <system_error>
 
-#include "../json_tree.hpp"
-#include "tiers/detail/json_text.hpp"
-#include "tiers/detail/report.hpp"
+#include "detail/json_text.hpp"
+#include "detail/json_tree.hpp"
+#include "detail/report.hpp"
 #include "tiers/merge.hpp"
 #include "tiers/sink.hpp"
 

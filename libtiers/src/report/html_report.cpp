@@ -8,9 +8,9 @@
 #include <cmath>
 #include <optional>
 
-#include "embedded.hpp"
-#include "report/report_data.hpp"
-#include "tiers/detail/markup.hpp"
+#include "detail/embedded.hpp"
+#include "detail/markup.hpp"
+#include "report_data.hpp"
 #include "tiers/version.hpp"
 
 namespace tiers {

@@ -1,12 +1,12 @@
 // The HTML report's data: what its script draws, written as JSON.
-#include "report/report_data.hpp"
+#include "report_data.hpp"
 
 #include <algorithm>
 #include <limits>
 #include <numeric>
 
-#include "tiers/detail/exact.hpp"
-#include "tiers/detail/json_text.hpp"
+#include "detail/exact.hpp"
+#include "detail/json_text.hpp"
 
 namespace tiers::detail {
 namespace {

@@ -5,7 +5,7 @@
 #include <algorithm>
 #include <numeric>
 
-#include "tiers/detail/exact.hpp"
+#include "detail/exact.hpp"
 
 namespace tiers {
 namespace {

@@ -12,7 +12,7 @@
 #include <string_view>
 #include <vector>
 
-#include "tiers/detail/utf8.hpp"
+#include "detail/utf8.hpp"
 
 namespace tiers::detail {
 

@@ -25,13 +25,7 @@ inline std::string time_code(time_status status, std::string_view format_code) {
   return std::string(status == time_status::out_of_range ? "time.range" : format_code);
 }
 
-/// Names in messages: 'captions'.
-inline std::string quote_name(std::string_view name) {
-  std::string s = "'";
-  s += name;
-  s += '\'';
-  return s;
-}
+using tiers::quote_name;
 
 /// "an interval tier", "an instant tier": a tier kind with its article, for messages.
 inline std::string kind_tier(tier_kind kind) {

@@ -1,0 +1,59 @@
+// The JSON report of a re-timing: what became of each cue, and how many moved on what basis.
+#include "detail/json_text.hpp"
+#include "tiers/retime.hpp"
+#include "tiers/sink.hpp"
+
+namespace tiers {
+
+std::string_view to_string(cue_move::basis basis) {
+  switch (basis) {
+    case cue_move::basis::words:
+      return "words";
+    case cue_move::basis::neighbours:
+      return "neighbours";
+    case cue_move::basis::unchanged:
+      return "unchanged";
+  }
+  return "unchanged";
+}
+
+std::string retime_report_json(const retime_result& r, const tier& before) {
+  std::string text;
+  string_sink out(text);
+  out.write("{\"cues\": [");
+  std::size_t by_words = 0, by_neighbours = 0, unchanged = 0, unfixed = 0;
+  for (std::size_t k = 0; k < r.moves.size(); ++k) {
+    const cue_move& m = r.moves[k];
+    by_words += m.how == cue_move::basis::words;
+    by_neighbours += m.how == cue_move::basis::neighbours;
+    unchanged += m.how == cue_move::basis::unchanged;
+    unfixed += !m.unfixed.empty();
+    out.write(k ? ",\n  {" : "\n  {");
+    detail::json_members j(out);
+    j.count("cue", m.cue);
+    if (const auto& id = before.annotations[m.cue].id) j.string("id", *id);
+    j.seconds("old_start", m.old_start);
+    j.seconds("old_end", m.old_end);
+    j.seconds("new_start", m.new_start);
+    j.seconds("new_end", m.new_end);
+    j.seconds("start_moved", m.new_start - m.old_start);
+    j.seconds("end_moved", m.new_end - m.old_end);
+    j.string("basis", to_string(m.how));
+    j.count("words", m.words);
+    if (!m.adjusted.empty()) j.string("adjusted", m.adjusted);
+    if (!m.unfixed.empty()) j.string("unfixed", m.unfixed);
+    out.put('}');
+  }
+  out.write("],\n \"summary\": {");
+  detail::json_members s(out);
+  s.count("cues", r.moves.size());
+  s.count("by_words", by_words);
+  s.count("by_neighbours", by_neighbours);
+  s.count("unchanged", unchanged);
+  s.count("unfixed", unfixed);
+  out.write("}}\n");
+  out.flush();
+  return text;
+}
+
+}  // namespace tiers
