@@ -1,6 +1,7 @@
 // Checking one document: which tiers play which role, emitting located problems, the profile's
 // requirements, and the captions' lag against the word timings.
 #include <algorithm>
+#include <cassert>
 #include <cmath>
 #include <cstdio>
 
@@ -46,6 +47,9 @@ checker::checker(const document& doc, const source_map& positions, const std::st
 }
 
 problem* checker::emit(std::string_view rule, std::size_t t, std::size_t a, std::string message) {
+  // A rule the catalogue does not know has no level and would be off without a word
+  // (tests/scripts/rule_ids.py checks the literals of every emit call).
+  assert(find_rule(rule) && "a rule emitted must be in the catalogue (rules.cpp)");
   const rule_level level = profile_.level(rule);
   if (level == rule_level::off) return nullptr;
   problem& p = out_.problems.emplace_back();
