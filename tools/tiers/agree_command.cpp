@@ -37,7 +37,9 @@ segment_options segment_matching(const comparison_options& o) {
   return matching;
 }
 
-CLI::App* setup_agree(CLI::App& app, agree_options& o) {
+void setup_agree(CLI::App& app, int& status) {
+  auto options = std::make_shared<agree_options>();
+  agree_options& o = *options;
   CLI::App* cmd = app.add_subcommand(
       "agree", "How far a candidate tier agrees with a reference, or annotators with each other");
   cmd->add_option("files", o.paths, "REF CAND, or one FILE with both tiers (or with --tiers)")
@@ -58,7 +60,7 @@ CLI::App* setup_agree(CLI::App& app, agree_options& o) {
       ->type_name("X");
   cmd->add_flag("--json", o.json, "Print JSON for scripts");
   add_input_options(*cmd, o.input);
-  return cmd;
+  cmd->callback([options, &status] { status = run_agree(*options); });
 }
 
 namespace {

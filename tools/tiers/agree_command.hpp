@@ -2,6 +2,7 @@
 #pragma once
 
 #include <CLI/CLI.hpp>
+#include <memory>
 #include <string>
 #include <vector>
 
@@ -35,8 +36,9 @@ struct agree_options {
   bool json = false;
 };
 
-/// Adds the subcommand to `app`; its options land in `options`.
-CLI::App* setup_agree(CLI::App& app, agree_options& options);
+/// Adds the subcommand to `app` with its options; when it is the one given, it runs after
+/// parsing and its exit status lands in `status`.
+void setup_agree(CLI::App& app, int& status);
 int run_agree(const agree_options& options);
 
 }  // namespace tiers::cli

@@ -14,7 +14,9 @@
 
 namespace tiers::cli {
 
-CLI::App* setup_check(CLI::App& app, check_options& o) {
+void setup_check(CLI::App& app, int& status) {
+  auto options = std::make_shared<check_options>();
+  check_options& o = *options;
   CLI::App* cmd = app.add_subcommand(
       "check", "Validate tier files or whole folders: times, structure, text, captions, lag");
   cmd->add_option("inputs", o.paths, "Files or folders (searched recursively), or - for stdin")
@@ -55,7 +57,7 @@ CLI::App* setup_check(CLI::App& app, check_options& o) {
                 "summary");
   cmd->add_flag("--list-profiles", o.list_profiles, "List the built-in profiles");
   add_input_options(*cmd, o.input);
-  return cmd;
+  cmd->callback([options, &status] { status = run_check(*options); });
 }
 
 namespace {

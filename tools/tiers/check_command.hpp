@@ -29,8 +29,9 @@ struct check_options {
   bool list_profiles = false;
 };
 
-/// Adds the subcommand to `app`; its options land in `options`.
-CLI::App* setup_check(CLI::App& app, check_options& options);
+/// Adds the subcommand to `app` with its options; when it is the one given, it runs after
+/// parsing and its exit status lands in `status`.
+void setup_check(CLI::App& app, int& status);
 int run_check(const check_options& options);
 
 /// The profile named by --profile (a built-in name or a file); the defaults for none.

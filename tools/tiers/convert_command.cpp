@@ -18,7 +18,9 @@
 
 namespace tiers::cli {
 
-CLI::App* setup_convert(CLI::App& app, convert_options& o) {
+void setup_convert(CLI::App& app, int& status) {
+  auto options = std::make_shared<convert_options>();
+  convert_options& o = *options;
   CLI::App* cmd = app.add_subcommand("convert", "Convert a tier file to another format");
   cmd->add_option("inputs", o.inputs,
                   "Input file, or - for standard input; with -d, files and folders (searched "
@@ -48,7 +50,7 @@ CLI::App* setup_convert(CLI::App& app, convert_options& o) {
   add_input_options(*cmd, o.input);
   add_output_options(*cmd, o.output, o.to, o.allow_loss,
                      "Output file, or - for standard output (the default)");
-  return cmd;
+  cmd->callback([options, &status] { status = run_convert(*options); });
 }
 
 namespace {

@@ -2,6 +2,7 @@
 #pragma once
 
 #include <CLI/CLI.hpp>
+#include <memory>
 #include <string>
 #include <vector>
 
@@ -24,8 +25,9 @@ struct convert_options {
   bool voices = false;
 };
 
-/// Adds the subcommand to `app`; its options land in `options`.
-CLI::App* setup_convert(CLI::App& app, convert_options& options);
+/// Adds the subcommand to `app` with its options; when it is the one given, it runs after
+/// parsing and its exit status lands in `status`.
+void setup_convert(CLI::App& app, int& status);
 int run_convert(const convert_options& options);
 
 }  // namespace tiers::cli

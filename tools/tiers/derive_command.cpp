@@ -10,7 +10,9 @@
 
 namespace tiers::cli {
 
-CLI::App* setup_derive(CLI::App& app, derive_options_cli& o) {
+void setup_derive(CLI::App& app, int& status) {
+  auto options = std::make_shared<derive_options_cli>();
+  derive_options_cli& o = *options;
   CLI::App* cmd =
       app.add_subcommand("derive", "Turn per-frame detector scores into interval tiers");
   cmd->add_option("signal", o.path,
@@ -46,7 +48,7 @@ CLI::App* setup_derive(CLI::App& app, derive_options_cli& o) {
   cmd->add_option("--agent-version", o.agent_version, "The detector's version")
       ->type_name("VERSION");
   add_output_options(*cmd, o.output, o.to, o.allow_loss);
-  return cmd;
+  cmd->callback([options, &status] { status = run_derive(*options); });
 }
 
 int run_derive(const derive_options_cli& o) {

@@ -2,6 +2,7 @@
 #pragma once
 
 #include <CLI/CLI.hpp>
+#include <memory>
 #include <string>
 
 #include "cli_common.hpp"
@@ -19,8 +20,9 @@ struct derive_options_cli {
   bool allow_loss = false;
 };
 
-/// Adds the subcommand to `app`; its options land in `options`.
-CLI::App* setup_derive(CLI::App& app, derive_options_cli& options);
+/// Adds the subcommand to `app` with its options; when it is the one given, it runs after
+/// parsing and its exit status lands in `status`.
+void setup_derive(CLI::App& app, int& status);
 int run_derive(const derive_options_cli& options);
 
 }  // namespace tiers::cli

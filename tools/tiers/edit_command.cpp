@@ -8,7 +8,9 @@
 
 namespace tiers::cli {
 
-CLI::App* setup_edit(CLI::App& app, edit_options& o) {
+void setup_edit(CLI::App& app, int& status) {
+  auto options = std::make_shared<edit_options>();
+  edit_options& o = *options;
   CLI::App* cmd = app.add_subcommand(
       "edit", "Shift, scale, snap and cut times, and select, drop or rename tiers, in order");
   cmd->add_option("input", o.input.path, "Input file, or - for standard input")
@@ -42,7 +44,7 @@ CLI::App* setup_edit(CLI::App& app, edit_options& o) {
   add_input_options(*cmd, o.input);
   o.command = cmd;
   add_output_options(*cmd, o.output, o.to, o.allow_loss);
-  return cmd;
+  cmd->callback([options, &status] { status = run_edit(*options); });
 }
 
 namespace {

@@ -2,6 +2,7 @@
 #pragma once
 
 #include <CLI/CLI.hpp>
+#include <memory>
 #include <string>
 #include <vector>
 
@@ -18,8 +19,9 @@ struct edit_options {
   const CLI::App* command = nullptr;  ///< for the order the operations were given in
 };
 
-/// Adds the subcommand to `app`; its options land in `options`.
-CLI::App* setup_edit(CLI::App& app, edit_options& options);
+/// Adds the subcommand to `app` with its options; when it is the one given, it runs after
+/// parsing and its exit status lands in `status`.
+void setup_edit(CLI::App& app, int& status);
 int run_edit(const edit_options& options);
 
 }  // namespace tiers::cli

@@ -9,7 +9,9 @@
 
 namespace tiers::cli {
 
-CLI::App* setup_info(CLI::App& app, info_options& o) {
+void setup_info(CLI::App& app, int& status) {
+  auto options = std::make_shared<info_options>();
+  info_options& o = *options;
   CLI::App* cmd = app.add_subcommand(
       "info", "Show the tiers in a file: kinds, sources, counts, span, coverage");
   cmd->add_option("input", o.input.path, "Input file, or - for standard input")
@@ -17,7 +19,7 @@ CLI::App* setup_info(CLI::App& app, info_options& o) {
       ->type_name("FILE");
   cmd->add_flag("--json", o.json, "Print JSON for scripts");
   add_input_options(*cmd, o.input);
-  return cmd;
+  cmd->callback([options, &status] { status = run_info(*options); });
 }
 
 namespace {

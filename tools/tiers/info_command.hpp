@@ -2,6 +2,7 @@
 #pragma once
 
 #include <CLI/CLI.hpp>
+#include <memory>
 
 #include "cli_common.hpp"
 
@@ -12,8 +13,9 @@ struct info_options {
   bool json = false;
 };
 
-/// Adds the subcommand to `app`; its options land in `options`.
-CLI::App* setup_info(CLI::App& app, info_options& options);
+/// Adds the subcommand to `app` with its options; when it is the one given, it runs after
+/// parsing and its exit status lands in `status`.
+void setup_info(CLI::App& app, int& status);
 int run_info(const info_options& options);
 
 }  // namespace tiers::cli

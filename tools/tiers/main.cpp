@@ -3,16 +3,8 @@
 #include <cstdio>
 #include <new>
 
-#include "agree_command.hpp"
-#include "check_command.hpp"
 #include "cli_common.hpp"
-#include "convert_command.hpp"
-#include "derive_command.hpp"
-#include "edit_command.hpp"
-#include "info_command.hpp"
-#include "merge_command.hpp"
-#include "report_command.hpp"
-#include "retime_command.hpp"
+#include "commands.hpp"
 #include "tiers/io.hpp"
 #include "tiers/version.hpp"
 
@@ -26,36 +18,12 @@ int main(int argc, char** argv) {
   app.set_version_flag("--version", std::string(tiers::version()));
   app.require_subcommand(1);
   app.fallthrough(false);
-  convert_options convert;
-  info_options info;
-  check_options check;
-  merge_options merge;
-  agree_options agree;
-  derive_options_cli derive;
-  retime_options_cli retime;
-  edit_options edit;
-  report_options report_opts;
-  const CLI::App* convert_cmd = setup_convert(app, convert);
-  const CLI::App* info_cmd = setup_info(app, info);
-  const CLI::App* check_cmd = setup_check(app, check);
-  const CLI::App* merge_cmd = setup_merge(app, merge);
-  const CLI::App* agree_cmd = setup_agree(app, agree);
-  const CLI::App* derive_cmd = setup_derive(app, derive);
-  const CLI::App* retime_cmd = setup_retime(app, retime);
-  const CLI::App* edit_cmd = setup_edit(app, edit);
-  const CLI::App* report_cmd = setup_report(app, report_opts);
+  int status = exit_ok;  // set by the command that runs
+  for (auto setup : all_commands)
+    setup(app, status);
 
   try {
     app.parse(argc, argv);
-    if (convert_cmd->parsed()) return run_convert(convert);
-    if (info_cmd->parsed()) return run_info(info);
-    if (check_cmd->parsed()) return run_check(check);
-    if (merge_cmd->parsed()) return run_merge(merge);
-    if (agree_cmd->parsed()) return run_agree(agree);
-    if (derive_cmd->parsed()) return run_derive(derive);
-    if (retime_cmd->parsed()) return run_retime(retime);
-    if (edit_cmd->parsed()) return run_edit(edit);
-    if (report_cmd->parsed()) return run_report(report_opts);
   } catch (const CLI::CallForHelp& e) {
     return app.exit(e);
   } catch (const CLI::CallForAllHelp& e) {
@@ -79,5 +47,5 @@ int main(int argc, char** argv) {
     std::fprintf(stderr, "tiers: error: out of memory\n");
     return exit_rejected;
   }
-  return exit_ok;
+  return status;
 }

@@ -10,7 +10,9 @@
 
 namespace tiers::cli {
 
-CLI::App* setup_merge(CLI::App& app, merge_options& o) {
+void setup_merge(CLI::App& app, int& status) {
+  auto options = std::make_shared<merge_options>();
+  merge_options& o = *options;
   CLI::App* cmd = app.add_subcommand(
       "merge", "Join the tiers of several files of one recording; combine human and machine tiers");
   cmd->add_option("inputs", o.paths, "Files to merge (after the plan's inputs, if any)")
@@ -52,7 +54,7 @@ CLI::App* setup_merge(CLI::App& app, merge_options& o) {
   add_output_options(
       *cmd, o.output, o.to, o.allow_loss,
       "Output file, or - for standard output (with --to); needed unless --print-plan");
-  return cmd;
+  cmd->callback([options, &status] { status = run_merge(*options); });
 }
 
 namespace {

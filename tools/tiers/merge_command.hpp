@@ -3,6 +3,7 @@
 #pragma once
 
 #include <CLI/CLI.hpp>
+#include <memory>
 #include <string>
 #include <vector>
 
@@ -25,8 +26,9 @@ struct merge_options {
   bool allow_loss = false;
 };
 
-/// Adds the subcommand to `app`; its options land in `options`.
-CLI::App* setup_merge(CLI::App& app, merge_options& options);
+/// Adds the subcommand to `app` with its options; when it is the one given, it runs after
+/// parsing and its exit status lands in `status`.
+void setup_merge(CLI::App& app, int& status);
 int run_merge(const merge_options& options);
 
 }  // namespace tiers::cli

@@ -9,7 +9,9 @@
 
 namespace tiers::cli {
 
-CLI::App* setup_report(CLI::App& app, report_options& o) {
+void setup_report(CLI::App& app, int& status) {
+  auto options = std::make_shared<report_options>();
+  report_options& o = *options;
   CLI::App* cmd = app.add_subcommand(
       "report", "Draw tier files on one HTML page: lanes on a time axis, problems, lag, agreement");
   check_options& c = o.check;
@@ -44,7 +46,7 @@ CLI::App* setup_report(CLI::App& app, report_options& o) {
   cmd->add_option("--jobs", c.jobs, "Files read and checked at once (default: one per core)")
       ->type_name("N");
   add_input_options(*cmd, c.input);
-  return cmd;
+  cmd->callback([options, &status] { status = run_report(*options); });
 }
 
 namespace {

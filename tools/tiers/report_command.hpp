@@ -5,6 +5,7 @@
 
 #include <CLI/CLI.hpp>
 #include <cstddef>
+#include <memory>
 #include <string>
 
 #include "agree_command.hpp"
@@ -32,8 +33,9 @@ constexpr std::size_t html_drawn_files = 100;
 /// Writes the page for what `run` found, atomically.
 void write_html_page(const html_request& page, const check_run& run, const profile& p);
 
-/// Adds the subcommand to `app`; its options land in `options`.
-CLI::App* setup_report(CLI::App& app, report_options& options);
+/// Adds the subcommand to `app` with its options; when it is the one given, it runs after
+/// parsing and its exit status lands in `status`.
+void setup_report(CLI::App& app, int& status);
 int run_report(const report_options& options);
 
 }  // namespace tiers::cli

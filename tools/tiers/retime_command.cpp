@@ -10,7 +10,9 @@
 
 namespace tiers::cli {
 
-CLI::App* setup_retime(CLI::App& app, retime_options_cli& o) {
+void setup_retime(CLI::App& app, int& status) {
+  auto options = std::make_shared<retime_options_cli>();
+  retime_options_cli& o = *options;
   CLI::App* cmd = app.add_subcommand("retime", "Move caption cues onto their words' timings");
   cmd->add_option("captions", o.input.path, "The caption file, or - for standard input")
       ->required()
@@ -37,7 +39,7 @@ CLI::App* setup_retime(CLI::App& app, retime_options_cli& o) {
   cmd->add_flag("--json", o.json, "Print the report as JSON");
   add_input_options(*cmd, o.input);
   add_output_options(*cmd, o.output, o.to, o.allow_loss);
-  return cmd;
+  cmd->callback([options, &status] { status = run_retime(*options); });
 }
 
 namespace {

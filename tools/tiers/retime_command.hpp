@@ -2,6 +2,7 @@
 #pragma once
 
 #include <CLI/CLI.hpp>
+#include <memory>
 #include <string>
 
 #include "cli_common.hpp"
@@ -16,8 +17,9 @@ struct retime_options_cli {
   bool allow_loss = false;
 };
 
-/// Adds the subcommand to `app`; its options land in `options`.
-CLI::App* setup_retime(CLI::App& app, retime_options_cli& options);
+/// Adds the subcommand to `app` with its options; when it is the one given, it runs after
+/// parsing and its exit status lands in `status`.
+void setup_retime(CLI::App& app, int& status);
 int run_retime(const retime_options_cli& options);
 
 }  // namespace tiers::cli
