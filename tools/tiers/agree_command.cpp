@@ -12,31 +12,6 @@
 
 namespace tiers::cli {
 
-void add_comparison_options(CLI::App& cmd, comparison_options& o) {
-  cmd.add_option("--step", o.step, "The time grid's step (default 10ms)")->type_name("DURATION");
-  cmd.add_option("--match", o.match,
-                 "Segments match by boundaries (default: onset and offset within --collar) or "
-                 "by overlap (at least --min-overlap of their union)")
-      ->check(CLI::IsMember({"boundaries", "overlap"}))
-      ->type_name("HOW");
-  cmd.add_option("--collar", o.collar, "Boundary tolerance for --match boundaries (200ms)")
-      ->type_name("DURATION");
-  cmd.add_option("--min-overlap", o.min_overlap, "Least overlap ratio for --match overlap (0.5)")
-      ->check(CLI::Range(0.0, 1.0))
-      ->type_name("X");
-  cmd.add_flag("--any-label", o.any_label, "Segments match whatever their labels");
-}
-
-segment_options segment_matching(const comparison_options& o) {
-  segment_options matching;
-  matching.by = o.match == "overlap" ? segment_options::criterion::overlap
-                                     : segment_options::criterion::boundaries;
-  matching.collar = parse_duration_option("--collar", o.collar, duration_kind::positive);
-  matching.min_overlap = o.min_overlap;
-  matching.same_label = !o.any_label;
-  return matching;
-}
-
 void setup_agree(CLI::App& app, int& status) {
   auto options = std::make_shared<agree_options>();
   agree_options& o = *options;

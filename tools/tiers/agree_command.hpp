@@ -7,25 +7,10 @@
 #include <vector>
 
 #include "cli_common.hpp"
+#include "comparison.hpp"
 #include "tiers/agree.hpp"
 
 namespace tiers::cli {
-
-/// How two tiers are compared, in `tiers agree` and in `tiers report`'s agreement strip: the
-/// time grid's step and how segments match.
-struct comparison_options {
-  std::string step = "10ms";
-  std::string match = "boundaries";
-  std::string collar = "200ms";
-  double min_overlap = 0.5;
-  bool any_label = false;
-};
-
-/// Adds --step, --match, --collar, --min-overlap and --any-label.
-void add_comparison_options(CLI::App& cmd, comparison_options& options);
-
-/// The segment matching the options ask for; a bad --collar is a usage error.
-segment_options segment_matching(const comparison_options& options);
 
 struct agree_options {
   input_options input;  ///< reading options for both files (path unused)

@@ -7,45 +7,13 @@
 #include <string>
 #include <vector>
 
-#include "cli_common.hpp"
-#include "tiers/check.hpp"
+#include "check_run.hpp"
 
 namespace tiers::cli {
-
-struct check_options {
-  input_options input;  ///< reading options for every file (path unused)
-  std::vector<std::string> paths;
-  std::string profile;
-  std::string captions;
-  std::string words;
-  std::string format = "text";
-  std::string output;
-  std::string html;   ///< also write the HTML report here
-  unsigned jobs = 0;  ///< 0: one per core
-  long max_warnings = -1;
-  std::string shard;     ///< K/N: this worker's part of the files
-  bool combine = false;  ///< the inputs are JSON reports of earlier runs, to join into one
-  bool list_rules = false;
-  bool list_profiles = false;
-};
 
 /// Adds the subcommand to `app` with its options; when it is the one given, it runs after
 /// parsing and its exit status lands in `status`.
 void setup_check(CLI::App& app, int& status);
 int run_check(const check_options& options);
-
-/// The profile named by --profile (a built-in name or a file); the defaults for none.
-profile load_check_profile(const std::string& name);
-
-/// What checking the inputs of `options` found, shared by `check` and `report`.
-struct check_run {
-  std::unique_ptr<words_file> words;  ///< --words FILE, which `roles` points into
-  check_context roles;
-  std::vector<file_report> reports;
-  std::vector<std::optional<document>> documents;  ///< the first few files', for drawing
-};
-/// Checks the files (or combines the reports) that `options` name against `p`, keeping the
-/// documents of the first `keep_documents` files.
-check_run run_checks(const check_options& options, const profile& p, std::size_t keep_documents);
 
 }  // namespace tiers::cli

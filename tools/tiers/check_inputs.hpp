@@ -5,7 +5,7 @@
 #include <string>
 #include <vector>
 
-#include "check_command.hpp"
+#include "check_run.hpp"
 #include "tiers/check.hpp"
 
 namespace tiers::cli {
