@@ -2,22 +2,10 @@
 # builds tools/tiers against the prefix alone (tests/standalone-cli) and checks that the
 # program so built converts a sample byte for byte as the one built in the tree does.
 # Inputs: BUILD_DIR, SOURCE_DIR, WORK_DIR, SANITIZE (may be empty).
-file(REMOVE_RECURSE ${WORK_DIR})
-function(step)
-  execute_process(COMMAND ${ARGV} RESULT_VARIABLE rc)
-  if(NOT rc EQUAL 0)
-    message(FATAL_ERROR "failed (${rc}): ${ARGV}")
-  endif()
-endfunction()
-set(prefix ${WORK_DIR}/prefix)
-step(${CMAKE_COMMAND} --install ${BUILD_DIR} --prefix ${prefix})
+include(${CMAKE_CURRENT_LIST_DIR}/install_prefix.cmake)
 file(GLOB_RECURSE private RELATIVE ${prefix} ${prefix}/include/tiers/detail/*)
 if(private)
   message(FATAL_ERROR "private headers are installed: ${private}")
-endif()
-set(flags "")
-if(SANITIZE)
-  set(flags -DCMAKE_CXX_FLAGS=-fsanitize=${SANITIZE} -DCMAKE_EXE_LINKER_FLAGS=-fsanitize=${SANITIZE})
 endif()
 step(${CMAKE_COMMAND} -S ${SOURCE_DIR}/tests/standalone-cli -B ${WORK_DIR}/build
      -DCMAKE_PREFIX_PATH=${prefix} -DTIERS_SOURCE_DIR=${SOURCE_DIR} ${flags})
