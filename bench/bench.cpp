@@ -33,13 +33,13 @@ int main(int argc, char** argv) {
       return 1;
     }
     std::size_t annotations = 0;
-    for (const tiers::tier& t : r.doc.tiers)
+    for (const tiers::tier& t : r.value.tiers)
       annotations += t.annotations.size();
     double write_seconds = 0;
     if (argc == 4) {
       const auto t2 = clock::now();
       tiers::atomic_file out(argv[3]);
-      tiers::find_format(argv[2])->write(r.doc, out, {});
+      tiers::find_format(argv[2])->write(r.value, out, {});
       out.commit();
       write_seconds = std::chrono::duration<double>(clock::now() - t2).count();
     }

@@ -1,9 +1,10 @@
 // Names of the model's enumerations and tier look-up.
 #include "tiers/model.hpp"
 
+#include <algorithm>
 #include <stdexcept>
 
-#include <algorithm>
+#include "tiers/diagnostic.hpp"
 
 namespace tiers {
 
@@ -34,6 +35,13 @@ const tier* find_tier(const document& doc, std::string_view name) {
 
 tier* find_tier(document& doc, std::string_view name) {
   return const_cast<tier*>(find_tier(static_cast<const document&>(doc), name));
+}
+
+std::string tier_names(const document& doc) {
+  std::string s;
+  for (const tier& t : doc.tiers)
+    s += (s.empty() ? "" : ", ") + quote_name(t.name);
+  return s.empty() ? "none" : s;
 }
 
 std::string_view to_string(tier_kind kind) {

@@ -206,7 +206,7 @@ read_result read_document(std::string_view input, const format& fmt, const read_
   } else {
     result = fmt.read(input, options);
     if (result.ok())
-      if (auto breach = find_breach(result.doc, options)) {
+      if (auto breach = find_breach(result.value, options)) {
         // Read again with positions (only now, when they are needed) to say where it is.
         read_options located = options;
         located.positions = true;
@@ -224,37 +224,35 @@ read_result read_document(std::string_view input, const format& fmt, const read_
       }
   }
   locate_all(input, result.diagnostics);
-  if (options.positions) locate_positions(input, result.doc, result.positions);
+  if (options.positions) locate_positions(input, result.value, result.positions);
   for (diagnostic& d : result.diagnostics)
     d.file = file_name;
   return result;
 }
 
-std::optional<column_map> parse_column_map(std::string_view text, std::string& problem) {
+result<column_map> parse_column_map(std::string_view text) {
   static constexpr std::array<std::string_view, 9> roles{
       "tier", "start", "end", "duration", "text", "markup", "confidence", "id", "parent"};
-  column_map out;
+  result<column_map> out;
+  auto fail = [&](std::string message) {
+    out.diagnostics.push_back(
+        detail::make_diagnostic(severity::error, "columns.map", no_offset, std::move(message)));
+    return out;
+  };
   while (!text.empty()) {
     const std::size_t comma = text.find(',');
     const std::string_view item = text.substr(0, comma);
     text = comma == std::string_view::npos ? std::string_view{} : text.substr(comma + 1);
     const std::size_t eq = item.find('=');
-    if (eq == std::string_view::npos || eq == 0 || eq + 1 == item.size()) {
-      problem = "expected ROLE=COLUMN, got '" + std::string(item) + "'";
-      return std::nullopt;
-    }
+    if (eq == std::string_view::npos || eq == 0 || eq + 1 == item.size())
+      return fail("expected ROLE=COLUMN, got '" + std::string(item) + "'");
     const std::string_view role = item.substr(0, eq);
-    if (std::find(roles.begin(), roles.end(), role) == roles.end()) {
-      problem = "unknown role '" + std::string(role) +
-                "' (roles: tier, start, end, duration, text, markup, confidence, id, parent)";
-      return std::nullopt;
-    }
-    for (const auto& [r, c] : out)
-      if (r == role) {
-        problem = "role '" + std::string(role) + "' is mapped twice";
-        return std::nullopt;
-      }
-    out.emplace_back(std::string(role), std::string(item.substr(eq + 1)));
+    if (std::find(roles.begin(), roles.end(), role) == roles.end())
+      return fail("unknown role '" + std::string(role) +
+                  "' (roles: tier, start, end, duration, text, markup, confidence, id, parent)");
+    for (const auto& [r, c] : out.value)
+      if (r == role) return fail("role '" + std::string(role) + "' is mapped twice");
+    out.value.emplace_back(std::string(role), std::string(item.substr(eq + 1)));
   }
   return out;
 }

@@ -15,7 +15,7 @@ int main() {
   std::string out;
   {
     tiers::string_sink sink(out);
-    csv->write(r.doc, sink, {});
+    csv->write(r.value, sink, {});
   }
   const std::string expected = "tier,start,end,text\r\nnotes,1.5,2.000000001,\"a, b\"\r\n";
   std::printf("%s", out.c_str());

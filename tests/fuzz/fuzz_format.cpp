@@ -139,7 +139,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   if (!r.ok()) return 0;
   // A control character the input holds is in the document, or a diagnostic says what became
   // of it: an `&#0;` that cut a text short without a word fails here.
-  if ((controls_in_input(in, fmt.name) & ~controls_in_document(r.doc)).any() &&
+  if ((controls_in_input(in, fmt.name) & ~controls_in_document(r.value)).any() &&
       r.diagnostics.empty())
     __builtin_trap();
   // Every writer writes UTF-8; what a format carries whole, it reads back without an error.
@@ -147,28 +147,28 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     std::string out;
     {
       tiers::string_sink sink(out);
-      to.write(r.doc, sink, {});
+      to.write(r.value, sink, {});
     }
     if (tiers::detail::find_invalid_utf8(out) != std::string_view::npos) __builtin_trap();
-    if (!tiers::find_losses(r.doc, to).empty()) continue;
+    if (!tiers::find_losses(r.value, to).empty()) continue;
     tiers::read_options plain;
     plain.tier_name = "fuzz";
     plain.rate = options.rate;
     if (!tiers::read_document(out, to, plain, "written").ok()) __builtin_trap();
   }
-  if (!tiers::find_losses(r.doc, fmt).empty()) return 0;  // said, not silent
+  if (!tiers::find_losses(r.value, fmt).empty()) return 0;  // said, not silent
   std::string written;
   {
     tiers::string_sink out(written);
-    fmt.write(r.doc, out, {});
+    fmt.write(r.value, out, {});
   }
   tiers::read_options again = options;
   again.positions = false;
   tiers::read_result back = tiers::read_document(written, fmt, again, "written");
   if (!back.ok()) __builtin_trap();
-  tiers::document first = r.doc;
+  tiers::document first = r.value;
   drop_spelling_only_markup(first);
-  drop_spelling_only_markup(back.doc);
-  if (!(back.doc == first)) __builtin_trap();  // a round trip that changed it
+  drop_spelling_only_markup(back.value);
+  if (!(back.value == first)) __builtin_trap();  // a round trip that changed it
   return 0;
 }

@@ -16,11 +16,11 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   std::string once;
   {
     tiers::string_sink out(once);
-    tiers::write_check_json(r.files, out);
+    tiers::write_check_json(r.value.files, out);
   }
   const tiers::report_result back = tiers::read_check_report(once, "again.json");
-  if (!back.ok() || back.files.size() != r.files.size()) __builtin_trap();
-  for (std::size_t k = 0; k < r.files.size(); ++k)
-    if (back.files[k].problems.size() != r.files[k].problems.size()) __builtin_trap();
+  if (!back.ok() || back.value.files.size() != r.value.files.size()) __builtin_trap();
+  for (std::size_t k = 0; k < r.value.files.size(); ++k)
+    if (back.value.files[k].problems.size() != r.value.files[k].problems.size()) __builtin_trap();
   return 0;
 }

@@ -69,8 +69,7 @@ TEST_CASE("csv: optional columns, attributes and empty cells", "[csv]") {
 TEST_CASE("csv from other tools: a column map, a fixed tier name, other time syntaxes",
           "[csv][columns]") {
   read_options o;
-  std::string problem;
-  o.columns = *parse_column_map("tier=Layer,start=Begin,end=End,text=Value", problem);
+  o.columns = parse_column_map("tier=Layer,start=Begin,end=End,text=Value").value;
   const document doc = read_as("csv",
                                "Layer,Begin,End,Value,Annotator\n"
                                "gesture,00:00:01.250,00:00:02.000,beat,R2\n"
@@ -129,14 +128,21 @@ TEST_CASE("csv without end or duration column is an instant tier", "[csv]") {
 }
 
 TEST_CASE("column maps are checked", "[csv][columns]") {
-  std::string problem;
-  CHECK_FALSE(parse_column_map("start", problem));
-  CHECK_THAT(problem, Catch::Contains("ROLE=COLUMN"));
-  CHECK_FALSE(parse_column_map("begin=Start", problem));
-  CHECK_THAT(problem, Catch::Contains("unknown role 'begin'"));
-  CHECK_FALSE(parse_column_map("start=A,start=B", problem));
-  CHECK_THAT(problem, Catch::Contains("mapped twice"));
-  CHECK(parse_column_map("start=Begin,end=End", problem)->size() == 2);
+  const auto problem = [](std::string_view text) {
+    const result<column_map> r = parse_column_map(text);
+    REQUIRE(r.diagnostics.size() == 1);
+    CHECK(r.diagnostics[0].code == "columns.map");
+    CHECK_FALSE(r.ok());
+    return r.diagnostics[0].message;
+  };
+  CHECK(problem("start") == "expected ROLE=COLUMN, got 'start'");
+  CHECK(problem("begin=Start") ==
+        "unknown role 'begin' (roles: tier, start, end, duration, text, markup, confidence, id, "
+        "parent)");
+  CHECK(problem("start=A,start=B") == "role 'start' is mapped twice");
+  const result<column_map> good = parse_column_map("start=Begin,end=End");
+  CHECK(good.ok());
+  CHECK(good.value == column_map{{"start", "Begin"}, {"end", "End"}});
 }
 
 TEST_CASE("bad csv is rejected with its physical line and column", "[csv][bad-input]") {
@@ -176,8 +182,7 @@ TEST_CASE("bad csv is rejected with its physical line and column", "[csv][bad-in
 
 TEST_CASE("csv reports a mapped column that is missing", "[csv][columns][bad-input]") {
   read_options o;
-  std::string problem;
-  o.columns = *parse_column_map("start=Begin", problem);
+  o.columns = parse_column_map("start=Begin").value;
   const diagnostic d = first_error("csv", "Start,End\n1,2\n", o);
   CHECK(d.code == "csv.header");
   CHECK_THAT(d.message, Catch::Contains("no column 'Begin' for role 'start'"));

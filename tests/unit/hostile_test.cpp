@@ -214,7 +214,7 @@ TEST_CASE("a NUL in a text is kept, refused or replaced with a warning: never cu
       continue;
     }
     REQUIRE(r.ok());
-    const std::string& text = r.doc.tiers.at(0).annotations.at(0).text;
+    const std::string& text = r.value.tiers.at(0).annotations.at(0).text;
     if (c.outcome == sample_case::kept) {
       CHECK(text == "a\0b"s);
       CHECK(r.diagnostics.empty());

@@ -129,18 +129,18 @@ TEST_CASE("merging documents: clash rules, parents follow, media must agree", "[
   plan.clash = clash_rule::prefix_file;
   r = merge_documents({input("a/anna.json", "x"), input("b/ben.json", "y")}, plan);
   REQUIRE(r.ok());
-  REQUIRE(r.doc.tiers.size() == 4);
-  CHECK(r.doc.tiers[0].name == "anna:gestures");
-  CHECK(r.doc.tiers[3].name == "ben:phases");
-  CHECK(r.doc.tiers[3].parent->tier == "ben:gestures");
-  CHECK(r.doc.tiers[0].source->agent == "x");  // every tier keeps its source
-  CHECK(r.doc.metadata.at("merge:inputs") == "a/anna.json\nb/ben.json");
-  CHECK(r.doc.metadata.at("merge:plan").find("\"clash\": \"prefix-file\"") != std::string::npos);
+  REQUIRE(r.value.tiers.size() == 4);
+  CHECK(r.value.tiers[0].name == "anna:gestures");
+  CHECK(r.value.tiers[3].name == "ben:phases");
+  CHECK(r.value.tiers[3].parent->tier == "ben:gestures");
+  CHECK(r.value.tiers[0].source->agent == "x");  // every tier keeps its source
+  CHECK(r.value.metadata.at("merge:inputs") == "a/anna.json\nb/ben.json");
+  CHECK(r.value.metadata.at("merge:plan").find("\"clash\": \"prefix-file\"") != std::string::npos);
 
   plan.clash = clash_rule::prefix_source;
   r = merge_documents({input("a/anna.json", "x"), input("b/ben.json", "y")}, plan);
   REQUIRE(r.ok());
-  CHECK(r.doc.tiers[2].name == "y:gestures");
+  CHECK(r.value.tiers[2].name == "y:gestures");
   r = merge_documents({input("a/anna.json", "x"), input("b/ben.json", "x")}, plan);
   CHECK_FALSE(r.ok());  // both from agent x: the names still clash, and that is said
 
@@ -181,9 +181,10 @@ TEST_CASE("shifts: by a constant, and by an estimated offset with its spread", "
   plan.shifts = {estimated, constant};
   const merge_result r = merge_documents({human_in, machine_in}, plan);
   REQUIRE(r.ok());
-  CHECK(r.doc.tiers[0].annotations[0].start == ns_per_second);
-  CHECK(r.doc.metadata.at("merge:shift:machine").find("estimated against 'human' from 20 pairs") !=
-        std::string::npos);
+  CHECK(r.value.tiers[0].annotations[0].start == ns_per_second);
+  CHECK(
+      r.value.metadata.at("merge:shift:machine").find("estimated against 'human' from 20 pairs") !=
+      std::string::npos);
 }
 
 TEST_CASE("plans: read, written back the same, mistakes located", "[merge]") {

@@ -32,13 +32,13 @@ TEST_CASE("every reader locates each annotation of the samples", "[positions]") 
     options.tier_name = "captions";
     const read_result r = read_document(text, *find_format(name), options, file);
     REQUIRE(r.ok());
-    REQUIRE(r.positions.tiers.size() == r.doc.tiers.size());
+    REQUIRE(r.positions.tiers.size() == r.value.tiers.size());
     std::size_t previous_line = 0;
-    for (std::size_t t = 0; t < r.doc.tiers.size(); ++t) {
+    for (std::size_t t = 0; t < r.value.tiers.size(); ++t) {
       CHECK(r.positions.of_tier(t).line > 0);
       // Word tiers made from cue text sit inside their cues: their lines are the cues'.
-      if (r.doc.tiers[t].name.ends_with(".words")) continue;
-      for (std::size_t a = 0; a < r.doc.tiers[t].annotations.size(); ++a) {
+      if (r.value.tiers[t].name.ends_with(".words")) continue;
+      for (std::size_t a = 0; a < r.value.tiers[t].annotations.size(); ++a) {
         const source_position p = r.positions.of_annotation(t, a);
         REQUIRE(p.line > 0);
         CHECK(p.column >= 1);
@@ -65,7 +65,7 @@ TEST_CASE("table rows are located by their physical line", "[positions]") {
       read_document("tier,start,end,text\na,1,2,\"two\nlines\"\nb,3,4,y\na,5,6,z\n",
                     *find_format("csv"), options);
   REQUIRE(r.ok());
-  REQUIRE(r.doc.tiers.size() == 2);
+  REQUIRE(r.value.tiers.size() == 2);
   CHECK(r.positions.of_tier(1).line == 4);
   CHECK(r.positions.of_annotation(0, 1).line == 5);
   CHECK(r.positions.of_annotation(1, 0).line == 4);

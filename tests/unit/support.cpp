@@ -97,7 +97,7 @@ document read_as(std::string_view name, std::string_view text, const read_option
   for (const diagnostic& d : r.diagnostics)
     UNSCOPED_INFO(format_diagnostic(d));
   REQUIRE(r.ok());
-  return r.doc;
+  return r.value;
 }
 
 diagnostic first_error(std::string_view name, std::string_view text, const read_options& options) {

@@ -322,7 +322,7 @@ TEST_CASE("ttml writer: every value is escaped or listed lost; XML never repeats
   const read_result back = read_document(text, *find_format("ttml"), o, "back.ttml");
   INFO(text);
   REQUIRE(back.ok());
-  const tier& r = back.doc.tiers.at(0);
+  const tier& r = back.value.tiers.at(0);
   CHECK(r.attributes.at("ttml:style") == "s1");
   CHECK(r.attributes.count("ttml:begin") == 0);
   REQUIRE(r.annotations.size() == 6);

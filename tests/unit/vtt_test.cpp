@@ -63,8 +63,8 @@ TEST_CASE("vtt timestamps follow the digit and range rules", "[vtt]") {
   auto first_start = [](std::string_view stamp) -> std::optional<time_ns> {
     const std::string text = "WEBVTT\n\n" + std::string(stamp) + " --> 999:00:00.000\nx\n";
     const read_result r = read_document(text, *find_format("vtt"), {}, "t");
-    if (r.doc.tiers.empty() || r.doc.tiers[0].annotations.empty()) return std::nullopt;
-    return r.doc.tiers[0].annotations[0].start;
+    if (r.value.tiers.empty() || r.value.tiers[0].annotations.empty()) return std::nullopt;
+    return r.value.tiers[0].annotations[0].start;
   };
   CHECK(first_start("60:00:00.000") == 216000 * ns_per_second);
   CHECK(first_start("000:00:00.000") == 0);
@@ -190,8 +190,8 @@ TEST_CASE("vtt cues with invalid timing lines are skipped with a located warning
       "WEBVTT\n\n00:00.000 --> 00:01.00\nskipped\n\n00:01.000 --> 00:0x.000\nskipped too\n";
   const read_result r = read_document(text, *find_format("vtt"), {}, "t");
   CHECK(r.ok());
-  REQUIRE(r.doc.tiers.size() == 1);
-  CHECK(r.doc.tiers[0].annotations.empty());
+  REQUIRE(r.value.tiers.size() == 1);
+  CHECK(r.value.tiers[0].annotations.empty());
   REQUIRE(r.diagnostics.size() == 2);
   CHECK(r.diagnostics[0].code == "vtt.timing");
   CHECK(r.diagnostics[0].line == 3);
@@ -358,10 +358,10 @@ TEST_CASE("vtt writer: '>' is escaped only where a line would hold '-->'", "[vtt
   CHECK(text == "WEBVTT\n\n00:00:00.000 --> 00:00:01.000\n<v Ana -- >a > b, x --&gt; y\n");
   const read_result back = read_document(text, *find_format("vtt"), {}, "cap");
   REQUIRE(back.ok());
-  REQUIRE(back.doc.tiers.size() == 1);
-  REQUIRE(back.doc.tiers[0].annotations.size() == 1);
-  CHECK(back.doc.tiers[0].annotations[0].text == "a > b, x --> y");
-  CHECK(back.doc.tiers[0].annotations[0].attributes.at("speaker") == "Ana --");
+  REQUIRE(back.value.tiers.size() == 1);
+  REQUIRE(back.value.tiers[0].annotations.size() == 1);
+  CHECK(back.value.tiers[0].annotations[0].text == "a > b, x --> y");
+  CHECK(back.value.tiers[0].annotations[0].attributes.at("speaker") == "Ana --");
 }
 
 TEST_CASE("vtt writer: markup whose inline timestamps left the cue is not written",
@@ -388,7 +388,7 @@ TEST_CASE("vtt with invalid UTF-8 is decoded with replacement, as the specificat
   const read_result r = read_document("WEBVTT\n\n00:00.000 --> 00:01.000\ncaf\xE9 \xF0\x9F\n",
                                       *find_format("vtt"), {}, "t");
   CHECK(r.ok());
-  CHECK(r.doc.tiers[0].annotations[0].text == "caf\xEF\xBF\xBD \xEF\xBF\xBD");
+  CHECK(r.value.tiers[0].annotations[0].text == "caf\xEF\xBF\xBD \xEF\xBF\xBD");
   REQUIRE_FALSE(r.diagnostics.empty());
   CHECK(r.diagnostics[0].code == "input.utf8");
   CHECK(r.diagnostics[0].level == severity::warning);
@@ -470,18 +470,18 @@ TEST_CASE("mutated WebVTT that reads without loss writes and reads back the same
       }
     }
     const read_result first = read_document(text, vtt, {}, "m");
-    if (!first.ok() || !find_losses(first.doc, vtt).empty()) continue;
+    if (!first.ok() || !find_losses(first.value, vtt).empty()) continue;
     std::string written;
     {
       string_sink sink(written);
-      vtt.write(first.doc, sink, {});
+      vtt.write(first.value, sink, {});
     }
     read_result second = read_document(written, vtt, {}, "m");
     REQUIRE(second.ok());
     // The writer puts cues in start-time order, and spells a bare '&' of the file as "&amp;"
     // (§4.2.2): markup without tags is only spelling, and is left out of the comparison.
-    document expected = first.doc;
-    for (document* d : {&expected, &second.doc})
+    document expected = first.value;
+    for (document* d : {&expected, &second.value})
       for (tier& t : d->tiers) {
         std::stable_sort(
             t.annotations.begin(), t.annotations.end(),
@@ -490,7 +490,7 @@ TEST_CASE("mutated WebVTT that reads without loss writes and reads back the same
           if (a.markup && a.markup->find('<') == std::string::npos) a.markup.reset();
       }
     INFO(text);
-    CHECK(second.doc == expected);
+    CHECK(second.value == expected);
     ++checked;
   }
   CHECK(checked > 200);

@@ -56,11 +56,9 @@ loaded load(const agree_options& o, const std::string& path) {
 const tier& tier_in(const loaded& l, const std::string& name) {
   if (name.empty()) {
     if (l.doc.tiers.size() == 1) return l.doc.tiers.front();
-    std::string names;
-    for (const tier& t : l.doc.tiers)
-      names += (names.empty() ? "" : ", ") + quote_name(t.name);
     throw usage_error(l.file + " has " + std::to_string(l.doc.tiers.size()) +
-                      " tiers; name one with --tier, --ref-tier or --cand-tier (" + names + ")");
+                      " tiers; name one with --tier, --ref-tier or --cand-tier (" +
+                      tier_names(l.doc) + ")");
   }
   if (const tier* t = find_tier(l.doc, name)) return *t;
   diagnostic d;

@@ -43,10 +43,10 @@ file_report check_one(const std::string& path, const check_options& o, const pro
   check_context roles = shared;
   roles.instant_tiers = fmt->carries.has(feature::instant_tiers);
   // A WebVTT file is a caption file: its cues are checked as captions unless told otherwise.
-  if (!roles.captions && !p.captions && fmt->name == "vtt" && !r.doc.tiers.empty())
-    roles.captions = r.doc.tiers.front().name;
-  file_report report = check_document(r.doc, r.positions, name, p, roles, r.diagnostics);
-  if (keep) *keep = std::move(r.doc);
+  if (!roles.captions && !p.captions && fmt->name == "vtt" && !r.value.tiers.empty())
+    roles.captions = r.value.tiers.front().name;
+  file_report report = check_document(r.value, r.positions, name, p, roles, r.diagnostics);
+  if (keep) *keep = std::move(r.value);
   return report;
 }
 

@@ -26,7 +26,7 @@ std::vector<file_report> combine_reports(const std::vector<std::string>& paths, 
   for (const std::string& path : paths) {
     const std::string text = read_input(path);
     report_result r = read_check_report(text, display_name(path));
-    for (const file_report& f : r.files) {
+    for (const file_report& f : r.value.files) {
       const auto [it, fresh] = reported_in.emplace(f.path, path);
       if (fresh) continue;
       diagnostic d;
@@ -41,7 +41,7 @@ std::vector<file_report> combine_reports(const std::vector<std::string>& paths, 
     for (const diagnostic& d : r.diagnostics)
       report(d);
     failed = failed || !r.ok();
-    const std::optional<profile_identity>& made = r.header.profile;
+    const std::optional<profile_identity>& made = r.value.header.profile;
     if (r.ok() &&
         (made.has_value() != wanted.has_value() || (made && made->digest != wanted->digest))) {
       diagnostic d;
@@ -56,7 +56,7 @@ std::vector<file_report> combine_reports(const std::vector<std::string>& paths, 
       report(d);
       failed = true;
     }
-    for (file_report& f : r.files)
+    for (file_report& f : r.value.files)
       all.push_back(std::move(f));
   }
   if (failed) throw rejected();
@@ -74,11 +74,7 @@ std::vector<file_report> combine_reports(const std::vector<std::string>& paths, 
 
 profile load_check_profile(const std::string& name) {
   if (name.empty()) return {};
-  profile_result r = load_profile(name);
-  for (const diagnostic& d : r.diagnostics)
-    report(d);
-  if (!r.ok()) throw rejected();
-  return std::move(r.value);
+  return take(load_profile(name));
 }
 
 check_run run_checks(const check_options& o, const profile& p, std::size_t keep_documents) {

@@ -113,6 +113,14 @@ void report(const diagnostic& d) {
   std::fputs(text.c_str(), stderr);
 }
 
+void report_all(std::vector<diagnostic> diagnostics, std::string_view file) {
+  for (diagnostic& d : diagnostics) {
+    if (d.file.empty()) d.file = file;
+    report(d);
+  }
+  if (has_errors(diagnostics)) throw rejected();
+}
+
 std::string format_names() {
   std::string s;
   for (const format& f : formats())
@@ -174,10 +182,9 @@ const format* input_format(const input_options& in, const std::string& path,
 read_options reading_options(const input_options& in, const std::string& path) {
   read_options options;
   if (!in.columns.empty()) {
-    std::string problem;
-    auto map = parse_column_map(in.columns, problem);
-    if (!map) throw usage_error("--columns: " + problem);
-    options.columns = std::move(*map);
+    result<column_map> map = parse_column_map(in.columns);
+    if (!map.ok()) throw usage_error("--columns: " + map.diagnostics.front().message);
+    options.columns = std::move(map.value);
   }
   if (!in.rate.empty()) options.rate = parse_rate_option(in.rate);
   options.strict = in.strict;
@@ -280,20 +287,16 @@ document load_document(const input_options& in, std::string* given_name, bool* w
   const std::string content = read_input(in.path);
   diagnostic why;
   const format* fmt = input_format(in, in.path, content, why);
-  if (!fmt) {
-    report(why);
-    throw rejected();
-  }
+  if (!fmt) report_all({why});
   read_result result = read_document(content, *fmt, options, display_name(in.path));
-  for (const diagnostic& d : result.diagnostics) {
-    report(d);
-    if (warned && d.level == severity::warning) *warned = true;
-  }
-  if (!result.ok()) throw rejected();
-  if (given_name && !fmt->carries.has(feature::several_tiers) && !result.doc.tiers.empty() &&
-      result.doc.tiers.front().name == options.tier_name)
+  if (warned)
+    *warned = std::any_of(result.diagnostics.begin(), result.diagnostics.end(),
+                          [](const diagnostic& d) { return d.level == severity::warning; });
+  document doc = take(std::move(result));
+  if (given_name && !fmt->carries.has(feature::several_tiers) && !doc.tiers.empty() &&
+      doc.tiers.front().name == options.tier_name)
     *given_name = options.tier_name;
-  return std::move(result.doc);
+  return doc;
 }
 
 }  // namespace tiers::cli

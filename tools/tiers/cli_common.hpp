@@ -104,6 +104,17 @@ std::vector<std::size_t> shard_places(const std::vector<std::string>& files,
 /// Prints one diagnostic to standard error.
 void report(const diagnostic& d);
 
+/// Prints every diagnostic, naming `file` where one names no file; throws rejected when one of
+/// them is an error. The one way a command turns a library's diagnostics into its exit status.
+void report_all(std::vector<diagnostic> diagnostics, std::string_view file = {});
+
+/// A result's value, once its diagnostics are printed by report_all (which throws on errors).
+template <class T>
+T take(result<T>&& r, std::string_view file = {}) {
+  report_all(std::move(r.diagnostics), file);
+  return std::move(r.value);
+}
+
 /// The name diagnostics use for a path: `<stdin>` for `-`.
 std::string display_name(const std::string& path);
 

@@ -13,6 +13,7 @@
 #include <numeric>
 #include <unordered_set>
 
+#include "tiers/edit.hpp"
 #include "tiers/io.hpp"
 #include "tiers/voices.hpp"
 
@@ -55,30 +56,6 @@ void setup_convert(CLI::App& app, int& status) {
 
 namespace {
 
-void keep_tiers(document& doc, const std::vector<std::string>& names, const std::string& file) {
-  if (names.empty()) return;
-  for (const std::string& n : names)
-    if (!find_tier(doc, n)) {
-      std::string known;
-      for (const tier& t : doc.tiers)
-        known += (known.empty() ? "" : ", ") + tiers::quote_name(t.name);
-      diagnostic d;
-      d.file = file;
-      d.code = "convert.tier";
-      d.message =
-          "no tier " + tiers::quote_name(n) + " (tiers: " + (known.empty() ? "none" : known) + ")";
-      report(d);
-      throw rejected();
-    }
-  std::erase_if(doc.tiers, [&](const tier& t) {
-    return std::find(names.begin(), names.end(), t.name) == names.end();
-  });
-}
-
-}  // namespace
-
-namespace {
-
 // One conversion; throws rejected (reasons printed) or tiers::error. `replaces_input`: the
 // output is the input itself, which only a lossless conversion may replace.
 void convert_one(const convert_options& o, const input_options& in, const format& to,
@@ -94,10 +71,9 @@ void convert_one(const convert_options& o, const input_options& in, const format
     d.message =
         "--in-place: reading it gave warnings (above), so its conversion is not "
         "lossless; the file is left as it was";
-    report(d);
-    throw rejected();
+    report_all({d});
   }
-  keep_tiers(doc, o.tiers, file);
+  if (!o.tiers.empty()) report_all(select_tiers(doc, o.tiers), file);
   std::vector<std::string> losses;
   if (o.voices) {
     const std::string name =

@@ -98,12 +98,8 @@ int run_derive(const derive_options_cli& o) {
                                                   : signal_format::csv,
                                 so);
   locate_all(text, r.diagnostics);
-  for (diagnostic& diag : r.diagnostics) {
-    diag.file = display_name(o.path);
-    report(diag);
-  }
-  if (!r.ok()) return exit_rejected;
-  write_output(derive_tiers(r.value, d), to, o.output, o.allow_loss, display_name(o.path));
+  const signal table = take(std::move(r), display_name(o.path));
+  write_output(derive_tiers(table, d), to, o.output, o.allow_loss, display_name(o.path));
   return exit_ok;
 }
 

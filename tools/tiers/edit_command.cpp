@@ -69,20 +69,21 @@ int run_edit(const edit_options& o) {
   const std::string file = display_name(o.input.path);
   std::map<const CLI::Option*, std::size_t> used;  // how many values of each option are done
   std::vector<std::string> selected;  // consecutive --select options make one selection
-  auto fail = [&](const std::string& name, const std::string& problem) {
-    diagnostic d;
-    d.file = file;
-    d.code =
-        name == "--shift" || name == "--scale" || name == "--snap" ? "time.range" : "edit.tier";
-    d.message = name + ": " + problem;
-    report(d);
-    return exit_rejected;
+  // The library names the problem; the command adds the file and the option it came from.
+  auto refused = [&](const std::string& name, std::vector<diagnostic> problems) {
+    if (problems.empty()) return false;
+    for (diagnostic& d : problems) {
+      d.file = file;
+      d.message = name + ": " + d.message;
+      report(d);
+    }
+    return true;
   };
-  auto flush_selection = [&]() -> std::optional<std::string> {
-    if (selected.empty()) return std::nullopt;
-    auto problem = select_tiers(doc, selected);
+  auto flush_selection = [&]() {
+    if (selected.empty()) return false;
+    const bool bad = refused("--select", select_tiers(doc, selected));
     selected.clear();
-    return problem;
+    return bad;
   };
   for (const CLI::Option* opt : o.command->parse_order()) {
     const std::string name = opt->get_name();
@@ -91,47 +92,39 @@ int run_edit(const edit_options& o) {
       selected.push_back(o.selects[k]);
       continue;
     }
-    if (auto problem = flush_selection()) return fail("--select", *problem);
-    std::optional<std::string> problem;
+    if (flush_selection()) return exit_rejected;
+    std::vector<diagnostic> problems;
     if (name == "--shift") {
-      problem =
+      problems =
           shift_times(doc, parse_duration_option("--shift", o.shifts[k], duration_kind::offset));
     } else if (name == "--scale") {
       const std::string& v = o.scales[k];
       const std::size_t colon = v.find(':');
       if (colon == std::string::npos)
         throw usage_error("--scale: expected FROM:TO, got '" + v + "'");
-      problem = scale_times(doc, parse_rate_option(v.substr(0, colon)),
-                            parse_rate_option(v.substr(colon + 1)));
+      problems = scale_times(doc, parse_rate_option(v.substr(0, colon)),
+                             parse_rate_option(v.substr(colon + 1)));
     } else if (name == "--snap") {
-      problem = snap_times(doc, parse_rate_option(o.snaps[k]));
+      problems = snap_times(doc, parse_rate_option(o.snaps[k]));
     } else if (name == "--cut") {
       const std::string& v = o.cuts[k];
       const std::size_t dots = v.find("..");
       if (dots == std::string::npos)
         throw usage_error("--cut: expected START..END, got '" + v + "'");
-      problem = cut_times(doc, time_option("--cut", std::string_view(v).substr(0, dots)),
-                          time_option("--cut", std::string_view(v).substr(dots + 2)), o.from_zero);
+      problems = cut_times(doc, time_option("--cut", std::string_view(v).substr(0, dots)),
+                           time_option("--cut", std::string_view(v).substr(dots + 2)), o.from_zero);
     } else if (name == "--drop") {
-      problem = drop_tier(doc, o.drops[k]);
+      problems = drop_tier(doc, o.drops[k]);
     } else if (name == "--rename") {
       const std::string& v = o.renames[k];
       const std::size_t eq = v.find('=');
       if (eq == std::string::npos || eq == 0 || eq + 1 == v.size())
         throw usage_error("--rename: expected OLD=NEW, got '" + v + "'");
-      problem = rename_tier(doc, v.substr(0, eq), v.substr(eq + 1));
+      problems = rename_tier(doc, v.substr(0, eq), v.substr(eq + 1));
     }
-    if (name != "--select") selected.clear();
-    if (problem) {
-      diagnostic d;
-      d.file = file;
-      d.code =
-          name == "--shift" || name == "--scale" || name == "--snap" ? "time.range" : "edit.tier";
-      d.message = name + ": " + *problem;
-      report(d);
-      return exit_rejected;
-    }
+    if (refused(name, std::move(problems))) return exit_rejected;
   }
+  if (flush_selection()) return exit_rejected;
   write_output(doc, to, o.output, o.allow_loss, file, {}, given_name);
   return exit_ok;
 }

@@ -72,15 +72,8 @@ merge_plan make_plan(const merge_options& o) {
   merge_plan plan;
   if (!o.plan.empty()) {
     const std::string text = read_input(o.plan);
-    plan_result r = read_merge_plan(text, display_name(o.plan));
-    for (const diagnostic& d : r.diagnostics)
-      report(d);
-    if (!r.ok()) throw rejected();
-    plan = std::move(r.value);
-    const std::vector<diagnostic> outside = place_plan_inputs(plan, display_name(o.plan));
-    for (const diagnostic& d : outside)
-      report(d);
-    if (!outside.empty()) throw rejected();
+    plan = take(read_merge_plan(text, display_name(o.plan)));
+    report_all(place_plan_inputs(plan, display_name(o.plan)));
   }
   for (const std::string& p : o.paths)
     plan.inputs.push_back(p);
@@ -161,13 +154,8 @@ int run_merge(const merge_options& o) {
     }
   }
   if (failed) return exit_rejected;
-  merge_result r = merge_documents(std::move(inputs), plan);
-  for (diagnostic& d : r.diagnostics) {
-    if (d.file.empty()) d.file = "merge";
-    report(d);
-  }
-  if (!r.ok()) return exit_rejected;
-  write_output(r.doc, to, o.output, o.allow_loss, "merge");
+  const document merged = take(merge_documents(std::move(inputs), plan), "merge");
+  write_output(merged, to, o.output, o.allow_loss, "merge");
   return exit_ok;
 }
 

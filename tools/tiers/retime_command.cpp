@@ -77,15 +77,13 @@ std::string text_report(const retime_result& r, const tier& before) {
 // Names the tier that is not there and the tiers that are, and the one option that picks it.
 int missing_tier(const std::string& file, const document& doc, const std::string& name,
                  const char* role, const char* option) {
-  std::string there;
-  for (const tier& t : doc.tiers)
-    there += (there.empty() ? "" : ", ") + quote_name(t.name);
   diagnostic d;
   d.file = file;
   d.code = "retime.tier";
-  d.message = "no tier " + quote_name(name) + " for " + role + " (" +
-              (there.empty() ? std::string("the file has no tiers") : "its tiers: " + there) +
-              "); name " + role + " with " + option;
+  d.message =
+      "no tier " + quote_name(name) + " for " + role + " (" +
+      (doc.tiers.empty() ? std::string("the file has no tiers") : "its tiers: " + tier_names(doc)) +
+      "); name " + role + " with " + option;
   report(d);
   return exit_rejected;
 }
@@ -94,14 +92,7 @@ int missing_tier(const std::string& file, const document& doc, const std::string
 
 int run_retime(const retime_options_cli& o) {
   const format& to = output_format(o.to, o.output);
-  profile p;
-  if (!o.profile.empty()) {
-    profile_result r = load_profile(o.profile);
-    for (const diagnostic& d : r.diagnostics)
-      report(d);
-    if (!r.ok()) return exit_rejected;
-    p = std::move(r.value);
-  }
+  const profile p = o.profile.empty() ? profile{} : take(load_profile(o.profile));
   std::string given_name;
   document doc = load_document(o.input, &given_name);
   const std::string file = display_name(o.input.path);

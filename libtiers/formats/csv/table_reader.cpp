@@ -170,11 +170,11 @@ class table_reader {
   // The index of the tier called `name`, made on its first row (which is where it is said to
   // be, for messages about the tier).
   std::size_t tier_for(std::string_view name, std::size_t row_offset) {
-    if (last_tier_ != absent && out_.doc.tiers[last_tier_].name == name) return last_tier_;
+    if (last_tier_ != absent && out_.value.tiers[last_tier_].name == name) return last_tier_;
     auto it = tier_index_.find(std::string(name));
     if (it == tier_index_.end()) {
-      it = tier_index_.emplace(std::string(name), out_.doc.tiers.size()).first;
-      tier& t = out_.doc.tiers.emplace_back();
+      it = tier_index_.emplace(std::string(name), out_.value.tiers.size()).first;
+      tier& t = out_.value.tiers.emplace_back();
       t.name = name;
       t.kind = kind_;
       if (auto e = expected_rows_.find(t.name); e != expected_rows_.end())
@@ -240,7 +240,7 @@ class table_reader {
     for (std::size_t k : attribute_columns_)
       if (!cells_[k].text.empty()) a.attributes.emplace(header_[k], cells_[k].text);
     const std::size_t index = tier_for(name, offset);
-    out_.doc.tiers[index].annotations.push_back(std::move(a));
+    out_.value.tiers[index].annotations.push_back(std::move(a));
     positions_.annotation(index, offset);
     return true;
   }

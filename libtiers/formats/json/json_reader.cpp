@@ -263,7 +263,7 @@ class handler final {
     return std::string(v.text);
   }
 
-  tier& current_tier() { return out_.doc.tiers.back(); }
+  tier& current_tier() { return out_.value.tiers.back(); }
   annotation& current_annotation() { return current_tier().annotations.back(); }
 
   std::size_t at_ = 0;
@@ -287,7 +287,7 @@ bool handler::on_key(std::string& k, std::size_t at) {
   member_ = -1;
   if (names.empty()) {
     // Free-form maps (metadata, attributes): keys are data; duplicates are still ambiguous.
-    const attribute_map& map = f.where == ctx::metadata          ? out_.doc.metadata
+    const attribute_map& map = f.where == ctx::metadata          ? out_.value.metadata
                                : f.where == ctx::tier_attributes ? current_tier().attributes
                                                                  : current_annotation().attributes;
     if (map.count(key_) != 0)
@@ -319,7 +319,7 @@ bool handler::on_start_object(std::size_t at) {
       break;
     case ctx::tiers:
       next = ctx::tier;
-      out_.doc.tiers.emplace_back();
+      out_.value.tiers.emplace_back();
       positions_.tier(offset);
       missing_end_ = no_offset;
       break;
@@ -337,7 +337,7 @@ bool handler::on_start_object(std::size_t at) {
     case ctx::annotations:
       next = ctx::annotation;
       current_tier().annotations.emplace_back();
-      positions_.annotation(out_.doc.tiers.size() - 1, offset);
+      positions_.annotation(out_.value.tiers.size() - 1, offset);
       break;
     case ctx::annotation:
       if (member_ == a_attributes) next = ctx::annotation_attributes;
@@ -404,7 +404,7 @@ bool handler::on_scalar(const scalar& v) {
     case ctx::annotation_attributes: {
       if (v.kind != scalar::string)
         return fail_member("must be a string (attribute and metadata values are strings)");
-      attribute_map& map = top() == ctx::metadata          ? out_.doc.metadata
+      attribute_map& map = top() == ctx::metadata          ? out_.value.metadata
                            : top() == ctx::tier_attributes ? current_tier().attributes
                                                            : current_annotation().attributes;
       map.emplace(key_, std::string(v.text));
@@ -431,7 +431,7 @@ bool handler::on_scalar(const scalar& v) {
 
 bool handler::root_scalar(const scalar& v) {
   if (top() == ctx::media) {
-    media_info& m = out_.doc.media;
+    media_info& m = out_.value.media;
     if (member_ == m_uri) {
       auto s = string_of(v);
       if (!s) return false;

@@ -90,7 +90,7 @@ class text_reader {
     if (head.value || head.attribute) return bad(head, "a line starts with a keyword or a time");
     const std::string& k = head.key;
     if (k == "media") return read_media();
-    if (k == "meta") return read_pair(out_.doc.metadata);
+    if (k == "meta") return read_pair(out_.value.metadata);
     if (k == "tier") return read_tier();
     if (!current_) return bad(head, "'" + k + "' before any 'tier' line");
     if (k == "source") return read_source();
@@ -116,7 +116,7 @@ class text_reader {
   }
 
   void read_media() {
-    media_info& m = out_.doc.media;
+    media_info& m = out_.value.media;
     for (std::size_t k = 1; k < items_.size(); ++k) {
       const item& it = items_[k];
       if (!it.value || it.attribute) return bad(it, "media takes uri=…, duration=… and rate=…");
@@ -150,7 +150,7 @@ class text_reader {
   void read_tier() {
     if (items_.size() < 2 || items_.size() > 3 || items_[1].value || items_[1].attribute)
       return bad(items_[0], "expected 'tier NAME [interval|instant]'");
-    tier& t = out_.doc.tiers.emplace_back();
+    tier& t = out_.value.tiers.emplace_back();
     positions_.tier(line_start_);
     current_ = &t;
     t.name = items_[1].key;
@@ -245,7 +245,7 @@ class text_reader {
     }
     if (text) a.text = std::move(*text);
     current_->annotations.push_back(std::move(a));
-    positions_.annotation(out_.doc.tiers.size() - 1, line_start_);
+    positions_.annotation(out_.value.tiers.size() - 1, line_start_);
   }
 
   std::string_view in_;

@@ -265,20 +265,20 @@ void ttml_reader::run() {
     return fail(at(tt), "ttml.parameter", std::string(*problem));
   if (const std::string_view base = param("timeBase"); !base.empty() && base != "media")
     return fail(at(tt), "ttml.parameter", "only ttp:timeBase=\"media\" is supported (IMSC 1.1)");
-  if (params_.frame_rate_given) out_.doc.media.frame_rate = params_.frame_rate;
+  if (params_.frame_rate_given) out_.value.media.frame_rate = params_.frame_rate;
   for (pugi::xml_attribute a : tt.attributes()) {
     const std::string name = canonical(a.name());
     if (name == "xml:lang") {
       // The writer's "und" (undetermined) is no information of its own.
-      if (std::string_view(a.value()) != "und") out_.doc.metadata.emplace("ttml:lang", a.value());
+      if (std::string_view(a.value()) != "und") out_.value.metadata.emplace("ttml:lang", a.value());
     } else if (name == "xmlns" || name.rfind("ttp:", 0) == 0) {
       continue;  // timing parameters are read above; the writer declares what it uses
     } else if (name.rfind("xmlns:", 0) == 0) {
       const std::string_view uri = a.value();
       if (uri != ns_tt && uri != ns_ttp && uri != ns_tts && uri != ns_ttm)
-        out_.doc.metadata.emplace("ttml:" + name, uri);
+        out_.value.metadata.emplace("ttml:" + name, uri);
     } else {
-      out_.doc.metadata.emplace("ttml:tt:" + name, a.value());
+      out_.value.metadata.emplace("ttml:tt:" + name, a.value());
     }
   }
   const pugi::xml_node head = [&] {
@@ -324,7 +324,7 @@ void ttml_reader::run() {
       c.print(one, "", pugi::format_raw);
       kept += one.str();
     }
-    if (!kept.empty()) out_.doc.metadata.emplace("ttml:head", kept);
+    if (!kept.empty()) out_.value.metadata.emplace("ttml:head", kept);
     // Agents (TTML2 §12.1.1): an id and, where given, a name, for ttm:agent on p.
     for (pugi::xpath_node x : head.select_nodes(".//*")) {
       const pugi::xml_node n = x.node();
@@ -345,11 +345,11 @@ void ttml_reader::run() {
   // Word tiers right after their tiers, in document order.
   for (auto it = words_.rbegin(); it != words_.rend(); ++it) {
     tier w;
-    w.name = out_.doc.tiers[it->first].name + ".words";
-    w.parent = parent_link{out_.doc.tiers[it->first].name, relation::within};
+    w.name = out_.value.tiers[it->first].name + ".words";
+    w.parent = parent_link{out_.value.tiers[it->first].name, relation::within};
     w.annotations = std::move(it->second);
     const auto after = static_cast<std::ptrdiff_t>(it->first) + 1;
-    out_.doc.tiers.insert(out_.doc.tiers.begin() + after, std::move(w));
+    out_.value.tiers.insert(out_.value.tiers.begin() + after, std::move(w));
     if (positions_.on()) {
       source_map& map = out_.positions;
       const std::vector<std::size_t>& offsets = word_offsets_[it->first];
@@ -416,8 +416,8 @@ void ttml_reader::walk(const pugi::xml_node& n, const span& active, std::size_t 
       for (pugi::xml_node g : c.children())
         has_p |= tt_name(g) == "p";
       if (has_p) {
-        index = out_.doc.tiers.size();
-        tier* t = &out_.doc.tiers.emplace_back();
+        index = out_.value.tiers.size();
+        tier* t = &out_.value.tiers.emplace_back();
         positions_.tier(at(c));
         const std::string id = c.attribute("xml:id").value();
         t->name = id.empty() ? "div-" + std::to_string(divs_) : id;
@@ -518,7 +518,7 @@ void ttml_reader::read_p(const pugi::xml_node& p, const span& active, std::size_
     words_[index].push_back(std::move(w));
   for (std::size_t offset : word_offsets)
     word_offsets_[index].push_back(offset);
-  out_.doc.tiers[index].annotations.push_back(std::move(a));
+  out_.value.tiers[index].annotations.push_back(std::move(a));
   positions_.annotation(index, at(p));
 }
 

@@ -240,7 +240,7 @@ plan make_plan(const document& doc) {
     }
     read_options o;
     const read_result back = read_ttml(text, o);
-    const tier* derived = back.ok() ? find_tier(back.doc, w.name) : nullptr;
+    const tier* derived = back.ok() ? find_tier(back.value, w.name) : nullptr;
     if (derived && derived->annotations == w.annotations)
       p.skipped_tiers.insert(k);
     else  // written as a div of its own, which has no parent

@@ -109,10 +109,10 @@ void vtt_reader::run() {
     if (lines_.at_end()) break;
     collect_block(false);
   }
-  if (!header_.empty()) out_.doc.metadata.emplace("vtt:header", header_);
-  if (!prelude_.empty()) out_.doc.metadata.emplace("vtt:prelude", prelude_);
-  if (!pending_notes_.empty()) out_.doc.metadata.emplace("vtt:trailer", pending_notes_);
-  tier& t = out_.doc.tiers.emplace_back();
+  if (!header_.empty()) out_.value.metadata.emplace("vtt:header", header_);
+  if (!prelude_.empty()) out_.value.metadata.emplace("vtt:prelude", prelude_);
+  if (!pending_notes_.empty()) out_.value.metadata.emplace("vtt:trailer", pending_notes_);
+  tier& t = out_.value.tiers.emplace_back();
   t.name = options_.tier_name;
   t.annotations = std::move(cues_);
   // The cue tier is the file, whose signature says so; the words are where their cues' text is.
@@ -121,7 +121,7 @@ void vtt_reader::run() {
   for (std::size_t offset : cue_offsets_)
     positions.annotation(0, offset);
   if (!words_.empty()) {
-    tier& w = out_.doc.tiers.emplace_back();
+    tier& w = out_.value.tiers.emplace_back();
     w.name = options_.tier_name + ".words";
     w.parent = parent_link{options_.tier_name, relation::within};
     w.annotations = std::move(words_);

@@ -109,12 +109,11 @@ void check_dataset(std::span<file_report> reports, const profile& p);
 
 /// Reads a report written by write_check_json (`--format json`), for combining the reports of
 /// runs over parts of a dataset. Problems are located in `file` (codes `report.*`, `json.*`).
-struct report_result {
+struct check_report {
   report_header header;
   std::vector<file_report> files;
-  std::vector<diagnostic> diagnostics;
-  bool ok() const { return !has_errors(diagnostics); }
 };
+using report_result = result<check_report>;
 report_result read_check_report(std::string_view text, const std::string& file);
 
 /// Totals over the reports of a check.

@@ -37,11 +37,7 @@ struct signal_options {
 /// between times) are warnings, and no value is made up for them: `after_gap` marks the row
 /// after each gap, and rows before a gap end after one step. Codes: `derive.*`, `csv.*`,
 /// `json.*`.
-struct signal_result {
-  signal value;
-  std::vector<diagnostic> diagnostics;
-  bool ok() const { return !has_errors(diagnostics); }
-};
+using signal_result = result<signal>;
 signal_result read_signal(std::string_view text, signal_format format,
                           const signal_options& options);
 

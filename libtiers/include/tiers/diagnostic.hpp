@@ -73,6 +73,16 @@ void locate_all(std::string_view text, std::vector<diagnostic>& diagnostics);
 
 bool has_errors(const std::vector<diagnostic>& diagnostics);
 
+/// What an operation that can fail on its input produced: the value and every diagnostic
+/// (notes, warnings, errors), in the order found. When `diagnostics` holds an error, `value` is
+/// incomplete and must not be used.
+template <class T>
+struct result {
+  T value{};
+  std::vector<diagnostic> diagnostics;
+  bool ok() const { return !has_errors(diagnostics); }
+};
+
 /// The one exception type of libtiers, carrying a diagnostic (I/O failures, bad arguments).
 class error : public std::runtime_error {
  public:

@@ -72,8 +72,9 @@ enum class time_unit : std::uint8_t { seconds, milliseconds, frames };
 /// column becomes an annotation attribute.
 using column_map = std::vector<std::pair<std::string, std::string>>;
 
-/// Parses `tier=Layer,start=Begin,end=End`. Returns nothing and sets `problem` on bad input.
-std::optional<column_map> parse_column_map(std::string_view text, std::string& problem);
+/// Parses `tier=Layer,start=Begin,end=End`; a malformed item, an unknown role or a role named
+/// twice is an error (code `columns.map`).
+result<column_map> parse_column_map(std::string_view text);
 
 /// Options for reading. Formats ignore what does not apply to them.
 struct read_options {
@@ -121,12 +122,9 @@ struct source_map {
 };
 
 /// What reading produced: the document and every diagnostic, located by byte offset.
-/// When `diagnostics` holds an error, `doc` is incomplete and must not be used.
-struct read_result {
-  document doc;
-  std::vector<diagnostic> diagnostics;
+/// When `diagnostics` holds an error, `value` is incomplete and must not be used.
+struct read_result : result<document> {
   source_map positions;  ///< empty unless read_options::positions was set
-  bool ok() const { return !has_errors(diagnostics); }
 };
 
 /// One registered format. Everything is plain data and function pointers, listed in one table.

@@ -60,11 +60,7 @@ struct merge_plan {
 };
 
 /// Reads a plan; problems are located in `file` (codes `plan.value`, `plan.member`, `json.*`).
-struct plan_result {
-  merge_plan value;
-  std::vector<diagnostic> diagnostics;
-  bool ok() const { return !has_errors(diagnostics); }
-};
+using plan_result = result<merge_plan>;
 plan_result read_merge_plan(std::string_view text, const std::string& file);
 
 /// The plan's inputs as paths to open, from the plan's folder (`plan_file`'s). A plan from
@@ -113,11 +109,7 @@ struct merge_input {
 /// tiers. The result's metadata records the inputs (`merge:inputs`), the plan (`merge:plan`)
 /// and every shift (`merge:shift:TIER`). Notes (shifts, trimmed pieces) and errors are in
 /// `diagnostics` (codes `merge.*`); with an error, the document must not be used.
-struct merge_result {
-  document doc;
-  std::vector<diagnostic> diagnostics;
-  bool ok() const { return !has_errors(diagnostics); }
-};
+using merge_result = result<document>;
 merge_result merge_documents(std::vector<merge_input> inputs, const merge_plan& plan);
 
 }  // namespace tiers

@@ -219,6 +219,9 @@ struct document {
 const tier* find_tier(const document& doc, std::string_view name);
 tier* find_tier(document& doc, std::string_view name);
 
+/// The tiers' names as messages list them: `'captions', 'words'`, or `none`.
+std::string tier_names(const document& doc);
+
 std::string_view to_string(tier_kind kind);
 std::string_view to_string(source_kind kind);
 std::string_view to_string(relation rel);

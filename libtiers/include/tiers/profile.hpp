@@ -91,11 +91,7 @@ std::vector<std::string_view> builtin_profiles();
 /// Reads a profile: a built-in name, else a file. `extends` in a file names a built-in profile
 /// or a file in the same folder or below (never outside it). Problems are located in the file
 /// they are in; when one is an error the profile must not be used.
-struct profile_result {
-  profile value;
-  std::vector<diagnostic> diagnostics;
-  bool ok() const { return !has_errors(diagnostics); }
-};
+using profile_result = result<profile>;
 profile_result load_profile(const std::string& name_or_path);
 
 /// Reads a profile from JSON text (`file` names it in messages and resolves `extends`).

@@ -150,15 +150,15 @@ report_result read_check_report(std::string_view text, const std::string& file) 
       json_fields g(*p, "the profile", "report", r.diagnostics);
       g.require("name");
       g.require("digest");
-      r.header.profile =
+      r.value.header.profile =
           profile_identity{g.string("name").value_or(""), g.string("digest").value_or("")};
       g.finish();
     }
-    if (auto shard = f.string("shard")) r.header.shard = *shard;
+    if (auto shard = f.string("shard")) r.value.header.shard = *shard;
     report_reader reader(r.diagnostics);
     if (const json_node* files = f.array("files"))
       for (const json_node& n : files->items)
-        reader.file(n, r.files);
+        reader.file(n, r.value.files);
     f.finish();
   }
   locate_all(text, r.diagnostics);

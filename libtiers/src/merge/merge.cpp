@@ -34,8 +34,8 @@ class merger {
     std::string files;
     for (const merge_input& in : inputs_)
       files += (files.empty() ? "" : "\n") + in.file;
-    out_.doc.metadata["merge:inputs"] = files;
-    out_.doc.metadata["merge:plan"] = plan_json(plan_);
+    out_.value.metadata["merge:inputs"] = files;
+    out_.value.metadata["merge:plan"] = plan_json(plan_);
   }
 
  private:
@@ -49,7 +49,7 @@ class merger {
   std::string stem(const merge_input& in) const { return name_from_path(in.file); }
 
   void join_media() {
-    media_info& m = out_.doc.media;
+    media_info& m = out_.value.media;
     const merge_input* uri_from = nullptr;
     for (const merge_input& in : inputs_) {
       const media_info& x = in.doc.media;
@@ -79,10 +79,10 @@ class merger {
   void join_metadata() {
     for (const merge_input& in : inputs_)
       for (const auto& [key, value] : in.doc.metadata) {
-        auto [it, added] = out_.doc.metadata.emplace(key, value);
+        auto [it, added] = out_.value.metadata.emplace(key, value);
         if (added || it->second == value) continue;
         // Different values of one key: the later one is kept under its file's name.
-        out_.doc.metadata[stem(in) + ":" + key] = value;
+        out_.value.metadata[stem(in) + ":" + key] = value;
       }
   }
 
@@ -140,21 +140,15 @@ class merger {
         }
     for (merge_input& in : inputs_)
       for (tier& t : in.doc.tiers)
-        out_.doc.tiers.push_back(std::move(t));
+        out_.value.tiers.push_back(std::move(t));
   }
 
   tier* find(std::string_view name, std::string_view role) {
-    if (tier* t = find_tier(out_.doc, name)) return t;
-    report(
-        severity::error, "merge.tier",
-        "no tier " + quote_name(name) + " to " + std::string(role) + " (tiers: " + names() + ")");
+    if (tier* t = find_tier(out_.value, name)) return t;
+    report(severity::error, "merge.tier",
+           "no tier " + quote_name(name) + " to " + std::string(role) +
+               " (tiers: " + tier_names(out_.value) + ")");
     return nullptr;
-  }
-  std::string names() const {
-    std::string s;
-    for (const tier& t : out_.doc.tiers)
-      s += (s.empty() ? "" : ", ") + quote_name(t.name);
-    return s.empty() ? "none" : s;
   }
 
   void shift(const shift_step& s) {
@@ -187,7 +181,7 @@ class merger {
         return;
       }
     }
-    out_.doc.metadata["merge:shift:" + t->name] = how;
+    out_.value.metadata["merge:shift:" + t->name] = how;
     report(severity::note, "merge.shift", "tier " + quote_name(t->name) + " shifted " + how);
   }
 
@@ -202,7 +196,7 @@ class merger {
         return;
       }
     for (const std::string* name : {&c.into, c.review ? &*c.review : nullptr})
-      if (name && find_tier(out_.doc, *name)) {
+      if (name && find_tier(out_.value, *name)) {
         report(severity::error, "merge.combine",
                "a tier " + quote_name(*name) + " exists already; name the combined tier anew");
         return;
@@ -219,8 +213,8 @@ class merger {
                     ? "; " + plural(r.review->annotations.size(), "disagreement", "disagreements") +
                           " in " + quote_name(r.review->name)
                     : ""));
-    out_.doc.tiers.push_back(std::move(r.merged));
-    if (r.review) out_.doc.tiers.push_back(std::move(*r.review));
+    out_.value.tiers.push_back(std::move(r.merged));
+    if (r.review) out_.value.tiers.push_back(std::move(*r.review));
   }
 
   std::vector<merge_input> inputs_;
