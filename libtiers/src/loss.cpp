@@ -6,6 +6,7 @@
 #include "detail/report.hpp"
 #include "detail/utf8.hpp"
 #include "tiers/format.hpp"
+#include "tiers/io.hpp"
 
 namespace tiers {
 namespace {
@@ -65,7 +66,7 @@ bool owned_key(const format& fmt, std::string_view key) {
 // A word tier that a format with inline words writes inside its parent's annotations.
 bool inline_word_tier(const format& fmt, const tier& t) {
   return fmt.carries.has(feature::several_tiers) && fmt.carries.has(feature::inline_words) &&
-         t.parent && t.parent->rel == relation::within && t.name == t.parent->tier + ".words";
+         t.parent && is_words_tier_of(t, t.parent->tier);
 }
 
 void feature_losses(const document& doc, const format& fmt, feature f,
@@ -224,7 +225,8 @@ std::string_view to_string(feature f) {
   return "";
 }
 
-std::vector<std::string> find_losses(const document& doc, const format& fmt) {
+std::vector<std::string> find_losses(const document& doc, const format& fmt,
+                                     const output_context& where) {
   std::vector<std::string> out;
   for (int k = 0; k < feature_count; ++k) {
     const auto f = static_cast<feature>(k);
@@ -232,6 +234,15 @@ std::vector<std::string> find_losses(const document& doc, const format& fmt) {
   }
   if (fmt.extra_losses) fmt.extra_losses(doc, out);
   if (!detail::document_is_utf8(doc)) out.push_back("bytes that are not UTF-8 (written as U+FFFD)");
+  if (!fmt.carries.has(feature::several_tiers) && !doc.tiers.empty() && !where.path.empty() &&
+      where.path != "-") {
+    const std::string stem = name_from_path(where.path);
+    const std::string& name = doc.tiers.front().name;
+    if (name != stem && (where.given_name.empty() || name != where.given_name))
+      out.push_back("the tier name " + quote_name(name) + " (a " + std::string(fmt.name) +
+                    " file names no tier; read back, it is named " + quote_name(stem) +
+                    " after the file)");
+  }
   return out;
 }
 

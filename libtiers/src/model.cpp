@@ -44,6 +44,15 @@ std::string tier_names(const document& doc) {
   return s.empty() ? "none" : s;
 }
 
+std::string words_tier_name(std::string_view parent) {
+  return std::string(parent) + ".words";
+}
+
+bool is_words_tier_of(const tier& t, std::string_view parent) {
+  return t.parent && t.parent->rel == relation::within && t.parent->tier == parent &&
+         t.name == words_tier_name(parent);
+}
+
 std::string_view to_string(tier_kind kind) {
   return kind == tier_kind::instant ? "instant" : "interval";
 }

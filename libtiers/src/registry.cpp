@@ -4,6 +4,7 @@
 #include <cstdio>
 #include <optional>
 
+#include "detail/paths.hpp"
 #include "detail/report.hpp"
 #include "detail/utf8.hpp"
 #include "formats/csv/csv_format.hpp"
@@ -70,22 +71,14 @@ const std::array<format, 6> registry{{
      "vtt:",
      vtt_keys,
      true,
-     {1000, 1}},
+     {1000, 1},
+     true},
     {"tiers", "tiers plain text: one annotation per line (lossless)", tiers_extensions,
      feature_set::all(), detail::sniff_tiers_text, detail::read_tiers_text,
      utf8_only<detail::write_tiers_text>, nullptr},
     {"ttml", "W3C TTML2, IMSC 1.1 Text Profile", ttml_extensions, ttml_features, detail::sniff_ttml,
      detail::read_ttml, utf8_only<detail::write_ttml>, detail::ttml_losses, "ttml:", ttml_keys},
 }};
-
-bool ends_with_ignoring_case(std::string_view s, std::string_view suffix) {
-  if (s.size() < suffix.size()) return false;
-  return std::equal(suffix.begin(), suffix.end(), s.end() - static_cast<long>(suffix.size()),
-                    [](char a, char b) {
-                      auto lower = [](char c) { return c >= 'A' && c <= 'Z' ? c + 32 : c; };
-                      return lower(a) == lower(b);
-                    });
-}
 
 }  // namespace
 
@@ -101,8 +94,7 @@ const format* find_format(std::string_view name) {
 
 const format* format_for_path(std::string_view path) {
   for (const format& f : registry)
-    for (std::string_view ext : f.extensions)
-      if (ends_with_ignoring_case(path, ext)) return &f;
+    if (detail::has_extension(path, f.extensions)) return &f;
   return nullptr;
 }
 

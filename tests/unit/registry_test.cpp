@@ -5,6 +5,8 @@
 #include <set>
 
 #include "support.hpp"
+#include "tiers/derive.hpp"
+#include "tiers/merge.hpp"
 
 using namespace tiers;
 using namespace tiers::test;
@@ -176,4 +178,49 @@ TEST_CASE("extreme times are summarised without overflow", "[info]") {
   const document_summary s = summarize(doc);
   CHECK(s.tiers[0].annotated == std::numeric_limits<time_ns>::max());
   CHECK(s.reference == std::numeric_limits<time_ns>::max());
+}
+
+TEST_CASE("a one-tier format loses a tier name the output's file name does not give back",
+          "[loss]") {
+  document d;
+  d.tiers.emplace_back().name = "captions";
+  const format& vtt = *find_format("vtt");
+  CHECK(find_losses(d, vtt).empty());                            // a stream: no name to compare
+  CHECK(find_losses(d, vtt, {"out/captions.vtt", ""}).empty());  // the stem gives it back
+  CHECK(find_losses(d, vtt, {"x.vtt", "captions"}).empty());     // reading gave it: none lost
+  CHECK(find_losses(d, vtt, {"x.vtt", ""}) ==
+        std::vector<std::string>{"the tier name 'captions' (a vtt file names no tier; read back, "
+                                 "it is named 'x' after the file)"});
+  CHECK(find_losses(d, *find_format("json"), {"x.json", ""}).empty());
+}
+
+TEST_CASE("name tables spell an enumeration's values both ways", "[names]") {
+  CHECK(name_of(clash_rule_names, clash_rule::prefix_source) == "prefix-source");
+  CHECK(value_named(combine_strategy_names, "union") == combine_strategy::union_);
+  CHECK_FALSE(value_named(combine_strategy_names, "Union"));
+  CHECK(quoted_names(signal_format_names) == R"("csv", "tsv" or "jsonl")");
+  CHECK(value_named(time_unit_names, "ms") == time_unit::milliseconds);
+}
+
+TEST_CASE("a signal table's format from its extension", "[names]") {
+  CHECK(signal_format_for_path("a/b.TSV") == signal_format::tsv);
+  CHECK(signal_format_for_path("x.tab") == signal_format::tsv);
+  CHECK(signal_format_for_path("x.ndjson") == signal_format::jsonl);
+  CHECK(signal_format_for_path("x.csv") == signal_format::csv);
+  CHECK_FALSE(signal_format_for_path("x.json"));
+  CHECK_FALSE(signal_format_for_path("csv"));
+}
+
+TEST_CASE("the words of a tier by the inline-words convention", "[names]") {
+  CHECK(words_tier_name("captions") == "captions.words");
+  tier w;
+  w.name = "captions.words";
+  CHECK_FALSE(is_words_tier_of(w, "captions"));  // no parent link
+  w.parent = parent_link{"captions", relation::within};
+  CHECK(is_words_tier_of(w, "captions"));
+  CHECK_FALSE(is_words_tier_of(w, "other"));
+  w.parent->rel = relation::partition;
+  CHECK_FALSE(is_words_tier_of(w, "captions"));
+  CHECK(find_format("vtt")->holds_captions);
+  CHECK_FALSE(find_format("ttml")->holds_captions);
 }

@@ -42,8 +42,7 @@ file_report check_one(const std::string& path, const check_options& o, const pro
   if (!r.ok()) return unreadable_file(name, r.diagnostics);
   check_context roles = shared;
   roles.instant_tiers = fmt->carries.has(feature::instant_tiers);
-  // A WebVTT file is a caption file: its cues are checked as captions unless told otherwise.
-  if (!roles.captions && !p.captions && fmt->name == "vtt" && !r.value.tiers.empty())
+  if (!roles.captions && !p.captions && fmt->holds_captions && !r.value.tiers.empty())
     roles.captions = r.value.tiers.front().name;
   file_report report = check_document(r.value, r.positions, name, p, roles, r.diagnostics);
   if (keep) *keep = std::move(r.value);

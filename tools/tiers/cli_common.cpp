@@ -42,7 +42,7 @@ void add_input_options(CLI::App& cmd, input_options& in) {
   cmd.add_option("--time-unit", in.time_unit,
                  "Tables: unit of plain-number times: s, ms or frames (default s; clock time and "
                  "timecode are recognised by their colons)")
-      ->check(CLI::IsMember({"s", "ms", "frames"}))
+      ->check(one_of(time_unit_names))
       ->type_name("UNIT");
   cmd.add_flag("--strict", in.strict,
                "WebVTT: authoring-rule violations (cue order, empty cues, timestamps, repeated "
@@ -190,9 +190,7 @@ read_options reading_options(const input_options& in, const std::string& path) {
   options.strict = in.strict;
   options.max_text = in.max_text;
   options.max_tiers = in.max_tiers;
-  options.unit = in.time_unit == "ms"       ? time_unit::milliseconds
-                 : in.time_unit == "frames" ? time_unit::frames
-                                            : time_unit::seconds;
+  if (!in.time_unit.empty()) options.unit = named(time_unit_names, in.time_unit);
   if (!in.tier_name.empty()) {
     if (!is_utf8(in.tier_name)) throw usage_error("--tier-name: the name is not UTF-8");
     options.tier_name = in.tier_name;
@@ -225,19 +223,8 @@ const format& output_format(const std::string& to, const std::string& output) {
 void write_output(const document& doc, const format& to, const std::string& output, bool allow_loss,
                   const std::string& file, std::vector<std::string> losses,
                   const std::string& given_name) {
-  for (std::string& loss : find_losses(doc, to))
+  for (std::string& loss : find_losses(doc, to, {output, given_name}))
     losses.push_back(std::move(loss));
-  // A one-tier format keeps no tier name: read back, the tier is named after the file. That
-  // loses a name only when it came from content, not when reading gave it (given_name).
-  if (!to.carries.has(feature::several_tiers) && !doc.tiers.empty() && !output.empty() &&
-      output != "-") {
-    const std::string stem = name_from_path(output);
-    const std::string& name = doc.tiers.front().name;
-    if (name != stem && (given_name.empty() || name != given_name))
-      losses.push_back("the tier name " + tiers::quote_name(doc.tiers.front().name) + " (a " +
-                       std::string(to.name) + " file names no tier; read back, it is named " +
-                       tiers::quote_name(stem) + " after the file)");
-  }
   for (const std::string& loss : losses) {
     diagnostic d;
     d.file = file;

@@ -101,6 +101,21 @@ std::vector<std::string> shard_of(std::vector<std::string> files, const std::str
 std::vector<std::size_t> shard_places(const std::vector<std::string>& files,
                                       const std::string& spec);
 
+/// An option check that accepts exactly the names of a library's table (e.g. clash_rule_names).
+template <class E, std::size_t N>
+CLI::IsMember one_of(const enum_name<E> (&table)[N]) {
+  std::vector<std::string> names;
+  for (const enum_name<E>& n : table)
+    names.emplace_back(n.name);
+  return CLI::IsMember(names);
+}
+
+/// The value of a name that one_of(table) accepted.
+template <class E, std::size_t N>
+E named(const enum_name<E> (&table)[N], std::string_view name) {
+  return *value_named(table, name);
+}
+
 /// Prints one diagnostic to standard error.
 void report(const diagnostic& d);
 

@@ -10,7 +10,7 @@ void add_comparison_options(CLI::App& cmd, comparison_options& o) {
   cmd.add_option("--match", o.match,
                  "Segments match by boundaries (default: onset and offset within --collar) or "
                  "by overlap (at least --min-overlap of their union)")
-      ->check(CLI::IsMember({"boundaries", "overlap"}))
+      ->check(one_of(segment_options::criterion_names))
       ->type_name("HOW");
   cmd.add_option("--collar", o.collar, "Boundary tolerance for --match boundaries (200ms)")
       ->type_name("DURATION");
@@ -22,8 +22,7 @@ void add_comparison_options(CLI::App& cmd, comparison_options& o) {
 
 segment_options segment_matching(const comparison_options& o) {
   segment_options matching;
-  matching.by = o.match == "overlap" ? segment_options::criterion::overlap
-                                     : segment_options::criterion::boundaries;
+  if (!o.match.empty()) matching.by = named(segment_options::criterion_names, o.match);
   matching.collar = parse_duration_option("--collar", o.collar, duration_kind::positive);
   matching.min_overlap = o.min_overlap;
   matching.same_label = !o.any_label;

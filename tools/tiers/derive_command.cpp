@@ -20,7 +20,7 @@ void setup_derive(CLI::App& app, int& status) {
       ->required()
       ->type_name("FILE");
   cmd->add_option("--from", o.from, "Input format: csv, tsv or jsonl; default: by extension")
-      ->check(CLI::IsMember({"csv", "tsv", "jsonl"}))
+      ->check(one_of(signal_format_names))
       ->type_name("FORMAT");
   cmd->add_option("--rate", o.rate, "Frames per second of a 'frame' column: 25, 30000/1001")
       ->type_name("RATE");
@@ -80,23 +80,14 @@ int run_derive(const derive_options_cli& o) {
                        : (o.agent.empty() ? std::string("detector") : o.agent);
   if (!o.agent_version.empty()) d.source.version = o.agent_version;
 
-  std::string from = o.from;
-  if (from.empty()) {
-    const std::string ext = std::filesystem::path(o.path).extension().string();
-    from = ext == ".tsv" || ext == ".tab"        ? "tsv"
-           : ext == ".jsonl" || ext == ".ndjson" ? "jsonl"
-           : ext == ".csv" || o.path == "-"      ? "csv"
-                                                 : "";
-    if (from.empty())
-      throw usage_error("cannot tell the signal's format from '" + o.path +
-                        "'; name it with --from csv, tsv or jsonl");
-  }
+  std::optional<signal_format> from = !o.from.empty() ? named(signal_format_names, o.from)
+                                      : o.path == "-" ? signal_format::csv
+                                                      : signal_format_for_path(o.path);
+  if (!from)
+    throw usage_error("cannot tell the signal's format from '" + o.path +
+                      "'; name it with --from csv, tsv or jsonl");
   const std::string text = read_input(o.path);
-  signal_result r = read_signal(text,
-                                from == "tsv"     ? signal_format::tsv
-                                : from == "jsonl" ? signal_format::jsonl
-                                                  : signal_format::csv,
-                                so);
+  signal_result r = read_signal(text, *from, so);
   locate_all(text, r.diagnostics);
   const signal table = take(std::move(r), display_name(o.path));
   write_output(derive_tiers(table, d), to, o.output, o.allow_loss, display_name(o.path));

@@ -22,7 +22,7 @@ void setup_merge(CLI::App& app, int& status) {
   cmd->add_option("--clash", o.clash,
                   "When inputs share a tier name: fail (default), prefix-file (STEM:NAME) or "
                   "prefix-source (AGENT:NAME)")
-      ->check(CLI::IsMember({"fail", "prefix-file", "prefix-source"}))
+      ->check(one_of(clash_rule_names))
       ->type_name("RULE");
   cmd->add_option("--shift", o.shifts, "Shift a tier by an offset, e.g. detector=-0.48s")
       ->allow_extra_args(false)
@@ -38,7 +38,7 @@ void setup_merge(CLI::App& app, int& status) {
   cmd->add_option("--human", o.human, "The human tier to combine")->type_name("TIER");
   cmd->add_option("--machine", o.machine, "The machine tier to combine")->type_name("TIER");
   cmd->add_option("--strategy", o.strategy, "human-first (default), union or intersection")
-      ->check(CLI::IsMember({"human-first", "union", "intersection"}))
+      ->check(one_of(combine_strategy_names))
       ->type_name("S");
   cmd->add_option("--min-confidence", o.min_confidence,
                   "Leave out machine annotations below this confidence (0-1)")
@@ -77,7 +77,7 @@ merge_plan make_plan(const merge_options& o) {
   }
   for (const std::string& p : o.paths)
     plan.inputs.push_back(p);
-  if (!o.clash.empty()) plan.clash = *parse_clash_rule(o.clash);
+  if (!o.clash.empty()) plan.clash = named(clash_rule_names, o.clash);
   const time_ns max_offset =
       o.max_offset.empty()
           ? 10 * ns_per_second
@@ -105,7 +105,7 @@ merge_plan make_plan(const merge_options& o) {
     c.into = o.into;
     c.human = o.human;
     c.machine = o.machine;
-    if (!o.strategy.empty()) c.strategy = *parse_combine_strategy(o.strategy);
+    if (!o.strategy.empty()) c.strategy = named(combine_strategy_names, o.strategy);
     if (!o.min_confidence.empty()) {
       char* end = nullptr;
       c.min_confidence = std::strtod(o.min_confidence.c_str(), &end);

@@ -99,7 +99,8 @@ int run_retime(const retime_options_cli& o) {
 
   std::string caption_name = !o.captions.empty() ? o.captions : p.captions.value_or("");
   if (caption_name.empty()) {
-    if (doc.tiers.empty() || (doc.tiers.size() > 1 && !doc.tiers[1].name.ends_with(".words")))
+    if (doc.tiers.empty() ||
+        (doc.tiers.size() > 1 && !is_words_tier_of(doc.tiers[1], doc.tiers[0].name)))
       throw usage_error(file + " has " + std::to_string(doc.tiers.size()) +
                         " tiers; name the captions with --captions");
     caption_name = doc.tiers.front().name;

@@ -345,7 +345,7 @@ void ttml_reader::run() {
   // Word tiers right after their tiers, in document order.
   for (auto it = words_.rbegin(); it != words_.rend(); ++it) {
     tier w;
-    w.name = out_.value.tiers[it->first].name + ".words";
+    w.name = words_tier_name(out_.value.tiers[it->first].name);
     w.parent = parent_link{out_.value.tiers[it->first].name, relation::within};
     w.annotations = std::move(it->second);
     const auto after = static_cast<std::ptrdiff_t>(it->first) + 1;

@@ -228,7 +228,7 @@ plan make_plan(const document& doc) {
     const tier& w = doc.tiers[k];
     if (!w.parent || w.parent->rel != relation::within) continue;
     const tier* parent = find_tier(doc, w.parent->tier);
-    if (!parent || w.name != parent->name + ".words") continue;
+    if (!parent || !is_words_tier_of(w, parent->name)) continue;
     document alone;
     alone.media = doc.media;
     alone.metadata = doc.metadata;

@@ -122,7 +122,7 @@ void vtt_reader::run() {
     positions.annotation(0, offset);
   if (!words_.empty()) {
     tier& w = out_.value.tiers.emplace_back();
-    w.name = options_.tier_name + ".words";
+    w.name = words_tier_name(options_.tier_name);
     w.parent = parent_link{options_.tier_name, relation::within};
     w.annotations = std::move(words_);
     positions.tier(word_offsets_.front());

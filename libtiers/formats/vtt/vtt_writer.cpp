@@ -366,9 +366,9 @@ vtt_plan plan(const document& doc) {
       else
         problem("word timings outside every cue, or unlike their cue's own timestamps");
     }
-    if (words->name != cues.name + ".words")
+    if (words->name != words_tier_name(cues.name))
       p.other.push_back("the name of the word tier " + quote_name(words->name) + " (read back as " +
-                        quote_name(cues.name + ".words") + ")");
+                        quote_name(words_tier_name(cues.name)) + ")");
   }
 
   std::unordered_set<std::string_view> ids;

@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "tiers/model.hpp"
+#include "tiers/names.hpp"
 #include "tiers/sink.hpp"
 
 namespace tiers {
@@ -97,6 +98,8 @@ struct segment_options {
     boundaries,  ///< onset and offset each within `collar` of the reference's
     overlap,     ///< intersection over union at least `min_overlap`
   };
+  static constexpr enum_name<criterion> criterion_names[]{{criterion::boundaries, "boundaries"},
+                                                          {criterion::overlap, "overlap"}};
   criterion by = criterion::boundaries;
   time_ns collar = 200'000'000;  ///< 200 ms
   double min_overlap = 0.5;

@@ -10,6 +10,7 @@
 
 #include "tiers/diagnostic.hpp"
 #include "tiers/model.hpp"
+#include "tiers/names.hpp"
 
 namespace tiers {
 
@@ -24,6 +25,11 @@ struct signal {
 };
 
 enum class signal_format : std::uint8_t { csv, tsv, jsonl };
+inline constexpr enum_name<signal_format> signal_format_names[]{
+    {signal_format::csv, "csv"}, {signal_format::tsv, "tsv"}, {signal_format::jsonl, "jsonl"}};
+/// The signal format a path's extension names (.csv; .tsv or .tab; .jsonl or .ndjson, in any
+/// case), if any.
+std::optional<signal_format> signal_format_for_path(std::string_view path);
 
 struct signal_options {
   std::optional<rational> rate;      ///< frames per second, for a `frame` column

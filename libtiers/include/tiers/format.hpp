@@ -13,6 +13,7 @@
 
 #include "tiers/diagnostic.hpp"
 #include "tiers/model.hpp"
+#include "tiers/names.hpp"
 #include "tiers/sink.hpp"
 
 namespace tiers {
@@ -66,6 +67,8 @@ class feature_set {
 /// How time cells of tabular input are written when they are plain numbers. Cells with colons
 /// are always clock time (`hh:mm:ss.fff`) or timecode (`hh:mm:ss:ff`, `hh:mm:ss;ff`).
 enum class time_unit : std::uint8_t { seconds, milliseconds, frames };
+inline constexpr enum_name<time_unit> time_unit_names[]{
+    {time_unit::seconds, "s"}, {time_unit::milliseconds, "ms"}, {time_unit::frames, "frames"}};
 
 /// The columns of a table, by role. Roles: tier, start, end, duration, text, markup,
 /// confidence, id, parent. A role not named here is looked for under its own name; every other
@@ -152,6 +155,9 @@ struct format {
   /// time between steps to the nearest, and the loss report lists it; operations that make new
   /// times (retime) place them on this grid instead.
   rational time_grid{ns_per_second, 1};
+  /// The format's one tier is caption cues (WebVTT): `check` judges it by the caption rules
+  /// unless a profile or option names another caption tier.
+  bool holds_captions = false;
 };
 
 /// Every format, in a fixed order.
@@ -174,8 +180,17 @@ inline constexpr std::size_t no_tier = static_cast<std::size_t>(-1);
 /// first tier, with relation `within` — or no_tier.
 std::size_t word_tier_index(const document& doc, const format& fmt);
 
+/// Where a document is written, for the losses that depend on it.
+struct output_context {
+  std::string_view path;        ///< the output file; empty or "-" for a stream
+  std::string_view given_name;  ///< the tier name reading gave the input (not its content's)
+};
+
 /// Everything in `doc` that `fmt` cannot carry, one line each (e.g. "confidence of 812
-/// annotations in tier 'words'"). Empty when writing loses nothing.
-std::vector<std::string> find_losses(const document& doc, const format& fmt);
+/// annotations in tier 'words'"). Empty when writing loses nothing. With the output's `path`,
+/// also the name of the tier of a one-tier format: read back, that tier is named after the
+/// file, so a name other than the file's stem (or the name reading gave it) is lost.
+std::vector<std::string> find_losses(const document& doc, const format& fmt,
+                                     const output_context& where = {});
 
 }  // namespace tiers

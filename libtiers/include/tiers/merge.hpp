@@ -10,6 +10,7 @@
 
 #include "tiers/diagnostic.hpp"
 #include "tiers/model.hpp"
+#include "tiers/names.hpp"
 
 namespace tiers {
 
@@ -20,8 +21,10 @@ enum class combine_strategy : std::uint8_t {
   union_,        ///< both: machine annotations give way only where a human one has their label
   intersection,  ///< human annotations, where a machine one has the same label
 };
-std::string_view to_string(combine_strategy s);
-std::optional<combine_strategy> parse_combine_strategy(std::string_view text);
+inline constexpr enum_name<combine_strategy> combine_strategy_names[]{
+    {combine_strategy::human_first, "human-first"},
+    {combine_strategy::union_, "union"},
+    {combine_strategy::intersection, "intersection"}};
 
 /// One combination: `human` and `machine` tiers into a new tier `into`.
 struct combine_step {
@@ -47,8 +50,10 @@ enum class clash_rule : std::uint8_t {
   prefix_source,  ///< rename each clashing tier `AGENT:NAME` (or `human:`/`machine:`; a tier
                   ///< without a source takes its file's stem)
 };
-std::string_view to_string(clash_rule r);
-std::optional<clash_rule> parse_clash_rule(std::string_view text);
+inline constexpr enum_name<clash_rule> clash_rule_names[]{
+    {clash_rule::fail, "fail"},
+    {clash_rule::prefix_file, "prefix-file"},
+    {clash_rule::prefix_source, "prefix-source"}};
 
 /// A merge plan (schemas/merge-plan.schema.json): everything a merge does, so that it can be
 /// repeated. Tier names in shifts and combinations are the names after clash renaming.

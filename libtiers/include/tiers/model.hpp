@@ -222,6 +222,14 @@ tier* find_tier(document& doc, std::string_view name);
 /// The tiers' names as messages list them: `'captions', 'words'`, or `none`.
 std::string tier_names(const document& doc);
 
+/// The name readers of formats with inline word timings (WebVTT, TTML) give the words of the
+/// tier `parent`: `PARENT.words`. Their writers put back inline only the words so named.
+std::string words_tier_name(std::string_view parent);
+
+/// Whether `t` is, by that convention, the words of the tier `parent`: a `within` child of it
+/// named words_tier_name(parent).
+bool is_words_tier_of(const tier& t, std::string_view parent);
+
 std::string_view to_string(tier_kind kind);
 std::string_view to_string(source_kind kind);
 std::string_view to_string(relation rel);

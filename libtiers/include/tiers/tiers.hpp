@@ -13,6 +13,7 @@
 #include "tiers/lag.hpp"
 #include "tiers/merge.hpp"
 #include "tiers/model.hpp"
+#include "tiers/names.hpp"
 #include "tiers/profile.hpp"
 #include "tiers/retime.hpp"
 #include "tiers/rules.hpp"

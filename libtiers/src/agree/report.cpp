@@ -118,7 +118,7 @@ void write_segments(byte_sink& out, const segment_options& o, const segment_agre
   out.put('{');
   json_members m(out);
   const bool by_overlap = o.by == segment_options::criterion::overlap;
-  m.string("match", by_overlap ? "overlap" : "boundaries");
+  m.string("match", name_of(segment_options::criterion_names, o.by));
   if (by_overlap)
     m.number("min_overlap", o.min_overlap);
   else

@@ -6,6 +6,7 @@
 #include <numeric>
 
 #include "detail/json_tree.hpp"
+#include "detail/paths.hpp"
 #include "detail/report.hpp"
 #include "formats/csv/table_scanner.hpp"
 #include "tiers/derive.hpp"
@@ -351,6 +352,15 @@ signal_result read_signal(std::string_view text, signal_format format,
     reader.read_table(format == signal_format::tsv ? '\t' : ',');
   reader.finish();
   return out;
+}
+
+std::optional<signal_format> signal_format_for_path(std::string_view path) {
+  static constexpr std::string_view csv[]{".csv"}, tsv[]{".tsv", ".tab"},
+      jsonl[]{".jsonl", ".ndjson"};
+  if (detail::has_extension(path, csv)) return signal_format::csv;
+  if (detail::has_extension(path, tsv)) return signal_format::tsv;
+  if (detail::has_extension(path, jsonl)) return signal_format::jsonl;
+  return std::nullopt;
 }
 
 }  // namespace tiers

@@ -34,31 +34,13 @@ std::string joined(const std::vector<std::string_view>& labels) {
 
 }  // namespace
 
-std::string_view to_string(combine_strategy s) {
-  switch (s) {
-    case combine_strategy::human_first:
-      return "human-first";
-    case combine_strategy::union_:
-      return "union";
-    case combine_strategy::intersection:
-      return "intersection";
-  }
-  return "human-first";
-}
-
-std::optional<combine_strategy> parse_combine_strategy(std::string_view text) {
-  for (auto s :
-       {combine_strategy::human_first, combine_strategy::union_, combine_strategy::intersection})
-    if (to_string(s) == text) return s;
-  return std::nullopt;
-}
-
 combined_tiers combine_tiers(const tier& human, const tier& machine, const combine_step& step) {
   combined_tiers out;
   out.merged.name = step.into;
-  out.merged.attributes = {{"merge:human", human.name},
-                           {"merge:machine", machine.name},
-                           {"merge:strategy", std::string(to_string(step.strategy))}};
+  out.merged.attributes = {
+      {"merge:human", human.name},
+      {"merge:machine", machine.name},
+      {"merge:strategy", std::string(name_of(combine_strategy_names, step.strategy))}};
   std::vector<source_annotation> all;
   for (const annotation& a : human.annotations)
     all.push_back({&a, true});

@@ -224,24 +224,6 @@ class merger {
 
 }  // namespace
 
-std::string_view to_string(clash_rule r) {
-  switch (r) {
-    case clash_rule::fail:
-      return "fail";
-    case clash_rule::prefix_file:
-      return "prefix-file";
-    case clash_rule::prefix_source:
-      return "prefix-source";
-  }
-  return "fail";
-}
-
-std::optional<clash_rule> parse_clash_rule(std::string_view text) {
-  for (auto r : {clash_rule::fail, clash_rule::prefix_file, clash_rule::prefix_source})
-    if (to_string(r) == text) return r;
-  return std::nullopt;
-}
-
 std::optional<offset_estimate> estimate_offset(const tier& moving, const tier& reference,
                                                time_ns max_offset) {
   std::vector<const annotation*> refs;

@@ -80,10 +80,10 @@ void read_combine(const json_node& n, merge_plan& plan, std::vector<diagnostic>&
     if (f.require(key))
       if (auto v = f.string(key)) *into = *v;
   if (auto s = f.string("strategy")) {
-    if (auto strategy = parse_combine_strategy(*s))
+    if (auto strategy = value_named(combine_strategy_names, *s))
       c.strategy = *strategy;
     else
-      f.bad(*f.get("strategy"), "'strategy' is \"human-first\", \"union\" or \"intersection\"");
+      f.bad(*f.get("strategy"), "'strategy' is " + quoted_names(combine_strategy_names));
   }
   if (auto m = f.number("min_confidence")) {
     if (*m >= 0 && *m <= 1)
@@ -130,10 +130,10 @@ plan_result read_merge_plan(std::string_view text, const std::string& file) {
           r.value.inputs.push_back(i.text);
       }
     if (auto c = f.string("clash")) {
-      if (auto rule = parse_clash_rule(*c))
+      if (auto rule = value_named(clash_rule_names, *c))
         r.value.clash = *rule;
       else
-        f.bad(*f.get("clash"), "'clash' is \"fail\", \"prefix-file\" or \"prefix-source\"");
+        f.bad(*f.get("clash"), "'clash' is " + quoted_names(clash_rule_names));
     }
     if (const json_node* s = f.array("shift"))
       for (const json_node& x : s->items)
@@ -164,7 +164,7 @@ std::string plan_json(const merge_plan& plan) {
     out.put(']');
   }
   out.write(", \"clash\": ");
-  write_json_string(out, to_string(plan.clash));
+  write_json_string(out, name_of(clash_rule_names, plan.clash));
   out.write(", \"shift\": [");
   for (std::size_t k = 0; k < plan.shifts.size(); ++k) {
     const shift_step& s = plan.shifts[k];
@@ -194,7 +194,7 @@ std::string plan_json(const merge_plan& plan) {
     out.write(", \"machine\": ");
     write_json_string(out, c.machine);
     out.write(", \"strategy\": ");
-    write_json_string(out, to_string(c.strategy));
+    write_json_string(out, name_of(combine_strategy_names, c.strategy));
     out.write(", \"min_confidence\": ");
     write_json_double(out, c.min_confidence);
     out.write(", \"min_duration\": ");
