@@ -4,53 +4,34 @@
 
 namespace tiers {
 
-using detail::write_json_double;
-using detail::write_json_seconds;
-using detail::write_json_string;
-
 void write_summary_json(const document_summary& s, std::string_view path, byte_sink& out) {
-  out.write("{\"path\": ");
-  write_json_string(out, path);
-  out.write(", \"media\": ");
-  detail::write_json_media(out, s.media);
+  detail::json_writer j(out);
+  j.begin_object();
+  j.string("path", path);
+  detail::write_json_media(j.key("media"), s.media);
   if (s.start) {
-    out.write(", \"start\": ");
-    write_json_seconds(out, *s.start);
-    out.write(", \"end\": ");
-    write_json_seconds(out, *s.end);
+    j.seconds("start", *s.start);
+    j.seconds("end", *s.end);
   }
-  out.write(", \"coverage_of\": ");
-  out.write(s.reference_is_media ? "\"media\"" : "\"span\"");
-  out.write(", \"tiers\": [");
-  for (std::size_t k = 0; k < s.tiers.size(); ++k) {
-    const tier_summary& t = s.tiers[k];
-    out.write(k == 0 ? "\n  {" : ",\n  {");
-    out.write("\"name\": ");
-    write_json_string(out, t.name);
-    out.write(", \"kind\": \"");
-    out.write(to_string(t.kind));
-    out.put('"');
-    if (t.source) {
-      out.write(", \"source\": ");
-      detail::write_json_source(out, *t.source);
-    }
-    out.write(", \"annotations\": ");
-    out.write(std::to_string(t.annotations));
+  j.string("coverage_of", s.reference_is_media ? "media" : "span");
+  j.key("tiers").begin_array(true);
+  for (const tier_summary& t : s.tiers) {
+    j.begin_object();
+    j.string("name", t.name);
+    j.string("kind", to_string(t.kind));
+    if (t.source) detail::write_json_source(j.key("source"), *t.source);
+    j.count("annotations", t.annotations);
     if (t.start) {
-      out.write(", \"start\": ");
-      write_json_seconds(out, *t.start);
-      out.write(", \"end\": ");
-      write_json_seconds(out, *t.end);
+      j.seconds("start", *t.start);
+      j.seconds("end", *t.end);
     }
-    out.write(", \"annotated\": ");
-    write_json_seconds(out, t.annotated);
-    if (t.coverage) {
-      out.write(", \"coverage\": ");
-      write_json_double(out, *t.coverage);
-    }
-    out.put('}');
+    j.seconds("annotated", t.annotated);
+    if (t.coverage) j.number("coverage", *t.coverage);
+    j.end_object();
   }
-  out.write(s.tiers.empty() ? "]}\n" : "\n]}\n");
+  j.end_array();
+  j.end_object();
+  out.put('\n');
 }
 
 }  // namespace tiers

@@ -1,7 +1,10 @@
 // The native JSON format: lossless round trips, exact times, and located errors.
 #include <catch2/catch.hpp>
 #include <cctype>
+#include <cmath>
+#include <limits>
 
+#include "detail/json_text.hpp"
 #include "support.hpp"
 
 using namespace tiers;
@@ -178,4 +181,44 @@ TEST_CASE("the JSON scanner follows RFC 8259 and locates every mistake", "[json]
   const document doc = test::read_as(
       "json", string_context + "\"\\\"\\\\\\/\\b\\f\\n\\r\\t\\u00e9\\ud83d\\ude00\"}}");
   CHECK(doc.metadata.at("k") == "\"\\/\b\f\n\r\t\xC3\xA9\xF0\x9F\x98\x80");
+}
+
+TEST_CASE("the JSON writer breaks the containers it is told to, and only those", "[json]") {
+  std::string text;
+  {
+    string_sink out(text);
+    detail::json_writer j(out);
+    j.begin_object(true);
+    j.string("a", "x\"y");
+    j.key("list").begin_array(true);
+    j.begin_object();
+    j.count("n", 1);
+    j.number("nan", std::nan(""));
+    j.number("inf", std::numeric_limits<double>::infinity());
+    j.end_object();
+    j.begin_array();
+    j.end_array();
+    j.end_array();
+    j.key("empty").begin_array(true);
+    j.end_array();
+    j.key("k\n").raw("[1]");
+    j.seconds("t", -1'500'000'000);
+    j.boolean("b", false);
+    j.end_object();
+  }
+  // Layout as DEVELOPERS.md describes it: two spaces per broken container around a part;
+  // a container that is not broken is one line with ", " and ": "; an empty one is [] even when
+  // broken. Non-finite numbers are null: JSON has no NaN (RFC 8259 §6).
+  CHECK(text ==
+        "{\n"
+        "  \"a\": \"x\\\"y\",\n"
+        "  \"list\": [\n"
+        "    {\"n\": 1, \"nan\": null, \"inf\": null},\n"
+        "    []\n"
+        "  ],\n"
+        "  \"empty\": [],\n"
+        "  \"k\\n\": [1],\n"
+        "  \"t\": -1.5,\n"
+        "  \"b\": false\n"
+        "}");
 }

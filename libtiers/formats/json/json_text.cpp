@@ -3,6 +3,9 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
+#include <cmath>
+
 #include "detail/utf8.hpp"
 
 namespace tiers::detail {
@@ -66,68 +69,120 @@ void write_json_double(byte_sink& out, double v) {
   out.write(std::string_view(buf, static_cast<std::size_t>(end - buf)));
 }
 
-void write_json_source(byte_sink& out, const tier_source& source) {
-  out.write("{\"kind\": \"");
-  out.write(to_string(source.kind));
-  out.put('"');
-  if (source.agent) {
-    out.write(", \"agent\": ");
-    write_json_string(out, *source.agent);
+void json_writer::new_line() {
+  out_.put('\n');
+  for (std::size_t n = 2 * static_cast<std::size_t>(broken_); n > 0;) {
+    const std::size_t step = std::min(n, spaces.size());
+    out_.write(spaces.substr(0, step));
+    n -= step;
   }
-  if (source.version) {
-    out.write(", \"version\": ");
-    write_json_string(out, *source.version);
-  }
-  out.put('}');
 }
 
-void write_json_media(byte_sink& out, const media_info& m) {
-  out.put('{');
-  const char* sep = "";
-  if (m.uri) {
-    out.write("\"uri\": ");
-    write_json_string(out, *m.uri);
-    sep = ", ";
-  }
-  if (m.duration) {
-    out.write(sep);
-    out.write("\"duration\": ");
-    write_json_seconds(out, *m.duration);
-    sep = ", ";
-  }
-  if (m.frame_rate) {
-    out.write(sep);
-    out.write("\"frame_rate\": ");
-    write_json_string(out, format_rational(*m.frame_rate));
-  }
-  out.put('}');
+void json_writer::separate(level& l) {
+  if (!l.first) out_.put(',');
+  if (l.broken)
+    new_line();
+  else if (!l.first)
+    out_.put(' ');
+  l.first = false;
 }
 
-byte_sink& json_members::key(std::string_view k) {
-  if (!first_) out_.write(", ");
-  first_ = false;
+void json_writer::escaped_key(std::string_view k) {
   write_json_string(out_, k);
   out_.write(": ");
-  return out_;
 }
 
-void json_members::string(std::string_view k, std::string_view v) {
-  write_json_string(key(k), v);
+void json_writer::open(char bracket, bool broken) {
+  before_value();
+  out_.put(bracket);
+  open_.push_back({broken});
+  broken_ += broken;
 }
 
-void json_members::number(std::string_view k, double v) {
-  if (v != v)
-    key(k).write("null");
+void json_writer::close(char bracket) {
+  const level l = open_.back();
+  open_.pop_back();
+  if (l.broken) {
+    --broken_;
+    if (!l.first) new_line();
+  }
+  out_.put(bracket);
+}
+
+void json_writer::begin_object(bool broken) {
+  open('{', broken);
+}
+void json_writer::end_object() {
+  close('}');
+}
+void json_writer::begin_array(bool broken) {
+  open('[', broken);
+}
+void json_writer::end_array() {
+  close(']');
+}
+
+void json_writer::string(std::string_view v) {
+  before_value();
+  write_json_string(out_, v);
+}
+
+void json_writer::number(double v) {
+  before_value();
+  if (std::isfinite(v))
+    write_json_double(out_, v);
   else
-    write_json_double(key(k), v);
+    out_.write("null");
 }
 
-void json_members::count(std::string_view k, std::uint64_t n) {
-  key(k).write(std::to_string(n));
+void json_writer::count(std::uint64_t n) {
+  before_value();
+  char buf[24];
+  const auto end = fmt::format_to_n(buf, sizeof buf, "{}", n).out;
+  out_.write(std::string_view(buf, static_cast<std::size_t>(end - buf)));
 }
 
-void json_members::seconds(std::string_view k, time_ns t) {
-  write_json_seconds(key(k), t);
+void json_writer::integer(std::int64_t n) {
+  before_value();
+  char buf[24];
+  const auto end = fmt::format_to_n(buf, sizeof buf, "{}", n).out;
+  out_.write(std::string_view(buf, static_cast<std::size_t>(end - buf)));
+}
+
+void json_writer::seconds(time_ns t) {
+  before_value();
+  write_json_seconds(out_, t);
+}
+
+void json_writer::boolean(bool b) {
+  before_value();
+  out_.write(b ? "true" : "false");
+}
+
+void json_writer::null() {
+  before_value();
+  out_.write("null");
+}
+
+void json_writer::raw(std::string_view json) {
+  before_value();
+  out_.write(json);
+}
+
+void write_json_source(json_writer& j, const tier_source& source) {
+  j.begin_object();
+  j.string("kind", to_string(source.kind));
+  if (source.agent) j.string("agent", *source.agent);
+  if (source.version) j.string("version", *source.version);
+  j.end_object();
+}
+
+void write_json_media(json_writer& j, const media_info& m) {
+  j.begin_object();
+  if (m.uri) j.string("uri", *m.uri);
+  if (m.duration) j.seconds("duration", *m.duration);
+  if (m.frame_rate) j.string("frame_rate", format_rational(*m.frame_rate));
+  j.end_object();
 }
 
 }  // namespace tiers::detail

@@ -7,9 +7,6 @@
 
 namespace tiers {
 
-using detail::json_members;
-using detail::write_json_string;
-
 agreement_report compare_tiers(const tier& reference, const tier& candidate, const time_grid& grid,
                                const segment_options& matching) {
   agreement_report r;
@@ -62,135 +59,122 @@ annotators_report compare_annotators(const std::vector<const tier*>& tiers, cons
 
 namespace {
 
-void write_origin(byte_sink& out, const tier_origin& o) {
-  out.put('{');
-  json_members m(out);
-  m.string("file", o.file);
-  m.string("tier", o.tier);
-  out.put('}');
+using detail::json_writer;
+
+void write_origin(json_writer& j, const tier_origin& o) {
+  j.begin_object();
+  j.string("file", o.file);
+  j.string("tier", o.tier);
+  j.end_object();
 }
 
-void write_frames(byte_sink& out, const frame_agreement& f) {
-  out.put('{');
-  json_members m(out);
-  m.seconds("step", f.grid.step);
-  m.seconds("start", f.grid.start);
-  m.seconds("end", f.grid.end);
-  m.count("count", f.grid.frames());
-  m.number("observed", f.observed);
-  m.number("expected", f.expected);
-  m.number("kappa", f.kappa);
-  m.number("precision", f.precision);
-  m.number("recall", f.recall);
-  m.number("f1", f.f1);
-  m.key("labels").put('[');
-  for (std::size_t k = 0; k < f.scores.size(); ++k) {
-    const label_scores& l = f.scores[k];
-    out.write(k ? ",\n   {" : "\n   {");
-    json_members lm(out);
-    lm.string("label", l.label);
-    lm.count("reference", l.reference);
-    lm.count("candidate", l.candidate);
-    lm.count("agreed", l.agreed);
-    lm.number("precision", l.precision);
-    lm.number("recall", l.recall);
-    lm.number("f1", l.f1);
-    out.put('}');
+void write_frames(json_writer& j, const frame_agreement& f) {
+  j.begin_object(true);
+  j.seconds("step", f.grid.step);
+  j.seconds("start", f.grid.start);
+  j.seconds("end", f.grid.end);
+  j.count("count", f.grid.frames());
+  j.number("observed", f.observed);
+  j.number("expected", f.expected);
+  j.number("kappa", f.kappa);
+  j.number("precision", f.precision);
+  j.number("recall", f.recall);
+  j.number("f1", f.f1);
+  j.key("labels").begin_array(true);
+  for (const label_scores& l : f.scores) {
+    j.begin_object();
+    j.string("label", l.label);
+    j.count("reference", l.reference);
+    j.count("candidate", l.candidate);
+    j.count("agreed", l.agreed);
+    j.number("precision", l.precision);
+    j.number("recall", l.recall);
+    j.number("f1", l.f1);
+    j.end_object();
   }
-  out.write("],\n  ");
-  json_members rest(out);
-  rest.key("confusion").write("{\"labels\": [");
-  for (std::size_t k = 0; k < f.labels.size(); ++k) {
-    if (k) out.write(", ");
-    write_json_string(out, f.labels[k]);
+  j.end_array();
+  j.key("confusion").begin_object();
+  j.key("labels").string_array(f.labels);
+  j.key("counts").begin_array();
+  for (const auto& row : f.confusion) {
+    j.begin_array();
+    for (const std::uint64_t n : row)
+      j.count(n);
+    j.end_array();
   }
-  out.write("], \"counts\": [");
-  for (std::size_t i = 0; i < f.confusion.size(); ++i) {
-    out.write(i ? ", [" : "[");
-    for (std::size_t j = 0; j < f.confusion[i].size(); ++j)
-      out.write((j ? ", " : "") + std::to_string(f.confusion[i][j]));
-    out.put(']');
-  }
-  out.write("]}}");
+  j.end_array();
+  j.end_object();
+  j.end_object();
 }
 
-void write_segments(byte_sink& out, const segment_options& o, const segment_agreement& s) {
-  out.put('{');
-  json_members m(out);
-  const bool by_overlap = o.by == segment_options::criterion::overlap;
-  m.string("match", name_of(segment_options::criterion_names, o.by));
-  if (by_overlap)
-    m.number("min_overlap", o.min_overlap);
+void write_segments(json_writer& j, const segment_options& o, const segment_agreement& s) {
+  j.begin_object();
+  j.string("match", name_of(segment_options::criterion_names, o.by));
+  if (o.by == segment_options::criterion::overlap)
+    j.number("min_overlap", o.min_overlap);
   else
-    m.seconds("collar", o.collar);
-  m.key("same_label").write(o.same_label ? "true" : "false");
-  m.count("reference", s.reference);
-  m.count("candidate", s.candidate);
-  m.count("matched", s.matches.size());
-  m.number("precision", s.precision);
-  m.number("recall", s.recall);
-  m.number("f1", s.f1);
+    j.seconds("collar", o.collar);
+  j.boolean("same_label", o.same_label);
+  j.count("reference", s.reference);
+  j.count("candidate", s.candidate);
+  j.count("matched", s.matches.size());
+  j.number("precision", s.precision);
+  j.number("recall", s.recall);
+  j.number("f1", s.f1);
   for (auto [key, median, p90] : {std::tuple{"onset", s.onset_median, s.onset_p90},
                                   std::tuple{"offset", s.offset_median, s.offset_p90}}) {
-    byte_sink& v = m.key(key);
+    j.key(key);
     if (s.matches.empty()) {
-      v.write("null");
+      j.null();
       continue;
     }
-    v.put('{');
-    json_members d(v);
-    d.seconds("median", median);
-    d.seconds("p90", p90);
-    v.put('}');
+    j.begin_object();
+    j.seconds("median", median);
+    j.seconds("p90", p90);
+    j.end_object();
   }
-  out.put('}');
+  j.end_object();
 }
 
 }  // namespace
 
 void write_agreement_json(const agreement_report& r, byte_sink& out) {
-  out.put('{');
-  json_members m(out);
-  write_origin(m.key("reference"), r.reference);
-  write_origin(m.key("candidate"), r.candidate);
-  out.write("\n ");
-  write_frames(m.key("frames"), r.frames);
-  out.write("\n ");
-  write_segments(m.key("segments"), r.matching, r.segments);
+  json_writer j(out);
+  j.begin_object(true);
+  write_origin(j.key("reference"), r.reference);
+  write_origin(j.key("candidate"), r.candidate);
+  write_frames(j.key("frames"), r.frames);
+  write_segments(j.key("segments"), r.matching, r.segments);
   // The keys fixed by the command-line contract, at the top level.
-  out.write("\n ");
-  m.number("kappa", r.frames.kappa);
-  m.number("precision", r.frames.precision);
-  m.number("recall", r.frames.recall);
-  m.number("f1", r.frames.f1);
-  out.write("}\n");
+  j.number("kappa", r.frames.kappa);
+  j.number("precision", r.frames.precision);
+  j.number("recall", r.frames.recall);
+  j.number("f1", r.frames.f1);
+  j.end_object();
+  out.put('\n');
 }
 
 void write_annotators_json(const annotators_report& r, byte_sink& out) {
-  out.put('{');
-  json_members m(out);
-  m.string("file", r.file);
-  m.key("tiers").put('[');
-  for (std::size_t k = 0; k < r.tiers.size(); ++k) {
-    if (k) out.write(", ");
-    write_json_string(out, r.tiers[k]);
+  json_writer j(out);
+  j.begin_object(true);
+  j.string("file", r.file);
+  j.key("tiers").string_array(r.tiers);
+  j.seconds("step", r.grid.step);
+  j.count("frames", r.grid.frames());
+  j.count("pairable_frames", r.pairable);
+  j.number("alpha", r.alpha);
+  j.number("alpha_interval", r.alpha_interval.value_or(std::nan("")));
+  j.key("pairwise").begin_array(true);
+  for (const auto& p : r.pairwise) {
+    j.begin_object();
+    j.string("a", p.a);
+    j.string("b", p.b);
+    j.number("kappa", p.kappa);
+    j.end_object();
   }
-  out.put(']');
-  m.seconds("step", r.grid.step);
-  m.count("frames", r.grid.frames());
-  m.count("pairable_frames", r.pairable);
-  m.number("alpha", r.alpha);
-  m.number("alpha_interval", r.alpha_interval.value_or(std::nan("")));
-  m.key("pairwise").put('[');
-  for (std::size_t k = 0; k < r.pairwise.size(); ++k) {
-    out.write(k ? ", {" : "{");
-    json_members p(out);
-    p.string("a", r.pairwise[k].a);
-    p.string("b", r.pairwise[k].b);
-    p.number("kappa", r.pairwise[k].kappa);
-    out.put('}');
-  }
-  out.write("]}\n");
+  j.end_array();
+  j.end_object();
+  out.put('\n');
 }
 
 }  // namespace tiers

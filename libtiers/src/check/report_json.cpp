@@ -1,5 +1,5 @@
 // The check report as JSON (docs/cli.md, "check"): every file's problems and lag, and totals.
-#include "detail/json_text.hpp"
+#include "detail/problem_json.hpp"
 #include "report_profile.hpp"
 #include "tiers/check.hpp"
 #include "tiers/version.hpp"
@@ -7,155 +7,110 @@
 namespace tiers {
 namespace {
 
-using detail::write_json_double;
-using detail::write_json_seconds;
-using detail::write_json_string;
+using detail::json_writer;
 
-void write_count(byte_sink& out, std::string_view key, std::size_t n, bool comma = true) {
-  if (comma) out.write(", ");
-  write_json_string(out, key);
-  out.write(": ");
-  out.write(std::to_string(n));
+void write_problem(json_writer& j, const problem& p) {
+  j.begin_object();
+  detail::write_problem_head(j, p);
+  if (p.end) j.seconds("end", *p.end);
+  if (p.diag.line > 0) j.count("line", p.diag.line);
+  if (p.diag.column > 0) j.count("column", p.diag.column);
+  if (p.diag.offset != no_offset) j.count("offset", p.diag.offset);
+  if (p.value) j.number("value", *p.value);
+  if (p.limit) j.number("limit", *p.limit);
+  j.end_object();
 }
 
-void write_problem(byte_sink& out, const problem& p) {
-  out.write("{\"rule\": ");
-  write_json_string(out, p.diag.code);
-  out.write(", \"severity\": ");
-  write_json_string(out, to_string(p.diag.level));
-  out.write(", \"message\": ");
-  write_json_string(out, p.diag.message);
-  if (!p.tier.empty()) {
-    out.write(", \"tier\": ");
-    write_json_string(out, p.tier);
-  }
-  if (p.start) {
-    out.write(", \"start\": ");
-    write_json_seconds(out, *p.start);
-  }
-  if (p.end) {
-    out.write(", \"end\": ");
-    write_json_seconds(out, *p.end);
-  }
-  if (p.diag.line > 0) write_count(out, "line", p.diag.line);
-  if (p.diag.column > 0) write_count(out, "column", p.diag.column);
-  if (p.diag.offset != no_offset) write_count(out, "offset", p.diag.offset);
-  if (p.value) {
-    out.write(", \"value\": ");
-    write_json_double(out, *p.value);
-  }
-  if (p.limit) {
-    out.write(", \"limit\": ");
-    write_json_double(out, *p.limit);
-  }
-  out.put('}');
-}
-
-void write_lag(byte_sink& out, const lag_report& lag) {
-  out.write("{\"captions\": ");
-  write_json_string(out, lag.captions);
-  out.write(", \"words\": ");
-  write_json_string(out, lag.words);
+void write_lag(json_writer& j, const lag_report& lag) {
+  j.begin_object();
+  j.string("captions", lag.captions);
+  j.string("words", lag.words);
   const bool known = lag.stats.cues > 0;
   for (const auto& [key, value] :
        {std::pair{"median", lag.stats.median}, std::pair{"p90", lag.stats.p90},
         std::pair{"max", lag.stats.max}}) {
-    out.write(", \"");
-    out.write(key);
-    out.write("\": ");
     if (known)
-      write_json_seconds(out, value);
+      j.seconds(key, value);
     else
-      out.write("null");
+      j.key(key).null();
   }
-  out.write(", \"coverage\": ");
-  write_json_double(out, lag.stats.coverage);
-  write_count(out, "cues", lag.stats.cues);
-  write_count(out, "tokens", lag.tokens);
-  write_count(out, "matched", lag.matched);
-  out.put('}');
+  j.number("coverage", lag.stats.coverage);
+  j.count("cues", lag.stats.cues);
+  j.count("tokens", lag.tokens);
+  j.count("matched", lag.matched);
+  j.end_object();
+}
+
+// What --combine needs to compare files across reports (dataset.inconsistent).
+void write_shape(json_writer& j, const std::vector<tier_shape>& shape) {
+  j.begin_array();
+  for (const tier_shape& s : shape) {
+    j.begin_object();
+    j.string("name", s.name);
+    j.string("kind", to_string(s.kind));
+    if (s.vocabulary) j.key("vocabulary").string_array(*s.vocabulary);
+    if (s.where.line > 0) {
+      j.count("line", s.where.line);
+      j.count("column", s.where.column);
+      if (s.where.offset != no_offset) j.count("offset", s.where.offset);
+    }
+    j.end_object();
+  }
+  j.end_array();
+}
+
+void write_summary(json_writer& j, const check_summary& s) {
+  j.begin_object(true);
+  j.count("files", s.files);
+  j.count("files_with_errors", s.files_with_errors);
+  j.count("files_with_warnings", s.files_with_warnings);
+  j.count("errors", s.errors);
+  j.count("warnings", s.warnings);
+  j.count("notes", s.notes);
+  j.key("rules").begin_array(true);
+  for (const check_summary::rule_count& r : s.by_rule) {
+    j.begin_object();
+    j.string("rule", r.rule);
+    j.string("severity", to_string(r.level));
+    j.count("problems", r.problems);
+    j.count("files", r.files);
+    j.end_object();
+  }
+  j.end_array();
+  j.end_object();
 }
 
 }  // namespace
 
 void write_check_json(std::span<const file_report> reports, byte_sink& out,
                       const report_header& header) {
-  out.write(
-      "{\"format\": \"tiers-check\", \"version\": 1, \"tool\": {\"name\": \"tiers\", "
-      "\"version\": ");
-  write_json_string(out, version());
-  out.put('}');
-  if (header.profile) {
-    out.write(",\n \"profile\": ");
-    detail::write_profile_identity(out, *header.profile);
+  json_writer j(out);
+  j.begin_object(true);
+  j.string("format", "tiers-check");
+  j.count("version", 1);
+  j.key("tool").begin_object();
+  j.string("name", "tiers");
+  j.string("version", version());
+  j.end_object();
+  if (header.profile) detail::write_profile_identity(j.key("profile"), *header.profile);
+  if (header.shard) j.string("shard", *header.shard);
+  j.key("files").begin_array(true);
+  for (const file_report& r : reports) {
+    j.begin_object(true);
+    j.string("path", r.path);
+    if (r.index) j.count("index", *r.index);
+    j.key("problems").begin_array(true);
+    for (const problem& p : r.problems)
+      write_problem(j, p);
+    j.end_array();
+    if (r.lag) write_lag(j.key("lag"), *r.lag);
+    if (r.shape) write_shape(j.key("tiers"), *r.shape);
+    j.end_object();
   }
-  if (header.shard) {
-    out.write(", \"shard\": ");
-    write_json_string(out, *header.shard);
-  }
-  out.write(",\n \"files\": [");
-  for (std::size_t k = 0; k < reports.size(); ++k) {
-    const file_report& r = reports[k];
-    out.write(k ? ",\n  {\"path\": " : "\n  {\"path\": ");
-    write_json_string(out, r.path);
-    if (r.index) write_count(out, "index", *r.index);
-    out.write(", \"problems\": [");
-    for (std::size_t i = 0; i < r.problems.size(); ++i) {
-      out.write(i ? ",\n    " : "\n    ");
-      write_problem(out, r.problems[i]);
-    }
-    out.write(r.problems.empty() ? "]" : "\n  ]");
-    if (r.lag) {
-      out.write(",\n   \"lag\": ");
-      write_lag(out, *r.lag);
-    }
-    if (r.shape) {
-      // What --combine needs to compare files across reports (dataset.inconsistent).
-      out.write(",\n   \"tiers\": [");
-      for (std::size_t t = 0; t < r.shape->size(); ++t) {
-        const tier_shape& s = (*r.shape)[t];
-        out.write(t ? ", {\"name\": " : "{\"name\": ");
-        write_json_string(out, s.name);
-        out.write(", \"kind\": ");
-        write_json_string(out, to_string(s.kind));
-        if (s.vocabulary) {
-          out.write(", \"vocabulary\": [");
-          for (std::size_t v = 0; v < s.vocabulary->size(); ++v) {
-            if (v) out.write(", ");
-            write_json_string(out, (*s.vocabulary)[v]);
-          }
-          out.put(']');
-        }
-        if (s.where.line > 0) {
-          write_count(out, "line", s.where.line);
-          write_count(out, "column", s.where.column);
-          if (s.where.offset != no_offset) write_count(out, "offset", s.where.offset);
-        }
-        out.put('}');
-      }
-      out.put(']');
-    }
-    out.put('}');
-  }
-  const check_summary s = summarize(reports);
-  out.write(reports.empty() ? "],\n \"summary\": {" : "\n ],\n \"summary\": {");
-  write_count(out, "files", s.files, false);
-  write_count(out, "files_with_errors", s.files_with_errors);
-  write_count(out, "files_with_warnings", s.files_with_warnings);
-  write_count(out, "errors", s.errors);
-  write_count(out, "warnings", s.warnings);
-  write_count(out, "notes", s.notes);
-  out.write(", \"rules\": [");
-  for (std::size_t k = 0; k < s.by_rule.size(); ++k) {
-    out.write(k ? ",\n   {\"rule\": " : "\n   {\"rule\": ");
-    write_json_string(out, s.by_rule[k].rule);
-    out.write(", \"severity\": ");
-    write_json_string(out, to_string(s.by_rule[k].level));
-    write_count(out, "problems", s.by_rule[k].problems);
-    write_count(out, "files", s.by_rule[k].files);
-    out.put('}');
-  }
-  out.write("]}}\n");
+  j.end_array();
+  write_summary(j.key("summary"), summarize(reports));
+  j.end_object();
+  out.put('\n');
 }
 
 }  // namespace tiers

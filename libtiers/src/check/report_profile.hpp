@@ -7,12 +7,11 @@
 namespace tiers::detail {
 
 /// `{"name": …, "digest": …}`.
-inline void write_profile_identity(byte_sink& out, const profile_identity& id) {
-  out.write("{\"name\": ");
-  write_json_string(out, id.name);
-  out.write(", \"digest\": ");
-  write_json_string(out, id.digest);
-  out.put('}');
+inline void write_profile_identity(json_writer& j, const profile_identity& id) {
+  j.begin_object();
+  j.string("name", id.name);
+  j.string("digest", id.digest);
+  j.end_object();
 }
 
 }  // namespace tiers::detail

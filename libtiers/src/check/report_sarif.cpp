@@ -11,9 +11,7 @@
 namespace tiers {
 namespace {
 
-using detail::write_json_double;
-using detail::write_json_seconds;
-using detail::write_json_string;
+using detail::json_writer;
 
 // A file name as a URI reference (RFC 3986): unreserved characters and '/' as they are,
 // everything else percent-encoded, byte by byte of its UTF-8.
@@ -40,46 +38,44 @@ std::string_view sarif_level(rule_level l) {
 }
 
 // A reportingConfiguration (§3.49): level, enabled when off, and the thresholds as parameters.
-void write_configuration(byte_sink& out, rule_level level,
+void write_configuration(json_writer& j, rule_level level,
                          const std::vector<rule_parameter>& parameters) {
-  out.write("{\"level\": ");
-  write_json_string(out, sarif_level(level));
-  out.write(level == rule_level::off ? ", \"enabled\": false" : ", \"enabled\": true");
+  j.begin_object();
+  j.string("level", sarif_level(level));
+  j.boolean("enabled", level != rule_level::off);
   if (!parameters.empty()) {
-    out.write(", \"parameters\": {");
-    for (std::size_t k = 0; k < parameters.size(); ++k) {
-      if (k) out.write(", ");
-      write_json_string(out, parameters[k].name);
-      out.write(": ");
-      out.write(parameters[k].json);
-    }
-    out.put('}');
+    j.key("parameters").begin_object();
+    for (const rule_parameter& p : parameters)
+      j.key(p.name).raw(p.json);
+    j.end_object();
   }
-  out.put('}');
+  j.end_object();
 }
 
-void write_rules(byte_sink& out) {
-  const auto all = rules();
+void write_rules(json_writer& j) {
   const check_limits defaults;
-  for (std::size_t k = 0; k < all.size(); ++k) {
-    const rule_info& r = all[k];
-    out.write(k ? ",\n      {\"id\": " : "\n      {\"id\": ");
-    write_json_string(out, r.id);
-    out.write(", \"shortDescription\": {\"text\": ");
-    write_json_string(out, r.summary);
-    out.write("}, \"defaultConfiguration\": ");
-    write_configuration(out, r.level, rule_parameters(r.id, defaults));
-    out.write(", \"properties\": {\"group\": ");
-    write_json_string(out, r.group);
-    out.write("}}");
+  j.begin_array(true);
+  for (const rule_info& r : rules()) {
+    j.begin_object();
+    j.string("id", r.id);
+    j.key("shortDescription").begin_object();
+    j.string("text", r.summary);
+    j.end_object();
+    write_configuration(j.key("defaultConfiguration"), r.level, rule_parameters(r.id, defaults));
+    j.key("properties").begin_object();
+    j.string("group", r.group);
+    j.end_object();
+    j.end_object();
   }
+  j.end_array();
 }
 
 // The invocation (§3.20): the profile that was used, and every rule whose level or thresholds
 // it changed, with the configuration in force (§3.20.5 ruleConfigurationOverrides) — so that a
 // rule a profile switched on is not read as off by its default configuration.
-void write_invocation(byte_sink& out, const profile& p, const report_header& header) {
-  out.write(",\n  \"invocations\": [{\"executionSuccessful\": true");
+void write_invocation(json_writer& j, const profile& p, const report_header& header) {
+  j.begin_object();
+  j.boolean("executionSuccessful", true);
   const auto all = rules();
   const check_limits defaults;
   bool first = true;
@@ -91,108 +87,101 @@ void write_invocation(byte_sink& out, const profile& p, const report_header& hea
     for (std::size_t i = 0; same && i < now.size(); ++i)
       same = now[i].json == was[i].json;
     if (same) continue;
-    out.write(first ? ", \"ruleConfigurationOverrides\": [\n    " : ",\n    ");
+    if (first) j.key("ruleConfigurationOverrides").begin_array(true);
     first = false;
-    out.write("{\"descriptor\": {\"id\": ");
-    write_json_string(out, r.id);
-    out.write(", \"index\": " + std::to_string(k) + "}, \"configuration\": ");
-    write_configuration(out, p.level(r.id), now);
-    out.put('}');
+    j.begin_object();
+    j.key("descriptor").begin_object();
+    j.string("id", r.id);
+    j.count("index", k);
+    j.end_object();
+    write_configuration(j.key("configuration"), p.level(r.id), now);
+    j.end_object();
   }
-  if (!first) out.write("]");
+  if (!first) j.end_array();
   if (header.profile) {
-    out.write(", \"properties\": {\"profile\": ");
-    detail::write_profile_identity(out, *header.profile);
-    out.put('}');
+    j.key("properties").begin_object();
+    detail::write_profile_identity(j.key("profile"), *header.profile);
+    j.end_object();
   }
-  out.write("}]");
+  j.end_object();
 }
 
-void write_result(byte_sink& out, const problem& p) {
-  out.write("{\"ruleId\": ");
-  write_json_string(out, p.diag.code);
+void write_result(json_writer& j, const problem& p) {
+  j.begin_object();
+  j.string("ruleId", p.diag.code);
   const auto all = rules();
   for (std::size_t k = 0; k < all.size(); ++k)
-    if (all[k].id == p.diag.code) {
-      out.write(", \"ruleIndex\": ");
-      out.write(std::to_string(k));
-    }
-  out.write(", \"level\": ");
-  write_json_string(out, to_string(p.diag.level));
-  out.write(", \"message\": {\"text\": ");
-  write_json_string(out, p.diag.message);
-  out.write("}, \"locations\": [{\"physicalLocation\": {\"artifactLocation\": {\"uri\": ");
-  write_json_string(out, uri_of(p.diag.file));
-  out.put('}');
+    if (all[k].id == p.diag.code) j.count("ruleIndex", k);
+  j.string("level", to_string(p.diag.level));
+  j.key("message").begin_object();
+  j.string("text", p.diag.message);
+  j.end_object();
+  j.key("locations").begin_array();
+  j.begin_object();
+  j.key("physicalLocation").begin_object();
+  j.key("artifactLocation").begin_object();
+  j.string("uri", uri_of(p.diag.file));
+  j.end_object();
   if (p.diag.line > 0) {
-    out.write(", \"region\": {\"startLine\": ");
-    out.write(std::to_string(p.diag.line));
-    if (p.diag.column > 0) {
-      out.write(", \"startColumn\": ");
-      out.write(std::to_string(p.diag.column));
-    }
-    out.put('}');
+    j.key("region").begin_object();
+    j.count("startLine", p.diag.line);
+    if (p.diag.column > 0) j.count("startColumn", p.diag.column);
+    j.end_object();
   }
-  out.put('}');
+  j.end_object();
   if (!p.tier.empty()) {
-    out.write(", \"logicalLocations\": [{\"name\": ");
-    write_json_string(out, p.tier);
-    out.write(", \"kind\": \"element\"}]");
+    j.key("logicalLocations").begin_array();
+    j.begin_object();
+    j.string("name", p.tier);
+    j.string("kind", "element");
+    j.end_object();
+    j.end_array();
   }
-  out.write("}]");
+  j.end_object();
+  j.end_array();
   if (p.start || p.value) {
-    out.write(", \"properties\": {");
-    bool comma = false;
-    auto key = [&](std::string_view k) {
-      out.write(comma ? ", \"" : "\"");
-      out.write(k);
-      out.write("\": ");
-      comma = true;
-    };
-    if (p.start) {
-      key("start");
-      write_json_seconds(out, *p.start);
-    }
-    if (p.end) {
-      key("end");
-      write_json_seconds(out, *p.end);
-    }
-    if (p.value) {
-      key("value");
-      write_json_double(out, *p.value);
-    }
-    if (p.limit) {
-      key("limit");
-      write_json_double(out, *p.limit);
-    }
-    out.put('}');
+    j.key("properties").begin_object();
+    if (p.start) j.seconds("start", *p.start);
+    if (p.end) j.seconds("end", *p.end);
+    if (p.value) j.number("value", *p.value);
+    if (p.limit) j.number("limit", *p.limit);
+    j.end_object();
   }
-  out.put('}');
+  j.end_object();
 }
 
 }  // namespace
 
 void write_check_sarif(std::span<const file_report> reports, byte_sink& out, const profile& used,
                        const report_header& header) {
-  out.write(
-      "{\"$schema\": "
-      "\"https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/"
-      "sarif-schema-2.1.0.json\",\n \"version\": \"2.1.0\",\n \"runs\": [{\n  \"tool\": "
-      "{\"driver\": {\"name\": \"tiers\", \"version\": ");
-  write_json_string(out, version());
-  out.write(", \"rules\": [");
-  write_rules(out);
-  out.write("]}}");
-  write_invocation(out, used, header);
-  out.write(",\n  \"columnKind\": \"unicodeCodePoints\",\n  \"results\": [");
-  bool first = true;
+  json_writer j(out);
+  j.begin_object(true);
+  j.string("$schema",
+           "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/"
+           "sarif-schema-2.1.0.json");
+  j.string("version", "2.1.0");
+  j.key("runs").begin_array(true);
+  j.begin_object(true);
+  j.key("tool").begin_object();
+  j.key("driver").begin_object();
+  j.string("name", "tiers");
+  j.string("version", version());
+  write_rules(j.key("rules"));
+  j.end_object();
+  j.end_object();
+  j.key("invocations").begin_array();
+  write_invocation(j, used, header);
+  j.end_array();
+  j.string("columnKind", "unicodeCodePoints");
+  j.key("results").begin_array(true);
   for (const file_report& r : reports)
-    for (const problem& p : r.problems) {
-      out.write(first ? "\n    " : ",\n    ");
-      first = false;
-      write_result(out, p);
-    }
-  out.write(first ? "]\n }]}\n" : "\n  ]\n }]}\n");
+    for (const problem& p : r.problems)
+      write_result(j, p);
+  j.end_array();
+  j.end_object();
+  j.end_array();
+  j.end_object();
+  out.put('\n');
 }
 
 }  // namespace tiers

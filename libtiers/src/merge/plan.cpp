@@ -97,10 +97,9 @@ void read_combine(const json_node& n, merge_plan& plan, std::vector<diagnostic>&
   plan.combine.push_back(std::move(c));
 }
 
-void write_duration(byte_sink& out, time_ns t) {
-  out.put('"');
-  out.write(format_seconds(t));
-  out.write("s\"");
+// A duration as plans write it: `1.5s`, `-0.48s`.
+std::string duration_text(time_ns t) {
+  return (t < 0 ? "-" + format_seconds(-t) : format_seconds(t)) + "s";
 }
 
 }  // namespace
@@ -152,60 +151,38 @@ plan_result read_merge_plan(std::string_view text, const std::string& file) {
 std::string plan_json(const merge_plan& plan) {
   std::string text;
   string_sink out(text);
-  using detail::write_json_double;
-  using detail::write_json_string;
-  out.write("{\"format\": \"tiers-merge-plan\", \"version\": 1");
-  if (!plan.inputs.empty()) {
-    out.write(", \"inputs\": [");
-    for (std::size_t k = 0; k < plan.inputs.size(); ++k) {
-      if (k) out.write(", ");
-      write_json_string(out, plan.inputs[k]);
-    }
-    out.put(']');
-  }
-  out.write(", \"clash\": ");
-  write_json_string(out, name_of(clash_rule_names, plan.clash));
-  out.write(", \"shift\": [");
-  for (std::size_t k = 0; k < plan.shifts.size(); ++k) {
-    const shift_step& s = plan.shifts[k];
-    out.write(k ? ", {\"tier\": " : "{\"tier\": ");
-    write_json_string(out, s.tier);
-    if (s.by) {
-      out.write(", \"by\": ");
-      out.put('"');
-      out.write(*s.by < 0 ? "-" + format_seconds(-*s.by) : format_seconds(*s.by));
-      out.write("s\"");
-    }
+  detail::json_writer j(out);
+  j.begin_object();
+  j.string("format", "tiers-merge-plan");
+  j.count("version", 1);
+  if (!plan.inputs.empty()) j.key("inputs").string_array(plan.inputs);
+  j.string("clash", name_of(clash_rule_names, plan.clash));
+  j.key("shift").begin_array();
+  for (const shift_step& s : plan.shifts) {
+    j.begin_object();
+    j.string("tier", s.tier);
+    if (s.by) j.string("by", duration_text(*s.by));
     if (s.align_to) {
-      out.write(", \"align_to\": ");
-      write_json_string(out, *s.align_to);
-      out.write(", \"max\": ");
-      write_duration(out, s.max_offset);
+      j.string("align_to", *s.align_to);
+      j.string("max", duration_text(s.max_offset));
     }
-    out.put('}');
+    j.end_object();
   }
-  out.write("], \"combine\": [");
-  for (std::size_t k = 0; k < plan.combine.size(); ++k) {
-    const combine_step& c = plan.combine[k];
-    out.write(k ? ", {\"into\": " : "{\"into\": ");
-    write_json_string(out, c.into);
-    out.write(", \"human\": ");
-    write_json_string(out, c.human);
-    out.write(", \"machine\": ");
-    write_json_string(out, c.machine);
-    out.write(", \"strategy\": ");
-    write_json_string(out, name_of(combine_strategy_names, c.strategy));
-    out.write(", \"min_confidence\": ");
-    write_json_double(out, c.min_confidence);
-    out.write(", \"min_duration\": ");
-    write_duration(out, c.min_duration);
-    if (c.review) {
-      out.write(", \"review\": ");
-      write_json_string(out, *c.review);
-    }
-    out.put('}');
+  j.end_array();
+  j.key("combine").begin_array();
+  for (const combine_step& c : plan.combine) {
+    j.begin_object();
+    j.string("into", c.into);
+    j.string("human", c.human);
+    j.string("machine", c.machine);
+    j.string("strategy", name_of(combine_strategy_names, c.strategy));
+    j.number("min_confidence", c.min_confidence);
+    j.string("min_duration", duration_text(c.min_duration));
+    if (c.review) j.string("review", *c.review);
+    j.end_object();
   }
-  out.write("]}");
+  j.end_array();
+  j.end_object();
   out.flush();
   return text;
 }

@@ -7,6 +7,7 @@
 
 #include "detail/exact.hpp"
 #include "detail/json_text.hpp"
+#include "detail/problem_json.hpp"
 
 namespace tiers::detail {
 namespace {
@@ -38,74 +39,50 @@ std::string_view name_of(agreement_view::verdict v) {
   return "";
 }
 
-// `[item, item, …]`, `sep` between the items, each written by `each`.
-template <class Range, class Each>
-void write_array(byte_sink& out, const Range& items, std::string_view sep, Each each) {
-  out.put('[');
-  std::string_view between;
-  for (const auto& item : items) {
-    out.write(between);
-    between = sep;
-    each(item);
-  }
-  out.put(']');
+// `[start, end, …]`: the tuples the script reads, times in seconds.
+void begin_span(json_writer& j, time_ns a, time_ns b) {
+  j.begin_array();
+  j.seconds(a);
+  j.seconds(b);
 }
 
-// Two times as `a, b` (seconds), for the `[start, end, …]` tuples the script reads.
-void write_two_times(byte_sink& out, time_ns a, time_ns b) {
-  write_json_seconds(out, a);
-  out.write(", ");
-  write_json_seconds(out, b);
-}
-
-void write_tier(byte_sink& out, const tier& t) {
-  out.write("{\"name\": ");
-  write_json_string(out, t.name);
-  out.write(", \"kind\": \"");
-  out.write(to_string(t.kind));
-  out.write("\", \"source\": ");
-  if (t.source) {
-    out.put('"');
-    out.write(to_string(t.source->kind));
-    out.put('"');
-  } else {
-    out.write("null");
-  }
-  out.write(", \"annotations\": ");
+void write_tier(json_writer& j, const tier& t) {
+  j.begin_object(true);
+  j.string("name", t.name);
+  j.string("kind", to_string(t.kind));
+  if (t.source)
+    j.string("source", to_string(t.source->kind));
+  else
+    j.key("source").null();
   // The script finds what is in view by binary search on the starts.
   std::vector<std::size_t> order(t.annotations.size());
   std::iota(order.begin(), order.end(), std::size_t{0});
   std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
     return t.annotations[a].start < t.annotations[b].start;
   });
-  write_array(out, order, ",\n", [&](std::size_t k) {
+  j.key("annotations").begin_array(true);
+  for (const std::size_t k : order) {
     const annotation& a = t.annotations[k];
-    out.put('[');
-    write_two_times(out, a.start, a.end);
-    out.write(", ");
+    begin_span(j, a.start, a.end);
     bool was_cut = false;
     const std::string_view text = cut(a.text, was_cut);
-    write_json_string(out, was_cut ? std::string(text) + "…" : std::string(text));
-    out.write(", ");
+    j.string(was_cut ? std::string(text) + "…" : std::string(text));
     if (a.confidence)
-      write_json_double(out, *a.confidence);
+      j.number(*a.confidence);
     else
-      out.write("null");
-    out.put(']');
-  });
-  out.put('}');
+      j.null();
+    j.end_array();
+  }
+  j.end_array();
+  j.end_object();
 }
 
-void write_problem(byte_sink& out, const problem& p) {
-  out.put('{');
-  json_members m(out);
-  m.string("rule", p.diag.code);
-  m.string("severity", to_string(p.diag.level));
-  m.string("message", p.diag.message);
-  if (!p.tier.empty()) m.string("tier", p.tier);
-  if (p.start) m.seconds("start", *p.start);
-  if (p.end || p.start) m.seconds("end", p.end ? *p.end : *p.start);
-  out.put('}');
+void write_problem(json_writer& j, const problem& p) {
+  j.begin_object();
+  detail::write_problem_head(j, p);
+  // The script draws a problem from start to end: a moment is a span of none.
+  if (p.end || p.start) j.seconds("end", p.end ? *p.end : *p.start);
+  j.end_object();
 }
 
 // The time the lanes show when zoomed out: the media's, widened to whatever is drawn.
@@ -124,52 +101,54 @@ std::pair<time_ns, time_ns> span_of(const report_file& f, const agreement_view* 
   return {lo, hi};
 }
 
-void write_file(byte_sink& out, const report_file& f, const agreement_view* agreement,
+void write_file(json_writer& j, const report_file& f, const agreement_view* agreement,
                 const html_report_options& o) {
-  out.write("{\"path\": ");
-  write_json_string(out, f.check->path);
-  out.write(", \"drawn\": ");
-  out.write(f.doc ? "true" : "false");
+  j.begin_object(true);
+  j.string("path", f.check->path);
+  j.boolean("drawn", f.doc != nullptr);
   if (f.doc) {
     const auto [lo, hi] = span_of(f, agreement);
-    out.write(", \"span\": [");
-    write_two_times(out, lo, hi);
-    out.write("],\n\"tiers\": ");
-    write_array(out, f.doc->tiers, ",\n", [&](const tier& t) { write_tier(out, t); });
+    begin_span(j.key("span"), lo, hi);
+    j.end_array();
+    j.key("tiers").begin_array(true);
+    for (const tier& t : f.doc->tiers)
+      write_tier(j, t);
+    j.end_array();
   }
-  out.write(",\n\"problems\": ");
-  write_array(out, f.check->problems, ",\n", [&](const problem& p) { write_problem(out, p); });
-  out.write(",\n\"lag\": ");
+  j.key("problems").begin_array(true);
+  for (const problem& p : f.check->problems)
+    write_problem(j, p);
+  j.end_array();
+  j.key("lag");
   if (f.doc && f.check->lag) {
-    out.write("{\"late\": ");
-    write_json_seconds(out, o.max_late);
-    out.write(", \"early\": ");
-    write_json_seconds(out, o.max_early);
-    out.write(", \"points\": ");
-    write_array(out, f.check->lag->points, ", ", [&](const lag_report::point& p) {
-      out.put('[');
-      write_two_times(out, p.at, p.lag);
-      out.put(']');
-    });
-    out.put('}');
+    j.begin_object();
+    j.seconds("late", o.max_late);
+    j.seconds("early", o.max_early);
+    j.key("points").begin_array();
+    for (const lag_report::point& p : f.check->lag->points) {
+      begin_span(j, p.at, p.lag);
+      j.end_array();
+    }
+    j.end_array();
+    j.end_object();
   } else {
-    out.write("null");
+    j.null();
   }
-  out.write(",\n\"agreement\": ");
+  j.key("agreement");
   if (f.doc && agreement) {
-    out.write("{\"stretches\": ");
-    write_array(out, agreement->stretches, ",\n", [&](const agreement_view::stretch& s) {
-      out.put('[');
-      write_two_times(out, s.start, s.end);
-      out.write(", \"");
-      out.write(name_of(s.what));
-      out.write("\"]");
-    });
-    out.put('}');
+    j.begin_object();
+    j.key("stretches").begin_array(true);
+    for (const agreement_view::stretch& s : agreement->stretches) {
+      begin_span(j, s.start, s.end);
+      j.string(name_of(s.what));
+      j.end_array();
+    }
+    j.end_array();
+    j.end_object();
   } else {
-    out.write("null");
+    j.null();
   }
-  out.put('}');
+  j.end_object();
 }
 
 // Where frame k starts; the last frame may run past the grid's end, so past the model's range.
@@ -215,12 +194,13 @@ agreement_view compare_for_report(const document& doc, const tier& reference, co
 void write_report_data(std::span<const report_file> files,
                        std::span<const std::optional<agreement_view>> agreements,
                        const html_report_options& options, byte_sink& out) {
-  out.write("{\"files\": [\n");
-  for (std::size_t k = 0; k < files.size(); ++k) {
-    if (k > 0) out.write(",\n");
-    write_file(out, files[k], agreements[k] ? &*agreements[k] : nullptr, options);
-  }
-  out.write("\n]}");
+  json_writer j(out);
+  j.begin_object(true);
+  j.key("files").begin_array(true);
+  for (std::size_t k = 0; k < files.size(); ++k)
+    write_file(j, files[k], agreements[k] ? &*agreements[k] : nullptr, options);
+  j.end_array();
+  j.end_object();
 }
 
 }  // namespace tiers::detail

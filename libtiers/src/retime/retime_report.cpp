@@ -20,16 +20,16 @@ std::string_view to_string(cue_move::basis basis) {
 std::string retime_report_json(const retime_result& r, const tier& before) {
   std::string text;
   string_sink out(text);
-  out.write("{\"cues\": [");
+  detail::json_writer j(out);
+  j.begin_object(true);
+  j.key("cues").begin_array(true);
   std::size_t by_words = 0, by_neighbours = 0, unchanged = 0, unfixed = 0;
-  for (std::size_t k = 0; k < r.moves.size(); ++k) {
-    const cue_move& m = r.moves[k];
+  for (const cue_move& m : r.moves) {
     by_words += m.how == cue_move::basis::words;
     by_neighbours += m.how == cue_move::basis::neighbours;
     unchanged += m.how == cue_move::basis::unchanged;
     unfixed += !m.unfixed.empty();
-    out.write(k ? ",\n  {" : "\n  {");
-    detail::json_members j(out);
+    j.begin_object();
     j.count("cue", m.cue);
     if (const auto& id = before.annotations[m.cue].id) j.string("id", *id);
     j.seconds("old_start", m.old_start);
@@ -42,16 +42,18 @@ std::string retime_report_json(const retime_result& r, const tier& before) {
     j.count("words", m.words);
     if (!m.adjusted.empty()) j.string("adjusted", m.adjusted);
     if (!m.unfixed.empty()) j.string("unfixed", m.unfixed);
-    out.put('}');
+    j.end_object();
   }
-  out.write("],\n \"summary\": {");
-  detail::json_members s(out);
-  s.count("cues", r.moves.size());
-  s.count("by_words", by_words);
-  s.count("by_neighbours", by_neighbours);
-  s.count("unchanged", unchanged);
-  s.count("unfixed", unfixed);
-  out.write("}}\n");
+  j.end_array();
+  j.key("summary").begin_object();
+  j.count("cues", r.moves.size());
+  j.count("by_words", by_words);
+  j.count("by_neighbours", by_neighbours);
+  j.count("unchanged", unchanged);
+  j.count("unfixed", unfixed);
+  j.end_object();
+  j.end_object();
+  out.put('\n');
   out.flush();
   return text;
 }
