@@ -8,8 +8,10 @@ writer bug and a schema bug cannot hide each other. The kind is the document's `
 validated against the OASIS SARIF 2.1.0 schema (Draft 4) when --sarif names it; without it
 they are counted as skipped. A document of another kind fails.
 
-Usage: validate_json.py SCHEMA_DIR [--sarif SCHEMA] PATH... (folders are searched for *.json;
-at least one file must be found, so that an empty run cannot pass).
+Usage: validate_json.py SCHEMA_DIR [--sarif SCHEMA] [--invalid FILE]... PATH... (folders are
+searched for *.json; at least one file must be found, so that an empty run cannot pass). Each
+--invalid FILE is a document that is wrong on purpose: it must fail its schema, as tiers refuses
+it.
 """
 import json
 import os
@@ -48,9 +50,20 @@ def main():
         sarif_path = args.pop(0)
         if os.path.exists(sarif_path):
             sarif = validator(sarif_path, jsonschema.Draft4Validator)
+    invalid = []
+    while args and args[0] == "--invalid":
+        args.pop(0)
+        invalid.append(args.pop(0))
     validators = {k: validator(os.path.join(schema_dir, v), jsonschema.Draft202012Validator)
                   for k, v in KINDS.items()}
     count = bad = skipped = 0
+    for path in invalid:
+        with open(path, encoding="utf-8") as fh:
+            doc = json.load(fh)
+        count += 1
+        if validators[doc["format"]].is_valid(doc):
+            print(f"{path}: valid, but it is wrong on purpose and must fail its schema")
+            bad += 1
     for path in files(args):
         with open(path, encoding="utf-8") as fh:
             doc = json.load(fh)

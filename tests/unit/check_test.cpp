@@ -4,7 +4,9 @@
 #include <catch2/catch.hpp>
 #include <filesystem>
 #include <fstream>
+#include <set>
 
+#include "detail/json_tree.hpp"
 #include "support.hpp"
 
 using namespace tiers;
@@ -262,4 +264,79 @@ TEST_CASE("a missing word tier that the profile requires is one problem, not two
       check_document(captions_doc({cue(1, 3, "Hello there")}), {}, "t.json", q, {});
   const std::vector<std::string> still = rules_of(s);
   CHECK(std::count(still.begin(), still.end(), "dataset.tier-missing") == 1);
+}
+
+namespace {
+
+// The `$defs` entry a schema refers to (`#/$defs/NAME`), or the schema itself.
+const detail::json_node& resolved(const detail::json_node& root, const detail::json_node& s) {
+  const detail::json_node* ref = s.member("$ref");
+  if (!ref || !ref->text.starts_with("#/$defs/")) return s;
+  const detail::json_node* def = root.member("$defs")->member(ref->text.substr(8));
+  return def ? *def : s;
+}
+
+// Whether a schema takes exactly the values the profile reader takes for `kind`.
+bool schema_takes(const detail::json_node& root, const detail::json_node& property,
+                  threshold_kind kind) {
+  const detail::json_node& s = resolved(root, property);
+  auto has = [&](std::string_view key, std::string_view text) {
+    const detail::json_node* n = s.member(key);
+    return n && n->text == text;
+  };
+  switch (kind) {
+    case threshold_kind::count:
+      return has("type", "integer") && has("minimum", "1");
+    case threshold_kind::number:
+      return has("type", "number") && has("exclusiveMinimum", "0") && !s.member("maximum");
+    case threshold_kind::share:
+      return has("type", "number") && has("exclusiveMinimum", "0") && has("maximum", "1");
+    case threshold_kind::duration:
+    case threshold_kind::frames:
+      return &s == root.member("$defs")->member("duration");
+  }
+  return false;
+}
+
+}  // namespace
+
+TEST_CASE("the threshold table, the rule catalogue and the profile schema agree", "[check]") {
+  std::vector<diagnostic> problems;
+  const auto schema = detail::parse_json_tree(
+      test::slurp(std::string(TIERS_SOURCE_DIR) + "/schemas/profile.schema.json"), problems);
+  REQUIRE(schema);
+  const detail::json_node* rules_schema = schema->member("properties")->member("rules");
+  REQUIRE(rules_schema);
+  // The members a rule's object may have, by the schema: the rule's own entry, or the one for
+  // every other rule.
+  auto members_of = [&](std::string_view id) -> const detail::json_node* {
+    const detail::json_node* own = rules_schema->member("properties")->member(id);
+    const detail::json_node* entry = own ? own : rules_schema->member("additionalProperties");
+    return entry->member("oneOf")->items[1].member("properties");
+  };
+  for (const rule_info& r : rules()) {
+    INFO(r.id);
+    const detail::json_node* members = members_of(r.id);
+    REQUIRE(members);
+    std::set<std::string> keys{"severity", "source"};
+    for (const rule_threshold& t : rule_thresholds()) {
+      if (t.rule != r.id) continue;
+      INFO(t.key);
+      const bool has_member = t.kind == threshold_kind::count      ? t.count != nullptr
+                              : t.kind == threshold_kind::duration ? t.time != nullptr
+                              : t.kind == threshold_kind::frames   ? t.frames != nullptr
+                                                                   : t.number != nullptr;
+      CHECK(has_member);
+      const detail::json_node* property = members->member(t.key);
+      REQUIRE(property);
+      CHECK(schema_takes(*schema, *property, t.kind));
+      keys.insert(std::string(t.key));
+    }
+    // Nothing the schema allows that the reader ignores, and the reverse.
+    CHECK(std::set<std::string>(members->keys.begin(), members->keys.end()) == keys);
+  }
+  for (const rule_threshold& t : rule_thresholds())
+    CHECK(find_rule(t.rule));
+  for (const std::string& id : rules_schema->member("properties")->keys)
+    CHECK(find_rule(id));
 }

@@ -2,6 +2,7 @@
 #pragma once
 
 #include <cstddef>
+#include <cstdint>
 #include <map>
 #include <optional>
 #include <span>
@@ -36,6 +37,33 @@ struct check_limits {
   lag_window window;                         ///< where a cue looks for its words
   rational frame_rate{25, 1};                ///< for thresholds in frames, when the media has none
 };
+
+/// How a threshold is written in a profile, and what values it takes.
+enum class threshold_kind : std::uint8_t {
+  number,    ///< a number above 0
+  share,     ///< a number above 0 and at most 1
+  count,     ///< a whole number, 1 or more
+  duration,  ///< a duration (`1.5s`, `250ms`, `2f`), in time once read
+  frames,    ///< a duration kept as written, so that `2f` follows each file's frame rate
+};
+
+/// One threshold of a rule: the key a profile sets it with, what it measures, and the member
+/// of check_limits it sets (the one of the kind's type). This table is the only place a
+/// threshold is named: profiles are read by it, `--list-rules`, SARIF reports and profile
+/// digests give thresholds by it, and a unit test holds it against the profile schema.
+struct rule_threshold {
+  std::string_view rule;
+  std::string_view key;
+  std::string_view meaning;
+  threshold_kind kind;
+  double check_limits::*number = nullptr;          ///< number, share
+  std::size_t check_limits::*count = nullptr;      ///< count
+  time_ns check_limits::*time = nullptr;           ///< duration
+  duration_value check_limits::*frames = nullptr;  ///< frames
+};
+
+/// Every threshold, in the catalogue's order of rules.
+std::span<const rule_threshold> rule_thresholds();
 
 /// A tier the profile declares, and what it must be like.
 struct tier_spec {

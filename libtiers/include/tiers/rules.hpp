@@ -21,11 +21,10 @@ std::optional<rule_level> parse_rule_level(std::string_view text);
 severity severity_of(rule_level level);
 
 struct rule_info {
-  std::string_view id;          ///< lower-case words joined by `.` or `-`; stable once released
-  std::string_view group;       ///< time, tier, structure, text, caption, lag, dataset, read
-  rule_level level;             ///< the default
-  std::string_view summary;     ///< one line, lower case
-  std::string_view parameters;  ///< what a profile may set, e.g. "max: characters per second"
+  std::string_view id;       ///< lower-case words joined by `.` or `-`; stable once released
+  std::string_view group;    ///< time, tier, structure, text, caption, lag, dataset, read
+  rule_level level;          ///< the default
+  std::string_view summary;  ///< one line, lower case (thresholds: rule_thresholds())
 };
 
 /// Every rule, grouped, in a fixed order. Rules of group `read` are the readers' own

@@ -10,22 +10,46 @@
 namespace tiers {
 namespace {
 
-rule_parameter number(std::string name, double v) {
-  std::string text = fmt::format("{:g}", v);
-  return {std::move(name), text, text};
-}
+using enum threshold_kind;
+using limits = check_limits;
 
-rule_parameter count(std::string name, std::size_t v) {
-  return {std::move(name), std::to_string(v), std::to_string(v)};
-}
+// Meanings as people read them in --list-rules and the SARIF rule descriptions.
+const rule_threshold thresholds[]{
+    {"text.all-caps", "share", "least share of upper-case letters", share, &limits::caps_share},
+    {"text.all-caps", "min_letters", "letters needed to judge", count, nullptr,
+     &limits::caps_min_letters},
+    {"caption.cps", "max", "characters (grapheme clusters) per second", number, &limits::max_cps},
+    {"caption.wpm", "max", "words per minute", number, &limits::max_wpm},
+    {"caption.line-length", "max", "characters (grapheme clusters) per line", count, nullptr,
+     &limits::max_line_length},
+    {"caption.lines", "max", "lines", count, nullptr, &limits::max_lines},
+    {"caption.min-duration", "min", "duration", duration, nullptr, nullptr, &limits::min_duration},
+    {"caption.max-duration", "max", "duration", duration, nullptr, nullptr, &limits::max_duration},
+    {"caption.gap", "min", "duration (frames with f)", frames, nullptr, nullptr, nullptr,
+     &limits::min_gap},
+    {"lag.late", "max", "duration", duration, nullptr, nullptr, &limits::max_late},
+    {"lag.early", "max", "duration", duration, nullptr, nullptr, &limits::max_early},
+    {"lag.coverage", "min", "share of caption words", share, &limits::min_coverage},
+};
 
-rule_parameter duration(std::string name, const duration_value& d) {
-  const std::string text = format_duration(d);
-  return {std::move(name), "\"" + text + "\"", text};
-}
-
-rule_parameter seconds(std::string name, time_ns t) {
-  return duration(std::move(name), duration_value{t, std::nullopt});
+rule_parameter parameter_of(const rule_threshold& t, const check_limits& l) {
+  std::string name(t.key);
+  switch (t.kind) {
+    case number:
+    case share: {
+      std::string text = fmt::format("{:g}", l.*t.number);
+      return {std::move(name), text, text};
+    }
+    case count:
+      return {std::move(name), std::to_string(l.*t.count), std::to_string(l.*t.count)};
+    case duration:
+    case frames: {
+      const std::string text =
+          format_duration(t.kind == frames ? l.*t.frames : duration_value{l.*t.time, std::nullopt});
+      return {std::move(name), "\"" + text + "\"", text};
+    }
+  }
+  return {};
 }
 
 // FNV-1a, 64 bits (Fowler, Noll and Vo's published parameters): a digest to tell settings
@@ -41,20 +65,15 @@ std::uint64_t fnv1a64(std::string_view text) {
 
 }  // namespace
 
+std::span<const rule_threshold> rule_thresholds() {
+  return thresholds;
+}
+
 std::vector<rule_parameter> rule_parameters(std::string_view rule, const check_limits& l) {
-  if (rule == "caption.cps") return {number("max", l.max_cps)};
-  if (rule == "caption.wpm") return {number("max", l.max_wpm)};
-  if (rule == "caption.line-length") return {count("max", l.max_line_length)};
-  if (rule == "caption.lines") return {count("max", l.max_lines)};
-  if (rule == "caption.min-duration") return {seconds("min", l.min_duration)};
-  if (rule == "caption.max-duration") return {seconds("max", l.max_duration)};
-  if (rule == "caption.gap") return {duration("min", l.min_gap)};
-  if (rule == "lag.late") return {seconds("max", l.max_late)};
-  if (rule == "lag.early") return {seconds("max", l.max_early)};
-  if (rule == "lag.coverage") return {number("min", l.min_coverage)};
-  if (rule == "text.all-caps")
-    return {number("share", l.caps_share), count("min_letters", l.caps_min_letters)};
-  return {};
+  std::vector<rule_parameter> out;
+  for (const rule_threshold& t : thresholds)
+    if (t.rule == rule) out.push_back(parameter_of(t, l));
+  return out;
 }
 
 profile_identity identify(const profile& p) {

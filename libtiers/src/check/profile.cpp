@@ -214,48 +214,31 @@ void profile_reader::read_rule(const std::string& id, const json_node& n) {
   }
   if (auto s = f.string("source")) out_.sources[id] = *s;
   check_limits& l = out_.limits;
-  auto positive = [&](std::string_view key, double& into, double most = HUGE_VAL) {
-    if (auto v = f.number(key)) {
-      if (*v > 0 && *v <= most)
-        into = *v;
-      else
-        f.bad(*f.get(key),
-              quote_name(key) + " must be above 0" +
-                  (most < HUGE_VAL ? " and at most " + std::to_string(int(most)) : ""));
+  for (const rule_threshold& t : rule_thresholds()) {
+    if (t.rule != id) continue;
+    if (t.kind == threshold_kind::duration || t.kind == threshold_kind::frames) {
+      if (auto d = duration(f, t.key)) {
+        if (t.kind == threshold_kind::frames)
+          l.*t.frames = *d;
+        else
+          l.*t.time = d->at(l.frame_rate);
+      }
+      continue;
     }
-  };
-  auto count = [&](std::string_view key, std::size_t& into) {
-    if (auto v = f.number(key)) {
+    const std::optional<double> v = f.number(t.key);
+    if (!v) continue;
+    const std::string key = quote_name(t.key);
+    if (t.kind == threshold_kind::count) {
       if (*v >= 1 && *v <= 1e9 && std::floor(*v) == *v)
-        into = static_cast<std::size_t>(*v);
+        l.*t.count = static_cast<std::size_t>(*v);
       else
-        f.bad(*f.get(key), quote_name(key) + " must be a whole number, 1 or more");
+        f.bad(*f.get(t.key), key + " must be a whole number, 1 or more");
+    } else if (*v > 0 && (t.kind == threshold_kind::number || *v <= 1)) {
+      l.*t.number = *v;
+    } else {
+      f.bad(*f.get(t.key),
+            key + " must be above 0" + (t.kind == threshold_kind::share ? " and at most 1" : ""));
     }
-  };
-  auto length = [&](std::string_view key, time_ns& into) {
-    if (auto d = duration(f, key)) into = d->at(l.frame_rate);
-  };
-  double share = 0;
-  if (id == "caption.cps") positive("max", l.max_cps);
-  if (id == "caption.wpm") positive("max", l.max_wpm);
-  if (id == "caption.line-length") count("max", l.max_line_length);
-  if (id == "caption.lines") count("max", l.max_lines);
-  if (id == "caption.min-duration") length("min", l.min_duration);
-  if (id == "caption.max-duration") length("max", l.max_duration);
-  if (id == "caption.gap")
-    if (auto d = duration(f, "min")) l.min_gap = *d;
-  if (id == "lag.late") length("max", l.max_late);
-  if (id == "lag.early") length("max", l.max_early);
-  if (id == "lag.coverage") {
-    share = l.min_coverage;
-    positive("min", share, 1);
-    l.min_coverage = share;
-  }
-  if (id == "text.all-caps") {
-    share = l.caps_share;
-    positive("share", share, 1);
-    l.caps_share = share;
-    count("min_letters", l.caps_min_letters);
   }
   f.finish();
 }

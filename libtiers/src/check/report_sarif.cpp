@@ -64,6 +64,14 @@ void write_rules(json_writer& j) {
     write_configuration(j.key("defaultConfiguration"), r.level, rule_parameters(r.id, defaults));
     j.key("properties").begin_object();
     j.string("group", r.group);
+    bool any = false;
+    for (const rule_threshold& t : rule_thresholds()) {
+      if (t.rule != r.id) continue;
+      if (!any) j.key("thresholds").begin_object();
+      any = true;
+      j.string(t.key, t.meaning);
+    }
+    if (any) j.end_object();
     j.end_object();
     j.end_object();
   }
