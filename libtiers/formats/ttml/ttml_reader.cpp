@@ -49,6 +49,16 @@ class ttml_reader {
       : in_(input), out_(out), positions_(options, out) {}
 
   void run();
+  // The phases of run: each returns false (or nothing) once the file is refused.
+  bool parse(pugi::xml_document& doc);
+  bool read_root(pugi::xml_document& doc, const pugi::xml_node& tt);
+  void root_metadata(const pugi::xml_node& tt);
+  void read_head(const pugi::xml_node& tt, const pugi::xml_node& head);
+  void add_word_tiers();
+  bool refuse(std::size_t offset, std::string code, std::string message) {
+    fail(offset, std::move(code), std::move(message));
+    return false;
+  }
 
  private:
   void fail(std::size_t offset, std::string code, std::string message) {
@@ -192,35 +202,32 @@ class ttml_reader {
   position_recorder positions_;
 };
 
-void ttml_reader::run() {
+bool ttml_reader::parse(pugi::xml_document& doc) {
   // pugixml holds the whole tree in memory, a few times the input: refuse what would not fit.
   if (in_.size() > max_bytes)
-    return fail(0, "ttml.size",
-                "the file is larger than " + std::to_string(max_bytes >> 20) +
-                    " MiB, the most tiers reads as TTML");
+    return refuse(0, "ttml.size",
+                  "the file is larger than " + std::to_string(max_bytes >> 20) +
+                      " MiB, the most tiers reads as TTML");
   if (const std::optional<forbidden> f = first_forbidden(in_))
-    return fail(f->offset, "ttml.xml", "not well-formed XML: " + f->message);
-  pugi::xml_document doc;
+    return refuse(f->offset, "ttml.xml", "not well-formed XML: " + f->message);
   // parse_doctype makes a DTD visible, so that it can be refused; pugixml never expands
   // entities other than the predefined ones, so a DTD could do nothing but we refuse it plainly.
   const pugi::xml_parse_result r = doc.load_buffer(
       in_.data(), in_.size(), pugi::parse_default | pugi::parse_ws_pcdata | pugi::parse_doctype,
       pugi::encoding_utf8);
-  if (!r) {
-    fail(static_cast<std::size_t>(r.offset), "ttml.xml",
-         std::string("not well-formed XML: ") + r.description());
-    return;
-  }
+  if (!r)
+    return refuse(static_cast<std::size_t>(r.offset), "ttml.xml",
+                  std::string("not well-formed XML: ") + r.description());
   // Depth first, without recursion: a 200,000-deep document must not exhaust the stack.
   std::size_t depth = 0;
   for (pugi::xml_node n = doc.first_child(); n;) {
     if (n.type() == pugi::node_doctype)
-      return fail(at(n), "ttml.dtd",
-                  "document type declarations are not processed (no DTDs, no entities)");
+      return refuse(at(n), "ttml.dtd",
+                    "document type declarations are not processed (no DTDs, no entities)");
     if (n.first_child()) {
       if (++depth > max_depth)
-        return fail(at(n), "ttml.depth",
-                    "elements nest deeper than " + std::to_string(max_depth) + " levels");
+        return refuse(at(n), "ttml.depth",
+                      "elements nest deeper than " + std::to_string(max_depth) + " levels");
       n = n.first_child();
       continue;
     }
@@ -230,7 +237,11 @@ void ttml_reader::run() {
     }
     if (n) n = n.next_sibling();
   }
-  const pugi::xml_node tt = doc.document_element();
+  return true;
+}
+
+// The root: namespaces, timing parameters, and its other attributes as metadata.
+bool ttml_reader::read_root(pugi::xml_document& doc, const pugi::xml_node& tt) {
   for (pugi::xml_attribute a : tt.attributes()) {
     const std::string_view name = a.name();
     if (name == "xmlns")
@@ -239,8 +250,8 @@ void ttml_reader::run() {
       prefixes_[std::string(name.substr(6))] = a.value();
   }
   if (tt_name(tt) != "tt")
-    return fail(at(tt), "ttml.root",
-                "not a TTML document: the root must be tt in namespace " + std::string(ns_tt));
+    return refuse(at(tt), "ttml.root",
+                  "not a TTML document: the root must be tt in namespace " + std::string(ns_tt));
   // Names are kept as tts:, ttm: and ttp: with those prefixes meaning TTML's namespaces, and
   // the writer declares them so: the same prefixes bound elsewhere could not be told apart.
   for (const auto& [prefix, ns] :
@@ -249,12 +260,12 @@ void ttml_reader::run() {
     const std::string_view bound =
         declared == prefixes_.end() ? ns : std::string_view(declared->second);
     if (bound != ns)
-      return fail(at(tt), "ttml.namespace",
-                  "the prefix " + std::string(prefix) + " is bound to '" + std::string(bound) +
-                      "', not to " + std::string(ns) + ": tiers reads " + prefix +
-                      ": only as TTML's own namespace");
+      return refuse(at(tt), "ttml.namespace",
+                    "the prefix " + std::string(prefix) + " is bound to '" + std::string(bound) +
+                        "', not to " + std::string(ns) + ": tiers reads " + prefix +
+                        ": only as TTML's own namespace");
   }
-  if (!unique_attributes(doc)) return;
+  if (!unique_attributes(doc)) return false;
   auto param = [&](std::string_view local) -> std::string_view {
     for (pugi::xml_attribute a : tt.attributes())
       if (canonical(a.name()) == "ttp:" + std::string(local)) return a.value();
@@ -262,10 +273,17 @@ void ttml_reader::run() {
   };
   if (auto problem = read_parameters(param("frameRate"), param("frameRateMultiplier"),
                                      param("subFrameRate"), param("tickRate"), params_))
-    return fail(at(tt), "ttml.parameter", std::string(*problem));
+    return refuse(at(tt), "ttml.parameter", std::string(*problem));
   if (const std::string_view base = param("timeBase"); !base.empty() && base != "media")
-    return fail(at(tt), "ttml.parameter", "only ttp:timeBase=\"media\" is supported (IMSC 1.1)");
+    return refuse(at(tt), "ttml.parameter", "only ttp:timeBase=\"media\" is supported (IMSC 1.1)");
   if (params_.frame_rate_given) out_.value.media.frame_rate = params_.frame_rate;
+  root_metadata(tt);
+  return true;
+}
+
+// The root's other attributes: its language and foreign attributes and namespaces, as
+// metadata that the writer puts back.
+void ttml_reader::root_metadata(const pugi::xml_node& tt) {
   for (pugi::xml_attribute a : tt.attributes()) {
     const std::string name = canonical(a.name());
     if (name == "xml:lang") {
@@ -281,68 +299,62 @@ void ttml_reader::run() {
       out_.value.metadata.emplace("ttml:tt:" + name, a.value());
     }
   }
-  const pugi::xml_node head = [&] {
-    for (pugi::xml_node c : tt.children())
-      if (tt_name(c) == "head") return c;
-    return pugi::xml_node{};
-  }();
-  if (head) {
-    // The writer puts speakers that had no agent of their own into one metadata block; it
-    // becomes speaker attributes again, not head content — when it has exactly the writer's
-    // shape and every reference to its agents is a plain `ttm:agent="ID"`, which is all the
-    // writer makes of a speaker. Otherwise it is kept like any other head content, and so are
-    // the references.
-    pugi::xml_node block;
-    std::set<std::string, std::less<>> block_ids;
-    for (pugi::xml_node c : head.children()) {
-      std::set<std::string, std::less<>> ids;
-      if (c.type() == pugi::node_element &&
-          std::string_view(c.attribute("xml:id").value()) == speakers_block &&
-          writer_speakers(c, ids)) {
-        block = c;
-        block_ids = std::move(ids);
-        break;
-      }
-    }
-    if (block)
-      for (pugi::xpath_node x : tt.select_nodes(".//*")) {
-        for (pugi::xml_attribute at : x.node().attributes()) {
-          if (canonical(at.name()) != "ttm:agent") continue;
-          std::string_view refs = at.value();
-          if (block_ids.count(refs)) continue;
-          for (std::string_view id = next_idref(refs); !id.empty(); id = next_idref(refs))
-            if (block_ids.count(id)) block = pugi::xml_node{};
-        }
-      }
-    std::string kept;
-    for (pugi::xml_node c : head.children()) {
-      if (block && c == block) {
-        generated_.insert(block_ids.begin(), block_ids.end());
-        continue;
-      }
-      std::ostringstream one;
-      c.print(one, "", pugi::format_raw);
-      kept += one.str();
-    }
-    if (!kept.empty()) out_.value.metadata.emplace("ttml:head", kept);
-    // Agents (TTML2 §12.1.1): an id and, where given, a name, for ttm:agent on p.
-    for (pugi::xpath_node x : head.select_nodes(".//*")) {
-      const pugi::xml_node n = x.node();
-      if (canonical(n.name()) != "ttm:agent") continue;
-      std::string name = n.attribute("xml:id").value();
-      if (name.empty()) continue;  // nothing can refer to it; it stays in ttml:head
-      for (pugi::xml_node c : n.children())
-        if (canonical(c.name()) == "ttm:name") name = collapse_space(c.text().get());
-      agents_[n.attribute("xml:id").value()] = name;
+}
+
+// The head: the writer's block of speakers, kept head content, and the agents (TTML2 §12.1.1).
+void ttml_reader::read_head(const pugi::xml_node& tt, const pugi::xml_node& head) {
+  // The writer puts speakers that had no agent of their own into one metadata block; it
+  // becomes speaker attributes again, not head content — when it has exactly the writer's
+  // shape and every reference to its agents is a plain `ttm:agent="ID"`, which is all the
+  // writer makes of a speaker. Otherwise it is kept like any other head content, and so are
+  // the references.
+  pugi::xml_node block;
+  std::set<std::string, std::less<>> block_ids;
+  for (pugi::xml_node c : head.children()) {
+    std::set<std::string, std::less<>> ids;
+    if (c.type() == pugi::node_element &&
+        std::string_view(c.attribute("xml:id").value()) == speakers_block &&
+        writer_speakers(c, ids)) {
+      block = c;
+      block_ids = std::move(ids);
+      break;
     }
   }
-  for (pugi::xml_node c : tt.children())
-    if (tt_name(c) == "body") {
-      const span body = resolve(c, 0, std::nullopt, false);
-      walk(c, body, no_tier);
+  if (block)
+    for (pugi::xpath_node x : tt.select_nodes(".//*")) {
+      for (pugi::xml_attribute at : x.node().attributes()) {
+        if (canonical(at.name()) != "ttm:agent") continue;
+        std::string_view refs = at.value();
+        if (block_ids.count(refs)) continue;
+        for (std::string_view id = next_idref(refs); !id.empty(); id = next_idref(refs))
+          if (block_ids.count(id)) block = pugi::xml_node{};
+      }
     }
-  if (bad_time_) return;
-  // Word tiers right after their tiers, in document order.
+  std::string kept;
+  for (pugi::xml_node c : head.children()) {
+    if (block && c == block) {
+      generated_.insert(block_ids.begin(), block_ids.end());
+      continue;
+    }
+    std::ostringstream one;
+    c.print(one, "", pugi::format_raw);
+    kept += one.str();
+  }
+  if (!kept.empty()) out_.value.metadata.emplace("ttml:head", kept);
+  // Agents (TTML2 §12.1.1): an id and, where given, a name, for ttm:agent on p.
+  for (pugi::xpath_node x : head.select_nodes(".//*")) {
+    const pugi::xml_node n = x.node();
+    if (canonical(n.name()) != "ttm:agent") continue;
+    std::string name = n.attribute("xml:id").value();
+    if (name.empty()) continue;  // nothing can refer to it; it stays in ttml:head
+    for (pugi::xml_node c : n.children())
+      if (canonical(c.name()) == "ttm:name") name = collapse_space(c.text().get());
+    agents_[n.attribute("xml:id").value()] = name;
+  }
+}
+
+// Word tiers right after their tiers, in document order.
+void ttml_reader::add_word_tiers() {
   for (auto it = words_.rbegin(); it != words_.rend(); ++it) {
     tier w;
     w.name = words_tier_name(out_.value.tiers[it->first].name);
@@ -360,6 +372,26 @@ void ttml_reader::run() {
       map.annotations.insert(map.annotations.begin() + after, std::move(words));
     }
   }
+}
+
+void ttml_reader::run() {
+  pugi::xml_document doc;
+  if (!parse(doc)) return;
+  const pugi::xml_node tt = doc.document_element();
+  if (!read_root(doc, tt)) return;
+  for (pugi::xml_node c : tt.children())
+    if (tt_name(c) == "head") {
+      read_head(tt, c);
+      break;
+    }
+  for (pugi::xml_node c : tt.children())
+    if (tt_name(c) == "body") {
+      const span body = resolve(c, 0, std::nullopt, false);
+      walk(c, body, no_tier);
+    }
+  if (bad_time_) return;
+  if (bad_time_) return;
+  add_word_tiers();
 }
 
 // The active interval of a timed element (TTML2 §10.4, SMIL subset): begin and end offsets

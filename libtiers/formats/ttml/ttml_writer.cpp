@@ -166,175 +166,211 @@ struct plan {
   std::set<const annotation*> written_speakers;  // speakers written as agents of their own
 };
 
-plan make_plan(const document& doc) {
+// Decides, once for the writer and the loss report, what of a document the TTML is written
+// with: one member function per part of the decision.
+struct planner {
+  const document& doc;
   plan p;
-  auto problem = [&](const std::string& what) { ++p.counted[what]; };
-  std::set<std::string, std::less<>> declared{"tts", "ttm", "ttp", "xml"};
-  for (const auto& [k, v] : doc.metadata)
-    if (k.starts_with("ttml:xmlns:")) {
-      const std::string prefix = k.substr(11);
-      if (is_ncname(prefix) && !declared.count(prefix) && prefix != "xmlns" && xml_safe(v) &&
-          v != ns_tt && v != ns_tts && v != ns_ttm && v != ns_ttp) {
-        std::string a = " xmlns:" + prefix + "=\"";
-        escape(a, v, true);
-        p.declarations += a + "\"";
-        declared.insert(prefix);
-      } else {
-        p.problems.push_back("document metadata " + quote_name(k) +
-                             " (not a namespace declaration the writer can add)");
+  std::set<std::string, std::less<>> declared;  // namespace prefixes bound in the output
+  std::set<std::string> ids;                    // the xml:ids taken so far
+
+  void problem(const std::string& what) { ++p.counted[what]; }
+  bool take_id(const std::string& id) { return is_ncname(id) && ids.insert(id).second; }
+
+  // Foreign namespaces of the root that can be declared again.
+  void namespaces() {
+    for (const auto& [k, v] : doc.metadata)
+      if (k.starts_with("ttml:xmlns:")) {
+        const std::string prefix = k.substr(11);
+        if (is_ncname(prefix) && !declared.count(prefix) && prefix != "xmlns" && xml_safe(v) &&
+            v != ns_tt && v != ns_tts && v != ns_ttm && v != ns_ttp) {
+          std::string a = " xmlns:" + prefix + "=\"";
+          escape(a, v, true);
+          p.declarations += a + "\"";
+          declared.insert(prefix);
+        } else {
+          p.problems.push_back("document metadata " + quote_name(k) +
+                               " (not a namespace declaration the writer can add)");
+        }
       }
-    }
+  }
+
   // A kept attribute is written when its name is one XML allows here, the writer does not
   // write it itself, and its value is text XML can hold.
-  auto keep = [&](const void* owner, std::string_view element, const std::string& key,
-                  const std::string& value) {
+  bool keep(const void* owner, std::string_view element, const std::string& key,
+            const std::string& value) {
     const std::string_view name = std::string_view(key).substr(key.find(':') + 1);
     if (!writable_name(name, declared) || own_attribute(element, name) || !xml_safe(value))
       return false;
     p.written_attributes.emplace(owner, key);
     return true;
-  };
-  for (const auto& [k, v] : doc.metadata) {
-    if (k == "ttml:lang") {
-      if (xml_safe(v))
-        p.lang = v;
-      else
-        p.problems.push_back("the document's language (characters XML cannot hold)");
-    } else if (k.starts_with("ttml:xmlns:")) {
-      continue;
-    } else if (k.starts_with("ttml:tt:")) {
-      if (keep(&doc, "tt", k.substr(5), v)) {
-        std::string a = " " + k.substr(8) + "=\"";
-        escape(a, v, true);
-        p.tt_attributes += a + "\"";
-      } else {
+  }
+
+  // The document's language, attributes of tt and head.
+  void document_metadata() {
+    for (const auto& [k, v] : doc.metadata) {
+      if (k == "ttml:lang") {
+        if (xml_safe(v))
+          p.lang = v;
+        else
+          p.problems.push_back("the document's language (characters XML cannot hold)");
+      } else if (k.starts_with("ttml:xmlns:")) {
+        continue;
+      } else if (k.starts_with("ttml:tt:")) {
+        if (keep(&doc, "tt", k.substr(5), v)) {
+          std::string a = " " + k.substr(8) + "=\"";
+          escape(a, v, true);
+          p.tt_attributes += a + "\"";
+        } else {
+          p.problems.push_back("document metadata " + quote_name(k) +
+                               " (an attribute of tt the writer cannot write, or writes itself)");
+        }
+      } else if (k == "ttml:head") {
+        if (!first_forbidden(v) && fragment_text(v, p.declarations))
+          p.head = v;
+        else
+          p.problems.push_back("the TTML head (not well-formed XML)");
+      } else if (k.rfind("ttml:", 0) == 0) {
         p.problems.push_back("document metadata " + quote_name(k) +
-                             " (an attribute of tt the writer cannot write, or writes itself)");
+                             " (not a TTML head, language or attribute)");
       }
-    } else if (k == "ttml:head") {
-      if (!first_forbidden(v) && fragment_text(v, p.declarations))
-        p.head = v;
-      else
-        p.problems.push_back("the TTML head (not well-formed XML)");
-    } else if (k.rfind("ttml:", 0) == 0) {
-      p.problems.push_back("document metadata " + quote_name(k) +
-                           " (not a TTML head, language or attribute)");
     }
   }
-  const auto agents = head_agents(p.head, p.declarations);
+
   // A word tier that the timed spans in its parent's markup already yield is not written
   // again: reading the parent alone, as the reader would, must give exactly these words.
-  for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
-    const tier& w = doc.tiers[k];
-    if (!w.parent || w.parent->rel != relation::within) continue;
-    const tier* parent = find_tier(doc, w.parent->tier);
-    if (!parent || !is_words_tier_of(w, parent->name)) continue;
-    document alone;
-    alone.media = doc.media;
-    alone.metadata = doc.metadata;
-    alone.tiers = {*parent};
-    std::string text;
-    {
-      string_sink sink(text);
-      write_ttml(alone, sink, {});
-    }
-    read_options o;
-    const read_result back = read_ttml(text, o);
-    const tier* derived = back.ok() ? find_tier(back.value, w.name) : nullptr;
-    if (derived && derived->annotations == w.annotations)
-      p.skipped_tiers.insert(k);
-    else  // written as a div of its own, which has no parent
-      p.problems.push_back("the parent link of tier " + quote_name(w.name) +
-                           " (its words are not its parent's timed spans)");
-  }
-  std::set<std::string> ids;
-  auto take_id = [&](const std::string& id) { return is_ncname(id) && ids.insert(id).second; };
-  for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
-    const tier& t = doc.tiers[k];
-    if (p.skipped_tiers.count(k)) continue;
-    if (take_id(t.name))
-      p.named_tiers.insert(k);
-    else
-      p.problems.push_back("the tier name " + quote_name(t.name) +
-                           " (not a unique XML identifier)");
-    if (t.annotations.empty())
-      p.problems.push_back("empty tier " + quote_name(t.name) +
-                           " (a div without p is not read back)");
-    for (const auto& [key, value] : t.attributes)
-      if (key.starts_with("ttml:") && !keep(&t, "div", key, value))
-        p.problems.push_back("the attribute " + quote_name(key) + " of tier " + quote_name(t.name) +
-                             " (a name the writer cannot write, or writes itself)");
-  }
-  for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
-    const tier& t = doc.tiers[k];
-    if (p.skipped_tiers.count(k)) continue;
-    for (const annotation& a : t.annotations) {
-      if (a.start < 0) problem("negative times");
-      if (a.end <= a.start)
-        problem("annotations that do not end after they start (never shown in TTML)");
-      if (a.id && take_id(*a.id))
-        p.written_ids.insert(&a);
-      else if (a.id)
-        problem("ids that are not unique XML identifiers");
-      if (!xml_safe(a.text) || a.text.find('\r') != std::string::npos)
-        problem("text with characters XML cannot hold");
-      if (a.markup) {
-        const auto text =
-            first_forbidden(*a.markup) ? std::nullopt : fragment_text(*a.markup, p.declarations);
-        if (text && *text == a.text)
-          p.usable_markup.insert(&a);
-        else
-          problem("markup that is not TTML content spelling the text");
+  void skip_derived_words() {
+    for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
+      const tier& w = doc.tiers[k];
+      if (!w.parent || w.parent->rel != relation::within) continue;
+      const tier* parent = find_tier(doc, w.parent->tier);
+      if (!parent || !is_words_tier_of(w, parent->name)) continue;
+      document alone;
+      alone.media = doc.media;
+      alone.metadata = doc.metadata;
+      alone.tiers = {*parent};
+      std::string text;
+      {
+        string_sink sink(text);
+        write_ttml(alone, sink, {});
       }
-      bool unkept = false;
-      for (const auto& [key, value] : a.attributes)
-        if (key.starts_with("ttml:") && !keep(&a, "p", key, value)) unkept = true;
-      if (unkept) problem("ttml: attributes the writer cannot write, or writes itself");
-      const auto speaker = a.attributes.find("speaker");
-      if (speaker == a.attributes.end()) continue;
-      const auto own = a.attributes.find("ttml:ttm:agent");
-      if (own != a.attributes.end() && p.written_attributes.count({&a, own->first})) {
-        // The p's own agent names the speaker when read back: it must name this one.
-        if (agent_speaker(own->second, agents) != speaker->second)
-          problem("speakers other than the one the annotation's own ttm:agent names");
-      } else if (!xml_safe(speaker->second) || collapse_space(speaker->second) != speaker->second ||
-                 speaker->second.empty()) {
-        // An agent's name is read with its white space collapsed.
-        problem("speakers with characters XML cannot hold or white space a name loses");
-      } else {
-        p.agent_ids.emplace(speaker->second, "");
-        p.written_speakers.insert(&a);
-      }
+      read_options o;
+      const read_result back = read_ttml(text, o);
+      const tier* derived = back.ok() ? find_tier(back.value, w.name) : nullptr;
+      if (derived && derived->annotations == w.annotations)
+        p.skipped_tiers.insert(k);
+      else  // written as a div of its own, which has no parent
+        p.problems.push_back("the parent link of tier " + quote_name(w.name) +
+                             " (its words are not its parent's timed spans)");
     }
   }
+
+  // Tier names as div ids, empty tiers, and kept attributes of a div.
+  void tiers() {
+    for (std::size_t k = 0; k < doc.tiers.size(); ++k) {
+      const tier& t = doc.tiers[k];
+      if (p.skipped_tiers.count(k)) continue;
+      if (take_id(t.name))
+        p.named_tiers.insert(k);
+      else
+        p.problems.push_back("the tier name " + quote_name(t.name) +
+                             " (not a unique XML identifier)");
+      if (t.annotations.empty())
+        p.problems.push_back("empty tier " + quote_name(t.name) +
+                             " (a div without p is not read back)");
+      for (const auto& [key, value] : t.attributes)
+        if (key.starts_with("ttml:") && !keep(&t, "div", key, value))
+          p.problems.push_back("the attribute " + quote_name(key) + " of tier " +
+                               quote_name(t.name) +
+                               " (a name the writer cannot write, or writes itself)");
+    }
+  }
+
+  // One p: its times, id, text, markup, kept attributes and speaker.
+  void annotation_of(const annotation& a,
+                     const std::map<std::string, std::string, std::less<>>& agents) {
+    if (a.start < 0) problem("negative times");
+    if (a.end <= a.start)
+      problem("annotations that do not end after they start (never shown in TTML)");
+    if (a.id && take_id(*a.id))
+      p.written_ids.insert(&a);
+    else if (a.id)
+      problem("ids that are not unique XML identifiers");
+    if (!xml_safe(a.text) || a.text.find('\r') != std::string::npos)
+      problem("text with characters XML cannot hold");
+    if (a.markup) {
+      const auto text =
+          first_forbidden(*a.markup) ? std::nullopt : fragment_text(*a.markup, p.declarations);
+      if (text && *text == a.text)
+        p.usable_markup.insert(&a);
+      else
+        problem("markup that is not TTML content spelling the text");
+    }
+    bool unkept = false;
+    for (const auto& [key, value] : a.attributes)
+      if (key.starts_with("ttml:") && !keep(&a, "p", key, value)) unkept = true;
+    if (unkept) problem("ttml: attributes the writer cannot write, or writes itself");
+    const auto speaker = a.attributes.find("speaker");
+    if (speaker == a.attributes.end()) return;
+    const auto own = a.attributes.find("ttml:ttm:agent");
+    if (own != a.attributes.end() && p.written_attributes.count({&a, own->first})) {
+      // The p's own agent names the speaker when read back: it must name this one.
+      if (agent_speaker(own->second, agents) != speaker->second)
+        problem("speakers other than the one the annotation's own ttm:agent names");
+    } else if (!xml_safe(speaker->second) || collapse_space(speaker->second) != speaker->second ||
+               speaker->second.empty()) {
+      // An agent's name is read with its white space collapsed.
+      problem("speakers with characters XML cannot hold or white space a name loses");
+    } else {
+      p.agent_ids.emplace(speaker->second, "");
+      p.written_speakers.insert(&a);
+    }
+  }
+
   // Agents for speakers get ids no element or agent reference of the document uses already:
   // a p that keeps its own ttm:agent must not come to name a generated speaker.
-  std::set<std::string> taken = ids;
-  for (const tier& t : doc.tiers)
-    for (const annotation& a : t.annotations) {
-      if (a.id) taken.insert(*a.id);
-      if (auto it = a.attributes.find("ttml:ttm:agent"); it != a.attributes.end()) {
-        std::string_view refs = it->second;
-        while (!refs.empty()) {
-          const std::size_t sp = refs.find(' ');
-          taken.insert(std::string(refs.substr(0, sp)));
-          refs = sp == std::string_view::npos ? std::string_view{} : refs.substr(sp + 1);
+  void agent_ids() {
+    std::set<std::string> taken = ids;
+    for (const tier& t : doc.tiers)
+      for (const annotation& a : t.annotations) {
+        if (a.id) taken.insert(*a.id);
+        if (auto it = a.attributes.find("ttml:ttm:agent"); it != a.attributes.end()) {
+          std::string_view refs = it->second;
+          while (!refs.empty()) {
+            const std::size_t sp = refs.find(' ');
+            taken.insert(std::string(refs.substr(0, sp)));
+            refs = sp == std::string_view::npos ? std::string_view{} : refs.substr(sp + 1);
+          }
         }
       }
+    if (auto head = doc.metadata.find("ttml:head"); head != doc.metadata.end())
+      for (std::size_t at = head->second.find("xml:id=\""); at != std::string::npos;
+           at = head->second.find("xml:id=\"", at + 1)) {
+        const std::size_t from = at + 8, to = head->second.find('"', from);
+        taken.insert(head->second.substr(from, to == std::string::npos ? to : to - from));
+      }
+    std::size_t next = 1;
+    for (auto& [speaker, id] : p.agent_ids) {
+      do
+        id = "agent-" + std::to_string(next++);
+      while (taken.count(id));
     }
-  if (auto head = doc.metadata.find("ttml:head"); head != doc.metadata.end())
-    for (std::size_t at = head->second.find("xml:id=\""); at != std::string::npos;
-         at = head->second.find("xml:id=\"", at + 1)) {
-      const std::size_t from = at + 8, to = head->second.find('"', from);
-      taken.insert(head->second.substr(from, to == std::string::npos ? to : to - from));
-    }
-  std::size_t next = 1;
-  for (auto& [speaker, id] : p.agent_ids) {
-    do
-      id = "agent-" + std::to_string(next++);
-    while (taken.count(id));
   }
-  return p;
+};
+
+plan make_plan(const document& doc) {
+  planner pl{doc, {}, {"tts", "ttm", "ttp", "xml"}, {}};
+  pl.namespaces();
+  pl.document_metadata();
+  const auto agents = head_agents(pl.p.head, pl.p.declarations);
+  pl.skip_derived_words();
+  pl.tiers();
+  for (std::size_t k = 0; k < doc.tiers.size(); ++k)
+    if (!pl.p.skipped_tiers.count(k))
+      for (const annotation& a : doc.tiers[k].annotations)
+        pl.annotation_of(a, agents);
+  pl.agent_ids();
+  return std::move(pl.p);
 }
 
 // The kept ttml: attributes of a div or p that the plan writes.

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <functional>
 #include <map>
+#include <numeric>
 #include <tuple>
 #include <unordered_set>
 
@@ -197,8 +198,9 @@ std::string text_body(const annotation& a, const std::vector<const annotation*>&
   return compact;
 }
 
-vtt_plan plan(const document& doc) {
-  vtt_plan p;
+// The header, the prelude (styles, regions, comments) and the trailer, when they would read
+// back as themselves; returns the regions the prelude defines, which cue settings may name.
+std::vector<std::string> plan_blocks(const document& doc, vtt_plan& p) {
   auto meta = [&](std::string_view key) -> const std::string* {
     auto it = doc.metadata.find(key);
     return it == doc.metadata.end() ? nullptr : &it->second;
@@ -252,33 +254,31 @@ vtt_plan plan(const document& doc) {
     else
       p.other.push_back("the WebVTT comments after the cues (malformed)");
   }
-  if (doc.tiers.empty()) return p;
+  return regions;
+}
 
-  const format* vtt_format = find_format("vtt");
-  const std::size_t words_index = vtt_format ? word_tier_index(doc, *vtt_format) : no_tier;
-  const tier& cues = doc.tiers.front();
-  const tier* words = words_index == no_tier ? nullptr : &doc.tiers[words_index];
-  auto problem = [&](const std::string& reason) { ++p.problems[reason]; };
-
+// The cues' indices in start-time order: WebVTT's authoring rules want cues so (§4.1), and the
+// file keeps no other order.
+std::vector<std::size_t> start_order(const tier& cues, vtt_plan& p) {
   std::vector<std::size_t> order(cues.annotations.size());
-  for (std::size_t k = 0; k < order.size(); ++k)
-    order[k] = k;
+  std::iota(order.begin(), order.end(), std::size_t{0});
   std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
     return cues.annotations[a].start < cues.annotations[b].start;
   });
-  // WebVTT's authoring rules want cues in start-time order (§4.1); the file keeps no other.
-  for (std::size_t k = 0; k < order.size(); ++k)
-    if (order[k] != k) {
-      problem("the order of cues that are not in start-time order (written sorted)");
-      break;
-    }
+  if (!std::is_sorted(order.begin(), order.end()))
+    ++p.problems["the order of cues that are not in start-time order (written sorted)"];
+  return order;
+}
 
-  // Markup is written as it is when it still spells the cue's text and speaker. Its timestamps
-  // are the word tier's times in WebVTT: where the two disagree but the markup spells exactly
-  // the words inside its cue (a re-timed cue), the words' times are written into it.
+// Each cue's markup, where it can be written: markup is written as it is when it still spells
+// the cue's text and speaker. Its timestamps are the word tier's times in WebVTT: where the two
+// disagree but the markup spells exactly the words inside its cue (a re-timed cue), the words'
+// times are written into it (`rewritten`).
+std::vector<std::optional<cue_text>> plan_markup(const tier& cues, const tier* words,
+                                                 std::vector<std::string>& rewritten, vtt_plan& p) {
   const std::size_t n = cues.annotations.size();
   std::vector<std::optional<cue_text>> markup(n);
-  std::vector<std::string> rewritten(n);  // markup with re-stamped timestamps, where it has them
+  rewritten.assign(n, {});
   std::vector<const annotation*> by_start;
   if (words) {
     for (const annotation& w : words->annotations)
@@ -327,104 +327,130 @@ vtt_plan plan(const document& doc) {
     if (ok && inside)
       markup[k] = std::move(parsed);
     else if (ok)
-      problem("markup whose inline timestamps lie outside its cue");
+      ++p.problems["markup whose inline timestamps lie outside its cue"];
     else
-      problem("markup that no longer matches the text or speaker");
+      ++p.problems["markup that no longer matches the text or speaker"];
   }
+  return markup;
+}
 
-  // Words go to cues in two passes: first those that a cue's own markup yields, exactly as the
-  // reader derives them; then, for cues written from their text, the remaining words inside
-  // the latest cue that starts at or before them. What is left has no cue to go in.
+// Words go to cues in two passes: first those that a cue's own markup yields, exactly as the
+// reader derives them; then, for cues written from their text, the remaining words inside the
+// latest cue that starts at or before them. What is left has no cue to go in.
+std::vector<std::vector<const annotation*>> assign_words(
+    const tier& cues, const tier& words, const std::vector<std::size_t>& order,
+    const std::vector<std::optional<cue_text>>& markup, vtt_plan& p) {
+  const std::size_t n = cues.annotations.size();
   std::vector<std::vector<const annotation*>> words_in(n);
-  if (words) {
-    using word_key = std::tuple<time_ns, time_ns, std::string_view>;
-    std::multimap<word_key, const annotation*> pool;
-    for (const annotation& w : words->annotations) {
-      pool.emplace(word_key{w.start, w.end, w.text}, &w);
-      if (w.id || w.markup || w.parent || !w.attributes.empty())
-        problem("ids, markup or attributes of word timings");
-    }
-    for (std::size_t k = 0; k < n; ++k) {
-      if (!markup[k]) continue;
-      const annotation& c = cues.annotations[k];
-      for (const annotation& d : timed_words(*markup[k], c.start, c.end))
-        if (auto it = pool.find(word_key{d.start, d.end, d.text}); it != pool.end()) {
-          words_in[k].push_back(it->second);
-          pool.erase(it);
-        }
-    }
-    std::vector<time_ns> starts;
-    for (std::size_t k : order)
-      starts.push_back(cues.annotations[k].start);
-    for (const auto& [key, w] : pool) {
-      const auto after = std::upper_bound(starts.begin(), starts.end(), w->start);
-      const std::size_t k = after == starts.begin()
-                                ? no_tier
-                                : order[static_cast<std::size_t>(after - starts.begin()) - 1];
-      if (k != no_tier && !markup[k] && w->end <= cues.annotations[k].end)
-        words_in[k].push_back(w);
-      else
-        problem("word timings outside every cue, or unlike their cue's own timestamps");
-    }
-    if (words->name != words_tier_name(cues.name))
-      p.other.push_back("the name of the word tier " + quote_name(words->name) + " (read back as " +
-                        quote_name(words_tier_name(cues.name)) + ")");
+  using word_key = std::tuple<time_ns, time_ns, std::string_view>;
+  std::multimap<word_key, const annotation*> pool;
+  for (const annotation& w : words.annotations) {
+    pool.emplace(word_key{w.start, w.end, w.text}, &w);
+    if (w.id || w.markup || w.parent || !w.attributes.empty())
+      ++p.problems["ids, markup or attributes of word timings"];
   }
+  for (std::size_t k = 0; k < n; ++k) {
+    if (!markup[k]) continue;
+    const annotation& c = cues.annotations[k];
+    for (const annotation& d : timed_words(*markup[k], c.start, c.end))
+      if (auto it = pool.find(word_key{d.start, d.end, d.text}); it != pool.end()) {
+        words_in[k].push_back(it->second);
+        pool.erase(it);
+      }
+  }
+  std::vector<time_ns> starts;
+  for (std::size_t k : order)
+    starts.push_back(cues.annotations[k].start);
+  for (const auto& [key, w] : pool) {
+    const auto after = std::upper_bound(starts.begin(), starts.end(), w->start);
+    const std::size_t k = after == starts.begin()
+                              ? no_tier
+                              : order[static_cast<std::size_t>(after - starts.begin()) - 1];
+    if (k != no_tier && !markup[k] && w->end <= cues.annotations[k].end)
+      words_in[k].push_back(w);
+    else
+      ++p.problems["word timings outside every cue, or unlike their cue's own timestamps"];
+  }
+  if (words.name != words_tier_name(cues.name))
+    p.other.push_back("the name of the word tier " + quote_name(words.name) + " (read back as " +
+                      quote_name(words_tier_name(cues.name)) + ")");
+  return words_in;
+}
 
+// A cue's identifier, timing line with its settings, and comments; the body is the caller's.
+planned_cue plan_cue(const annotation& a, std::unordered_set<std::string_view>& ids,
+                     const std::vector<std::string>& regions, vtt_plan& p) {
+  auto problem = [&](const std::string& reason) { ++p.problems[reason]; };
+  planned_cue c;
+  if (a.start % ms != 0 || a.end % ms != 0)
+    problem("times finer than a millisecond (written to the nearest millisecond)");
+  if (a.start < 0 || a.end < 0) problem("negative times");
+  // A cue that ends before it starts breaks an authoring rule, but parsers keep it, and so
+  // does the writer: it is data, and `tiers check` reports it.
+  c.timing = format_timestamp(std::max<time_ns>(a.start, 0)) + " --> " +
+             format_timestamp(std::max<time_ns>(a.end, 0));
+  if (a.id) {
+    const bool ok = !a.id->empty() && a.id->find_first_of("\r\n") == std::string::npos &&
+                    a.id->find("-->") == std::string::npos && a.id->find('\0') == std::string::npos;
+    const bool repeated = ids.count(*a.id) != 0;
+    if (!ok)
+      problem("ids that WebVTT cannot hold (empty, or with a line break or '-->')");
+    else if (repeated)
+      problem("repeated ids (WebVTT identifiers are unique)");
+    else
+      c.id = *a.id, ids.insert(*a.id);
+  }
+  // Settings, in a fixed order that keeps a region (§6.3).
+  std::string settings;
+  for (std::string_view name : setting_names)
+    if (auto it = a.attributes.find("vtt:" + std::string(name)); it != a.attributes.end())
+      settings += " " + std::string(name) + ":" + it->second;
+  const settings_result parsed = parse_settings(settings, regions);
+  if (!parsed.rejected.empty()) problem("cue settings that WebVTT would drop");
+  for (const setting& s : parsed.accepted)
+    c.timing += " " + std::string(s.name) + ":" + std::string(s.value);
+  for (const auto& [key, value] : a.attributes) {
+    if (key.rfind("vtt:", 0) != 0) continue;
+    const std::string_view name = std::string_view(key).substr(4);
+    if (name != "note" && std::find(std::begin(setting_names), std::end(setting_names), name) ==
+                              std::end(setting_names))
+      problem("attributes " + quote_name(key) + " (not a WebVTT cue setting)");
+  }
+  if (auto it = a.attributes.find("vtt:note"); it != a.attributes.end()) {
+    // Comments before the first cue belong to the file's prelude when read back.
+    if (!valid_notes(it->second))
+      problem("malformed comments before cues");
+    else if (p.cues.empty())
+      problem("comments attached to the first cue (read back as the file's prelude)");
+    else
+      c.notes = it->second;
+  }
+  return c;
+}
+
+// What is written and what is lost, decided once for both the writer and the loss report.
+vtt_plan plan(const document& doc) {
+  vtt_plan p;
+  const std::vector<std::string> regions = plan_blocks(doc, p);
+  if (doc.tiers.empty()) return p;
+  const format* vtt_format = find_format("vtt");
+  const std::size_t words_index = vtt_format ? word_tier_index(doc, *vtt_format) : no_tier;
+  const tier& cues = doc.tiers.front();
+  const tier* words = words_index == no_tier ? nullptr : &doc.tiers[words_index];
+  const std::vector<std::size_t> order = start_order(cues, p);
+  std::vector<std::string> rewritten;
+  const std::vector<std::optional<cue_text>> markup = plan_markup(cues, words, rewritten, p);
+  const std::vector<std::vector<const annotation*>> words_in =
+      words ? assign_words(cues, *words, order, markup, p)
+            : std::vector<std::vector<const annotation*>>(cues.annotations.size());
   std::unordered_set<std::string_view> ids;
+  auto problem = [&](const std::string& reason) { ++p.problems[reason]; };
   for (std::size_t k : order) {
     const annotation& a = cues.annotations[k];
-    planned_cue c;
-    if (a.start % ms != 0 || a.end % ms != 0)
-      problem("times finer than a millisecond (written to the nearest millisecond)");
-    if (a.start < 0 || a.end < 0) problem("negative times");
-    // A cue that ends before it starts breaks an authoring rule, but parsers keep it, and so
-    // does the writer: it is data, and `tiers check` reports it.
-    c.timing = format_timestamp(std::max<time_ns>(a.start, 0)) + " --> " +
-               format_timestamp(std::max<time_ns>(a.end, 0));
-    if (a.id) {
-      const bool ok = !a.id->empty() && a.id->find_first_of("\r\n") == std::string::npos &&
-                      a.id->find("-->") == std::string::npos &&
-                      a.id->find('\0') == std::string::npos;
-      const bool repeated = ids.count(*a.id) != 0;
-      if (!ok)
-        problem("ids that WebVTT cannot hold (empty, or with a line break or '-->')");
-      else if (repeated)
-        problem("repeated ids (WebVTT identifiers are unique)");
-      else
-        c.id = *a.id, ids.insert(*a.id);
-    }
-    // Settings, in a fixed order that keeps a region (§6.3).
-    std::string settings;
-    for (std::string_view name : setting_names)
-      if (auto it = a.attributes.find("vtt:" + std::string(name)); it != a.attributes.end())
-        settings += " " + std::string(name) + ":" + it->second;
-    const settings_result parsed = parse_settings(settings, regions);
-    if (!parsed.rejected.empty()) problem("cue settings that WebVTT would drop");
-    for (const setting& s : parsed.accepted)
-      c.timing += " " + std::string(s.name) + ":" + std::string(s.value);
-    for (const auto& [key, value] : a.attributes) {
-      if (key.rfind("vtt:", 0) != 0) continue;
-      const std::string_view name = std::string_view(key).substr(4);
-      if (name != "note" && std::find(std::begin(setting_names), std::end(setting_names), name) ==
-                                std::end(setting_names))
-        problem("attributes " + quote_name(key) + " (not a WebVTT cue setting)");
-    }
-    if (auto it = a.attributes.find("vtt:note"); it != a.attributes.end()) {
-      // Comments before the first cue belong to the file's prelude when read back.
-      if (!valid_notes(it->second))
-        problem("malformed comments before cues");
-      else if (p.cues.empty())
-        problem("comments attached to the first cue (read back as the file's prelude)");
-      else
-        c.notes = it->second;
-    }
-
-    if (markup[k]) {
-      c.body = rewritten[k].empty() ? *a.markup : rewritten[k];
-    } else {
-      c.body = text_body(a, words_in[k], problem);
-    }
+    planned_cue c = plan_cue(a, ids, regions, p);
+    c.body = !markup[k]             ? text_body(a, words_in[k], problem)
+             : rewritten[k].empty() ? *a.markup
+                                    : rewritten[k];
     p.cues.push_back(std::move(c));
   }
   return p;

@@ -44,100 +44,112 @@ struct parent_index {
   }
 };
 
-}  // namespace
-
-void checker::check_structure(std::size_t t) {
-  const tier& tr = doc_.tiers[t];
-  const auto& as = tr.annotations;
-
-  if (on("structure.duplicate-id")) {
-    std::unordered_map<std::string_view, std::size_t> ids;
-    for (std::size_t a = 0; a < as.size(); ++a) {
-      if (!as[a].id) continue;
-      auto [it, added] = ids.emplace(*as[a].id, a);
-      if (!added) {
-        const std::string there = where(t, it->second);
-        emit("structure.duplicate-id", t, a,
-             "id " + quote_name(*as[a].id) + " is used again" +
-                 (there.empty() ? "" : " (first at " + there + ")"));
-      }
-    }
+// structure.duplicate-id: an id used twice in one tier.
+void duplicate_ids(checker& c, std::size_t t) {
+  const auto& as = c.doc_.tiers[t].annotations;
+  std::unordered_map<std::string_view, std::size_t> ids;
+  for (std::size_t a = 0; a < as.size(); ++a) {
+    if (!as[a].id) continue;
+    auto [it, added] = ids.emplace(*as[a].id, a);
+    if (added) continue;
+    const std::string there = c.where(t, it->second);
+    c.emit("structure.duplicate-id", t, a,
+           "id " + quote_name(*as[a].id) + " is used again" +
+               (there.empty() ? "" : " (first at " + there + ")"));
   }
+}
 
-  const tier_spec* spec = profile_.find_tier(tr.name);
-  const std::optional<std::vector<std::string>>& vocabulary =
-      spec && spec->vocabulary ? spec->vocabulary : tr.vocabulary;
-  if (vocabulary && on("structure.vocabulary")) {
-    const std::unordered_set<std::string_view> allowed(vocabulary->begin(), vocabulary->end());
-    std::string listed;
-    for (std::size_t k = 0; k < vocabulary->size() && k < 8; ++k)
-      listed += (k ? ", " : "") + (*vocabulary)[k];
-    if (vocabulary->size() > 8) listed += ", …";
-    for (std::size_t a = 0; a < as.size(); ++a)
-      if (!as[a].text.empty() && !allowed.count(as[a].text))
-        emit("structure.vocabulary", t, a,
-             "label " + quote_name(as[a].text) + " is not in the vocabulary of " +
-                 quote_name(tr.name) + " (" + (listed.empty() ? "no labels" : listed) + ")");
+// structure.vocabulary: a label outside the tier's vocabulary (the profile's, else its own).
+void vocabulary_labels(checker& c, std::size_t t, const std::vector<std::string>& vocabulary) {
+  const tier& tr = c.doc_.tiers[t];
+  const std::unordered_set<std::string_view> allowed(vocabulary.begin(), vocabulary.end());
+  std::string listed;
+  for (std::size_t k = 0; k < vocabulary.size() && k < 8; ++k)
+    listed += (k ? ", " : "") + vocabulary[k];
+  if (vocabulary.size() > 8) listed += ", …";
+  for (std::size_t a = 0; a < tr.annotations.size(); ++a) {
+    const std::string& label = tr.annotations[a].text;
+    if (!label.empty() && !allowed.count(label))
+      c.emit("structure.vocabulary", t, a,
+             "label " + quote_name(label) + " is not in the vocabulary of " + quote_name(tr.name) +
+                 " (" + (listed.empty() ? "no labels" : listed) + ")");
   }
+}
 
-  // A tier without a parent of its own takes the one its profile declares (a table cannot say).
-  const std::optional<parent_link>& link = tr.parent ? tr.parent : spec ? spec->parent : tr.parent;
-  if (!link) return;
-  const auto p = index_of(doc_, link->tier);
-  if (!p && !tr.parent) return;  // the profile's parent tier is missing: dataset.tier-missing
+// structure.parent-tier: the parent tier of `t` when it can hold children — it exists, is not
+// `t` itself and does not have `t` among its ancestors — else no_index, the problem reported.
+std::size_t parent_tier(checker& c, std::size_t t, const parent_link& link, bool declared) {
+  const tier& tr = c.doc_.tiers[t];
+  const auto p = index_of(c.doc_, link.tier);
+  if (!p && !declared)
+    return no_index;  // the profile's parent tier is missing: dataset.tier-missing
   if (!p || *p == t) {
-    emit("structure.parent-tier", t, no_index,
-         "tier " + quote_name(tr.name) + " names " + quote_name(link->tier) + " as its parent, " +
-             (p ? "which is itself" : "which is not in the file"));
-    return;
+    c.emit("structure.parent-tier", t, no_index,
+           "tier " + quote_name(tr.name) + " names " + quote_name(link.tier) + " as its parent, " +
+               (p ? "which is itself" : "which is not in the file"));
+    return no_index;
   }
   // A parent chain that comes back to this tier is a cycle: no annotation can be placed.
   std::size_t up = *p;
-  for (std::size_t steps = 0; steps < doc_.tiers.size(); ++steps) {
-    const std::optional<parent_link>& next = doc_.tiers[up].parent;
+  for (std::size_t steps = 0; steps < c.doc_.tiers.size(); ++steps) {
+    const std::optional<parent_link>& next = c.doc_.tiers[up].parent;
     if (!next) break;
-    const auto n = index_of(doc_, next->tier);
+    const auto n = index_of(c.doc_, next->tier);
     if (!n) break;
     if (*n == t) {
-      emit(
+      c.emit(
           "structure.parent-tier", t, no_index,
-          "tier " + quote_name(tr.name) + " is its own ancestor through " + quote_name(link->tier));
-      return;
+          "tier " + quote_name(tr.name) + " is its own ancestor through " + quote_name(link.tier));
+      return no_index;
     }
     up = *n;
   }
+  return *p;
+}
 
-  const std::vector<annotation>& ps = doc_.tiers[*p].annotations;
-  if (link->rel == relation::refers) {
-    if (!on("structure.missing-parent")) return;
-    std::unordered_set<std::string_view> ids;
-    for (const annotation& x : ps)
-      if (x.id) ids.insert(*x.id);
-    for (std::size_t a = 0; a < as.size(); ++a) {
-      if (!as[a].parent)
-        emit("structure.missing-parent", t, a,
-             "refers to no annotation of its parent tier " + quote_name(link->tier));
-      else if (!ids.count(*as[a].parent))
-        emit("structure.missing-parent", t, a,
-             "refers to " + quote_name(*as[a].parent) + ", which tier " + quote_name(link->tier) +
+// structure.missing-parent: children that refer to their parent annotation by id.
+void parent_references(checker& c, std::size_t t, std::size_t p, const std::string& parent) {
+  const auto& as = c.doc_.tiers[t].annotations;
+  std::unordered_set<std::string_view> ids;
+  for (const annotation& x : c.doc_.tiers[p].annotations)
+    if (x.id) ids.insert(*x.id);
+  for (std::size_t a = 0; a < as.size(); ++a) {
+    if (!as[a].parent)
+      c.emit("structure.missing-parent", t, a,
+             "refers to no annotation of its parent tier " + quote_name(parent));
+    else if (!ids.count(*as[a].parent))
+      c.emit("structure.missing-parent", t, a,
+             "refers to " + quote_name(*as[a].parent) + ", which tier " + quote_name(parent) +
                  " does not have");
-    }
-    return;
   }
+}
 
+using children_of = std::map<std::size_t, std::vector<std::size_t>>;  // parent -> children
+
+// structure.outside-parent: a child inside no parent annotation. Returns the children of
+// each parent annotation.
+children_of place_children(checker& c, std::size_t t, std::size_t p, const std::string& parent) {
+  const auto& as = c.doc_.tiers[t].annotations;
+  const std::vector<annotation>& ps = c.doc_.tiers[p].annotations;
   const parent_index index(ps);
-  std::map<std::size_t, std::vector<std::size_t>> children;  // parent annotation -> children
+  children_of children;
   for (std::size_t a = 0; a < as.size(); ++a) {
     if (as[a].end < as[a].start) continue;  // reported by time.reversed
     const std::size_t in = index.containing(ps, as[a].start, as[a].end);
     if (in == no_index)
-      emit("structure.outside-parent", t, a,
-           "lies outside every annotation of its parent tier " + quote_name(link->tier) + " (" +
-               clock(as[a].start) + " to " + clock(as[a].end) + ")");
+      c.emit("structure.outside-parent", t, a,
+             "lies outside every annotation of its parent tier " + quote_name(parent) + " (" +
+                 clock(as[a].start) + " to " + clock(as[a].end) + ")");
     else
       children[in].push_back(a);
   }
-  if (link->rel != relation::partition || !on("structure.partition")) return;
+  return children;
+}
+
+// structure.partition: the children of each parent annotation cover it without gap or overlap.
+void partitions(checker& c, std::size_t t, std::size_t p, children_of& children) {
+  const auto& as = c.doc_.tiers[t].annotations;
+  const std::vector<annotation>& ps = c.doc_.tiers[p].annotations;
   for (auto& [parent, kids] : children) {
     std::stable_sort(kids.begin(), kids.end(),
                      [&](std::size_t a, std::size_t b) { return as[a].start < as[b].start; });
@@ -146,19 +158,43 @@ void checker::check_structure(std::size_t t) {
         "of its parent (" + clock(ps[parent].start) + " to " + clock(ps[parent].end) + ")";
     for (std::size_t a : kids) {
       if (as[a].start > covered)
-        emit("structure.partition", t, a,
-             "leaves " + clock(covered) + " to " + clock(as[a].start) + " " + of + " uncovered");
+        c.emit("structure.partition", t, a,
+               "leaves " + clock(covered) + " to " + clock(as[a].start) + " " + of + " uncovered");
       else if (as[a].start < covered)
-        emit("structure.partition", t, a,
-             "overlaps its sibling by " + seconds(std::min(covered, as[a].end) - as[a].start) +
-                 " where the children must partition their parent");
+        c.emit("structure.partition", t, a,
+               "overlaps its sibling by " + seconds(std::min(covered, as[a].end) - as[a].start) +
+                   " where the children must partition their parent");
       covered = std::max(covered, as[a].end);
     }
     if (covered < ps[parent].end)
-      emit("structure.partition", t, kids.back(),
-           "leaves " + clock(covered) + " to " + clock(ps[parent].end) + " " + of +
-               " uncovered after it");
+      c.emit("structure.partition", t, kids.back(),
+             "leaves " + clock(covered) + " to " + clock(ps[parent].end) + " " + of +
+                 " uncovered after it");
   }
+}
+
+}  // namespace
+
+void checker::check_structure(std::size_t t) {
+  const tier& tr = doc_.tiers[t];
+  if (on("structure.duplicate-id")) duplicate_ids(*this, t);
+  const tier_spec* spec = profile_.find_tier(tr.name);
+  const std::optional<std::vector<std::string>>& vocabulary =
+      spec && spec->vocabulary ? spec->vocabulary : tr.vocabulary;
+  if (vocabulary && on("structure.vocabulary")) vocabulary_labels(*this, t, *vocabulary);
+
+  // A tier without a parent of its own takes the one its profile declares (a table cannot say).
+  const std::optional<parent_link>& link = tr.parent ? tr.parent : spec ? spec->parent : tr.parent;
+  if (!link) return;
+  const std::size_t p = parent_tier(*this, t, *link, tr.parent.has_value());
+  if (p == no_index) return;
+  if (link->rel == relation::refers) {
+    if (on("structure.missing-parent")) parent_references(*this, t, p, link->tier);
+    return;
+  }
+  children_of children = place_children(*this, t, p, link->tier);
+  if (link->rel == relation::partition && on("structure.partition"))
+    partitions(*this, t, p, children);
 }
 
 }  // namespace tiers::detail

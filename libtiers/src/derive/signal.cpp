@@ -42,6 +42,13 @@ class signal_reader {
   }
   // Chooses the key column and the score columns from the header names.
   bool header(const std::vector<std::string>& names, std::size_t offset);
+  // The phases of finish; each returns false once the signal is refused.
+  void order_rows();
+  const raw_row& row(std::size_t k) const { return rows_[order_.empty() ? k : order_[k]]; }
+  bool distinct_times();
+  std::optional<time_ns> usual_step();
+  void fill(time_ns step);
+  bool set_ends(time_ns step);
   bool key(std::string_view text, std::size_t offset, raw_row& row);
   bool value(std::string_view text, std::size_t offset, const std::string& column, double& v);
 
@@ -52,7 +59,8 @@ class signal_reader {
   std::size_t key_column_ = 0;
   std::vector<std::size_t> score_columns_;
   std::vector<raw_row> rows_;
-  std::vector<double> values_;  // rows_.size() × score columns, row by row
+  std::vector<double> values_;      // rows_.size() × score columns, row by row
+  std::vector<std::size_t> order_;  // the rows in time order; empty when they are already
 };
 
 bool signal_reader::header(const std::vector<std::string>& names, std::size_t offset) {
@@ -233,71 +241,73 @@ void signal_reader::read_lines() {
   if (names.empty()) error("derive.header", 0, "the file has no lines");
 }
 
-void signal_reader::finish() {
-  if (!out_.ok()) return;
-  // Rows in time order; a file already in order (the usual case) is not sorted again.
-  const bool sorted =
-      std::is_sorted(rows_.begin(), rows_.end(),
-                     [](const raw_row& a, const raw_row& b) { return a.time < b.time; });
-  std::vector<std::size_t> order;  // empty when the rows are in order already
-  if (!sorted) {
-    order.resize(rows_.size());
-    std::iota(order.begin(), order.end(), std::size_t{0});
-    std::stable_sort(order.begin(), order.end(),
-                     [&](std::size_t a, std::size_t b) { return rows_[a].time < rows_[b].time; });
-  }
-  auto row_at = [&](std::size_t k) { return sorted ? k : order[k]; };
-  signal& s = out_.value;
+// Rows in time order; a file already in order (the usual case) is not sorted again.
+void signal_reader::order_rows() {
+  if (std::is_sorted(rows_.begin(), rows_.end(),
+                     [](const raw_row& a, const raw_row& b) { return a.time < b.time; }))
+    return;
+  order_.resize(rows_.size());
+  std::iota(order_.begin(), order_.end(), std::size_t{0});
+  std::stable_sort(order_.begin(), order_.end(),
+                   [&](std::size_t a, std::size_t b) { return rows_[a].time < rows_[b].time; });
+}
+
+// derive.duplicate: one value per frame or time. time.range: differences between rows must be
+// times themselves (a file from -200 to +200 years is not).
+bool signal_reader::distinct_times() {
   for (std::size_t k = 1; k < rows_.size(); ++k) {
-    const raw_row& p = rows_[row_at(k - 1)];
-    const raw_row& r = rows_[row_at(k)];
-    if (r.time == p.time) {
-      const raw_row& later = r.offset > p.offset ? r : p;
-      error("derive.duplicate", later.offset,
-            (frames_ ? "frame " + std::to_string(later.frame)
-                     : "time " + format_seconds(later.time)) +
-                " appears twice (one value per " + (frames_ ? "frame" : "time") + ")");
-      return;
-    }
+    const raw_row& p = row(k - 1);
+    const raw_row& r = row(k);
+    if (r.time != p.time) continue;
+    const raw_row& later = r.offset > p.offset ? r : p;
+    error(
+        "derive.duplicate", later.offset,
+        (frames_ ? "frame " + std::to_string(later.frame) : "time " + format_seconds(later.time)) +
+            " appears twice (one value per " + (frames_ ? "frame" : "time") + ")");
+    return false;
   }
-  // Differences between rows must be times themselves (a file from -200 to +200 years is not).
-  if (!frames_ && rows_.size() > 1) {
-    time_ns span = 0;
-    if (__builtin_sub_overflow(rows_[row_at(rows_.size() - 1)].time, rows_[row_at(0)].time,
-                               &span)) {
-      error("time.range", rows_[row_at(rows_.size() - 1)].offset,
-            "the rows span more time than can be held (about 292 years)");
-      return;
-    }
+  time_ns span = 0;
+  if (!frames_ && rows_.size() > 1 &&
+      __builtin_sub_overflow(row(rows_.size() - 1).time, row(0).time, &span)) {
+    error("time.range", row(rows_.size() - 1).offset,
+          "the rows span more time than can be held (about 292 years)");
+    return false;
   }
-  // The usual step between rows: a frame, or the median time difference.
-  time_ns step = 0;
-  if (!frames_ && rows_.size() > 1) {
+  return true;
+}
+
+// The usual step between rows by time: the median difference; 0 for frames, which have theirs.
+std::optional<time_ns> signal_reader::usual_step() {
+  if (frames_ || rows_.empty()) return 0;
+  if (rows_.size() > 1) {
     std::vector<time_ns> d;
     d.reserve(rows_.size() - 1);
     for (std::size_t k = 1; k < rows_.size(); ++k)
-      d.push_back(rows_[row_at(k)].time - rows_[row_at(k - 1)].time);
-    step = quantile(d, 0.5);
+      d.push_back(row(k).time - row(k - 1).time);
+    return quantile(d, 0.5);
   }
   // One row by time has no step to measure: it lasts a frame of --rate, else it cannot be read
   // as a span at all.
-  if (!frames_ && rows_.size() == 1) {
-    if (!options_.rate) {
-      error("derive.time", rows_.front().offset,
-            "a single row by time has no length (nothing to measure a step from); give --rate "
-            "to make it last one frame");
-      return;
-    }
-    step = std::max<time_ns>(1, frame_time(1, *options_.rate).value);
+  if (!options_.rate) {
+    error("derive.time", rows_.front().offset,
+          "a single row by time has no length (nothing to measure a step from); give --rate "
+          "to make it last one frame");
+    return std::nullopt;
   }
+  return std::max<time_ns>(1, frame_time(1, *options_.rate).value);
+}
+
+// Times and scores in time order; derive.missing where rows are missing.
+void signal_reader::fill(time_ns step) {
+  signal& s = out_.value;
   const std::size_t columns = s.names.size(), n = rows_.size();
   s.scores.assign(columns, std::vector<double>(n));
   s.times.resize(n);
   s.after_gap.assign(n, false);
   for (std::size_t k = 0; k < n; ++k) {
-    const raw_row& r = rows_[row_at(k)];
+    const raw_row& r = row(k);
     if (k > 0) {
-      const raw_row& p = rows_[row_at(k - 1)];
+      const raw_row& p = row(k - 1);
       // A gap is more than one and a half steps (written so that it cannot overflow).
       const time_ns d = r.time - p.time;
       const bool gap = frames_ ? r.frame - p.frame > 1 : d > step && d - step > step / 2;
@@ -313,31 +323,49 @@ void signal_reader::finish() {
       }
     }
     s.times[k] = r.time;
+    const std::size_t at = order_.empty() ? k : order_[k];
     for (std::size_t c = 0; c < columns; ++c)
-      s.scores[c][k] = values_[row_at(k) * columns + c];
+      s.scores[c][k] = values_[at * columns + c];
   }
   std::vector<double>().swap(values_);
+}
+
+// Each row ends where the next begins, or a step (a frame) later before a gap and at the end.
+bool signal_reader::set_ends(time_ns step) {
+  signal& s = out_.value;
+  const std::size_t n = rows_.size();
   s.ends.resize(n);
   for (std::size_t k = 0; k < n; ++k) {
     const bool last = k + 1 == n || s.after_gap[k + 1];
     if (frames_)
-      s.ends[k] = frame_time(rows_[row_at(k)].frame + 1, *options_.rate).value;
+      s.ends[k] = frame_time(row(k).frame + 1, *options_.rate).value;
     else if (!last)
       s.ends[k] = s.times[k + 1];
     else if (__builtin_add_overflow(s.times[k], step, &s.ends[k])) {
-      error("time.range", rows_[row_at(k)].offset,
+      error("time.range", row(k).offset,
             "the row at " + format_seconds(s.times[k]) +
                 " s ends a step later, beyond the times that can be held");
-      return;
+      return false;
     }
   }
   // Every interval and every distance between two of them must be a time as well.
   time_ns whole = 0;
   if (n > 0 && __builtin_sub_overflow(s.ends.back(), s.times.front(), &whole)) {
-    error("time.range", rows_[row_at(n - 1)].offset,
+    error("time.range", row(n - 1).offset,
           "the rows span more time than can be held (about 292 years)");
-    return;
+    return false;
   }
+  return true;
+}
+
+void signal_reader::finish() {
+  if (!out_.ok()) return;
+  order_rows();
+  if (!distinct_times()) return;
+  const std::optional<time_ns> step = usual_step();
+  if (!step) return;
+  fill(*step);
+  set_ends(*step);
 }
 
 }  // namespace
