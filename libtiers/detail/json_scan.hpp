@@ -58,7 +58,8 @@ inline std::string describe(std::string_view in, std::size_t at) {
 }
 
 /// Reads the string whose opening quote is at `pos` into `out`; `pos` ends after the closing
-/// quote. Returns the error, if any.
+/// quote. Returns the error, if any. RFC 8259 §7 (escapes, surrogate pairs) and §8.1 (UTF-8),
+/// each case as the RFC lists it.
 inline std::optional<json_scan_error> read_string(std::string_view in, std::size_t& pos,
                                                   std::string& out) {
   const std::size_t n = in.size(), open = pos;
@@ -186,6 +187,8 @@ inline std::size_t number_length(std::string_view in, std::size_t pos) {
 
 }  // namespace json_scan
 
+// The JSON grammar of RFC 8259 (§2 values, §4 objects, §5 arrays) as one loop over an explicit
+// stack, so that depth costs no native stack; kept whole, as the grammar is one.
 template <class Handler>
 std::optional<json_scan_error> scan_json(std::string_view in, Handler& h, std::size_t max_depth) {
   using namespace json_scan;

@@ -131,6 +131,8 @@ void vtt_reader::run() {
   }
 }
 
+// "Collect a WebVTT block" (W3C WebVTT §6.1) step by step: the line loop with its seen-cue,
+// seen-arrow and buffer states as the specification keeps them; kept whole to be read against it.
 void vtt_reader::collect_block(bool in_header) {
   std::size_t line_count = 0;
   std::size_t previous = lines_.pos;

@@ -197,6 +197,8 @@ std::string format_timestamp(time_ns t) {
   return std::string(buf, static_cast<std::size_t>(n));
 }
 
+// The rules for parsing the WebVTT cue settings (W3C WebVTT §6.3), one setting after another
+// in the specification's order; kept whole to be read against it.
 settings_result parse_settings(std::string_view text, const std::vector<std::string>& regions) {
   settings_result out;
   // The cue's state while the settings are read in order, as §6.3 describes it.
@@ -317,6 +319,9 @@ std::optional<std::string> region_identifier(std::string_view settings) {
   return id;
 }
 
+// The WebVTT cue text parsing rules (W3C WebVTT §6.4) step by step, with the tokenizer's states
+// as the specification names them; long because the algorithm is, and kept whole so that it
+// can be read against the text.
 cue_text parse_cue_text(std::string_view in) {
   cue_text out;
   // The node tree matters only for "is the cue one voice span": track the kinds of open
