@@ -85,32 +85,28 @@ void convert_one(const convert_options& o, const input_options& in, const format
                given_name);
 }
 
-int convert_many(const convert_options& o) {
-  namespace fs = std::filesystem;
-  if (o.to.empty()) throw usage_error("convert -d: name the output format with --to");
-  const format& to = format_named(o.to);
-  if (!o.output.empty()) throw usage_error("convert: give either -o or -d, not both");
-  std::vector<input_file> files = expand_inputs(o.inputs);
-  // Every input of the run (all shards'), by identity: an output must never replace one, or
-  // what its reader skipped or could not apply would be gone with the original.
-  std::map<std::pair<dev_t, ino_t>, std::string> inputs;
+using file_identity = std::pair<dev_t, ino_t>;
+
+// Every input of the run (all shards'), by identity: an output must never replace one, or what
+// its reader skipped or could not apply would be gone with the original.
+std::map<file_identity, std::string> identities(const std::vector<input_file>& files) {
+  std::map<file_identity, std::string> inputs;
   for (const input_file& f : files) {
     struct stat st {};
-    if (::stat(f.path.c_str(), &st) == 0) inputs.emplace(std::pair{st.st_dev, st.st_ino}, f.path);
+    if (::stat(f.path.c_str(), &st) == 0)
+      inputs.emplace(file_identity{st.st_dev, st.st_ino}, f.path);
   }
-  if (!o.shard.empty()) {
-    std::vector<std::string> paths;
-    for (const input_file& f : files)
-      paths.push_back(f.path);
-    const std::vector<std::string> picked = shard_of(paths, o.shard);
-    const std::unordered_set<std::string> mine(picked.begin(), picked.end());
-    std::erase_if(files, [&](const input_file& f) { return !mine.count(f.path); });
-  }
-  // Every output path, decided (and checked for clashes) before anything is written.
+  return inputs;
+}
+
+// Every output path, decided (and checked for clashes) before anything is written.
+std::vector<std::string> output_paths(const std::vector<input_file>& files, const format& to,
+                                      const std::string& dir) {
+  namespace fs = std::filesystem;
   std::vector<std::string> outputs;
   for (const input_file& f : files) {
     if (f.path == "-") throw usage_error("convert -d reads files, not standard input");
-    fs::path out = fs::path(o.output_dir) / f.relative;
+    fs::path out = fs::path(dir) / f.relative;
     out.replace_extension(std::string(to.extensions.front()));
     outputs.push_back(out.string());
   }
@@ -125,8 +121,15 @@ int convert_many(const convert_options& o) {
       throw usage_error("convert -d: " + files[std::min(i, j)].path + " and " +
                         files[std::max(i, j)].path + " would both be written to " + outputs[i]);
   }
-  if (o.in_place && o.resume)
-    throw usage_error("convert: --in-place and --resume do not go together");
+  return outputs;
+}
+
+// Which outputs replace their own input (only with --in-place); replacing any other input is
+// refused before anything is written.
+std::vector<char> replaced_inputs(const std::vector<input_file>& files,
+                                  const std::vector<std::string>& outputs,
+                                  const std::map<file_identity, std::string>& inputs,
+                                  bool in_place) {
   std::vector<char> replaces(outputs.size(), 0);
   for (std::size_t k = 0; k < outputs.size(); ++k) {
     struct stat st {};
@@ -134,39 +137,66 @@ int convert_many(const convert_options& o) {
     const auto it = inputs.find({st.st_dev, st.st_ino});
     if (it == inputs.end()) continue;
     // Only its own input, and only when asked: another input's original would be gone.
-    if (!o.in_place || it->second != files[k].path)
+    if (!in_place || it->second != files[k].path)
       throw usage_error("convert -d: " + outputs[k] + " would replace the input " + it->second +
                         "; write to another folder" +
                         (it->second == files[k].path ? " or give --in-place" : "") +
                         " (nothing was written)");
     replaces[k] = 1;
   }
+  return replaces;
+}
+
+// One file of a batch: whatever goes wrong fails that file alone, said on standard error.
+bool convert_in_batch(const convert_options& o, const input_file& file, const format& to,
+                      const std::string& output, bool replaces_input) {
+  namespace fs = std::filesystem;
+  std::error_code ec;
+  if (o.resume && fs::exists(output, ec) &&
+      fs::last_write_time(output, ec) >= fs::last_write_time(file.path, ec))
+    return true;
+  input_options in = o.input;
+  in.path = file.path;
+  try {
+    fs::create_directories(fs::path(output).parent_path(), ec);
+    convert_one(o, in, to, output, replaces_input);
+    return true;
+  } catch (const rejected&) {
+  } catch (const error& e) {
+    report(e.diag());
+  } catch (const std::exception& e) {  // out of memory, above all: that file fails alone
+    diagnostic d;
+    d.file = display_name(file.path);
+    d.code = "io.read";
+    d.message = std::string("could not be converted: ") + e.what();
+    report(d);
+  }
+  return false;
+}
+
+int convert_many(const convert_options& o) {
+  if (o.to.empty()) throw usage_error("convert -d: name the output format with --to");
+  const format& to = format_named(o.to);
+  if (!o.output.empty()) throw usage_error("convert: give either -o or -d, not both");
+  std::vector<input_file> files = expand_inputs(o.inputs);
+  const std::map<file_identity, std::string> inputs = identities(files);
+  if (!o.shard.empty()) {
+    std::vector<std::string> paths;
+    for (const input_file& f : files)
+      paths.push_back(f.path);
+    const std::vector<std::string> picked = shard_of(paths, o.shard);
+    const std::unordered_set<std::string> mine(picked.begin(), picked.end());
+    std::erase_if(files, [&](const input_file& f) { return !mine.count(f.path); });
+  }
+  const std::vector<std::string> outputs = output_paths(files, to, o.output_dir);
+  if (o.in_place && o.resume)
+    throw usage_error("convert: --in-place and --resume do not go together");
+  const std::vector<char> replaces = replaced_inputs(files, outputs, inputs, o.in_place);
   std::vector<char> failed(files.size(), 0);
   run_parallel(
       files.size(), o.jobs,
       [&](std::size_t k) {
-        std::error_code ec;
-        if (o.resume && fs::exists(outputs[k], ec) &&
-            fs::last_write_time(outputs[k], ec) >= fs::last_write_time(files[k].path, ec))
-          return;
-        input_options in = o.input;
-        in.path = files[k].path;
-        try {
-          fs::create_directories(fs::path(outputs[k]).parent_path(), ec);
-          convert_one(o, in, to, outputs[k], replaces[k] != 0);
-        } catch (const rejected&) {
-          failed[k] = 1;
-        } catch (const error& e) {
-          report(e.diag());
-          failed[k] = 1;
-        } catch (const std::exception& e) {  // out of memory, above all: that file fails alone
-          diagnostic d;
-          d.file = display_name(files[k].path);
-          d.code = "io.read";
-          d.message = std::string("could not be converted: ") + e.what();
-          report(d);
-          failed[k] = 1;
-        }
+        failed[k] = !convert_in_batch(o, files[k], to, outputs[k], replaces[k] != 0);
       },
       "converting");
   const auto n = static_cast<std::size_t>(std::count(failed.begin(), failed.end(), 1));

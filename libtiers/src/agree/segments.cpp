@@ -121,17 +121,10 @@ double ratio(std::size_t a, std::size_t b) {
                 : static_cast<double>(a) / static_cast<double>(b);
 }
 
-}  // namespace
-
-segment_agreement compare_segments(const tier& reference, const tier& candidate,
-                                   const segment_options& options) {
-  const std::vector<annotation>& rs = reference.annotations;
-  const std::vector<annotation>& cs = candidate.annotations;
-  segment_agreement out;
-  out.reference = rs.size();
-  out.candidate = cs.size();
-
-  // Every pair that may match, found through the candidates in start order.
+// Every pair that may match, with its cost, found through the candidates in start order.
+std::vector<edge_candidate> possible_matches(const std::vector<annotation>& rs,
+                                             const std::vector<annotation>& cs,
+                                             const segment_options& options) {
   const std::vector<std::size_t> order = by_start(cs);
   std::vector<time_ns> starts;
   time_ns longest = 0;
@@ -169,14 +162,21 @@ segment_agreement compare_segments(const tier& reference, const tier& candidate,
       }
     }
   }
+  return edges;
+}
 
-  // Groups of segments linked by possible matches are solved apart.
+// The optimal one-to-one matching, group by group: segments linked by possible matches are
+// solved apart. Returns the matches in reference order.
+std::vector<segment_match> best_matches(const std::vector<annotation>& rs,
+                                        const std::vector<annotation>& cs,
+                                        const std::vector<edge_candidate>& edges) {
   union_find groups(rs.size() + cs.size());
   for (const edge_candidate& e : edges)
     groups.join(e.ref, rs.size() + e.cand);
   std::vector<std::vector<const edge_candidate*>> by_group(rs.size() + cs.size());
   for (const edge_candidate& e : edges)
     by_group[groups.find(e.ref)].push_back(&e);
+  std::vector<segment_match> matches;
   for (const auto& group : by_group) {
     if (group.empty()) continue;
     std::vector<std::size_t> refs, cands;
@@ -197,14 +197,26 @@ segment_agreement compare_segments(const tier& reference, const tier& candidate,
     for (const auto& [r, c] : m.solve()) {
       const annotation& a = rs[refs[r]];
       const annotation& b = cs[cands[c]];
-      out.matches.push_back({refs[r], cands[c], detail::saturating_difference(b.start, a.start),
-                             detail::saturating_difference(b.end, a.end)});
+      matches.push_back({refs[r], cands[c], detail::saturating_difference(b.start, a.start),
+                         detail::saturating_difference(b.end, a.end)});
     }
   }
-  std::sort(
-      out.matches.begin(), out.matches.end(),
-      [](const segment_match& x, const segment_match& y) { return x.reference < y.reference; });
+  std::sort(matches.begin(), matches.end(), [](const segment_match& x, const segment_match& y) {
+    return x.reference < y.reference;
+  });
+  return matches;
+}
 
+}  // namespace
+
+segment_agreement compare_segments(const tier& reference, const tier& candidate,
+                                   const segment_options& options) {
+  const std::vector<annotation>& rs = reference.annotations;
+  const std::vector<annotation>& cs = candidate.annotations;
+  segment_agreement out;
+  out.reference = rs.size();
+  out.candidate = cs.size();
+  out.matches = best_matches(rs, cs, possible_matches(rs, cs, options));
   out.precision = ratio(out.matches.size(), out.candidate);
   out.recall = ratio(out.matches.size(), out.reference);
   out.f1 = std::isnan(out.precision) || std::isnan(out.recall) ? std::nan("")

@@ -51,24 +51,16 @@ std::vector<token> tokens_of(const tier& t, const std::vector<std::size_t>& orde
   return out;
 }
 
-}  // namespace
+// The band of each caption token i (1-based): the words a[i]..b[i] (1-based) inside its cue's
+// window, both non-decreasing in i.
+struct band {
+  std::vector<std::size_t> a, b;
+};
 
-caption_alignment align_captions(const tier& captions, const tier& words, lag_window window) {
-  caption_alignment out;
-  out.cues.resize(captions.annotations.size());
-  interner ids;
-  const std::vector<std::size_t> cue_order = by_start(captions);
-  const std::vector<std::size_t> word_order = by_start(words);
-  const std::vector<token> cap = tokens_of(captions, cue_order, ids);
-  const std::vector<token> wrd = tokens_of(words, word_order, ids);
-  out.tokens = cap.size();
-  for (const token& t : cap)
-    ++out.cues[t.owner].tokens;
+band bands_of(const tier& captions, const tier& words, const std::vector<token>& cap,
+              const std::vector<token>& wrd, lag_window window) {
   const std::size_t m = cap.size(), n = wrd.size();
-  if (m == 0 || n == 0) return out;
-
-  // The band of caption token i: words (1-based) a[i]..b[i], both non-decreasing in i.
-  std::vector<std::size_t> a(m + 1), b(m + 1);
+  band out{std::vector<std::size_t>(m + 1), std::vector<std::size_t>(m + 1)};
   std::vector<time_ns> word_start(n);
   for (std::size_t j = 0; j < n; ++j)
     word_start[j] = words.annotations[wrd[j].owner].start;
@@ -78,28 +70,41 @@ caption_alignment align_captions(const tier& captions, const tier& words, lag_wi
     const time_ns to = saturating_add(std::max(cue.end, cue.start), window.after);
     const auto lo = std::lower_bound(word_start.begin(), word_start.end(), from);
     const auto hi = std::upper_bound(word_start.begin(), word_start.end(), to);
-    a[i] = std::max<std::size_t>(static_cast<std::size_t>(lo - word_start.begin()) + 1, a[i - 1]);
-    b[i] = std::max<std::size_t>(static_cast<std::size_t>(hi - word_start.begin()), b[i - 1]);
-    b[i] = std::max(b[i], a[i] - 1);
+    out.a[i] =
+        std::max<std::size_t>(static_cast<std::size_t>(lo - word_start.begin()) + 1, out.a[i - 1]);
+    out.b[i] =
+        std::max<std::size_t>(static_cast<std::size_t>(hi - word_start.begin()), out.b[i - 1]);
+    out.b[i] = std::max(out.b[i], out.a[i] - 1);
   }
+  return out;
+}
 
-  // Row i keeps columns a[i]-1 .. b[i]: the column before the band stands for every word
-  // before it, since token i cannot match those. Beyond b[i] nothing changes, so a later row
-  // reads row i's value at min(j, b[i]).
-  enum move : std::uint8_t { from_left, from_above, diagonal };
-  std::vector<std::size_t> row_start(m + 2);
-  row_start[1] = 0;
+enum move : std::uint8_t { from_left, from_above, diagonal };
+
+// The longest common subsequence's table, restricted to the bands: the move into each cell.
+// Row i keeps columns a[i]-1 .. b[i], from row_start[i]: the column before the band stands for
+// every word before it, since token i cannot match those. Beyond b[i] nothing changes, so a
+// later row reads row i's value at min(j, b[i]).
+struct band_table {
+  std::vector<std::size_t> row_start;
+  std::vector<std::uint8_t> moves;
+};
+
+band_table fill_table(const std::vector<token>& cap, const std::vector<token>& wrd,
+                      const band& bands) {
+  const std::size_t m = cap.size(), n = wrd.size();
+  band_table t;
+  t.row_start.assign(m + 2, 0);
   for (std::size_t i = 1; i <= m; ++i)
-    row_start[i + 1] = row_start[i] + (b[i] - a[i] + 2);
-  std::vector<std::uint8_t> moves(row_start[m + 1]);
-  std::vector<std::uint32_t> previous, current;
+    t.row_start[i + 1] = t.row_start[i] + (bands.b[i] - bands.a[i] + 2);
+  t.moves.resize(t.row_start[m + 1]);
+  std::vector<std::uint32_t> previous(n + 1, 0), current;
   std::size_t prev_first = 0, prev_last = n;  // row 0: every column is 0
-  previous.assign(n + 1, 0);
   for (std::size_t i = 1; i <= m; ++i) {
-    const std::size_t first = a[i] - 1, last = b[i];
+    const std::size_t first = bands.a[i] - 1, last = bands.b[i];
     auto prev = [&](std::size_t j) { return previous[std::min(j, prev_last) - prev_first]; };
     current.assign(last - first + 1, 0);
-    std::uint8_t* mv = moves.data() + row_start[i];
+    std::uint8_t* mv = t.moves.data() + t.row_start[i];
     current[0] = prev(first);
     mv[0] = from_above;
     const std::uint32_t tok = cap[i - 1].id;
@@ -121,18 +126,22 @@ caption_alignment align_captions(const tier& captions, const tier& words, lag_wi
     prev_first = first;
     prev_last = last;
   }
+  return t;
+}
 
-  // Back from the last cell, collecting the matches.
+// Back from the last cell: the word (1-based) each caption token matched, if any.
+std::vector<std::optional<std::size_t>> trace_back(const band& bands, const band_table& t,
+                                                   std::size_t m) {
   std::vector<std::optional<std::size_t>> match(m + 1);
-  std::size_t i = m, j = b[m];
+  std::size_t i = m, j = bands.b[m];
   while (i > 0) {
-    const std::size_t col = std::min(j, b[i]);
-    if (col < a[i]) {  // before the band: token i is unmatched
+    const std::size_t col = std::min(j, bands.b[i]);
+    if (col < bands.a[i]) {  // before the band: token i is unmatched
       j = col;
       --i;
       continue;
     }
-    const std::uint8_t how = moves[row_start[i] + (col - (a[i] - 1))];
+    const std::uint8_t how = t.moves[t.row_start[i] + (col - (bands.a[i] - 1))];
     if (how == diagonal) {
       match[i] = col;
       j = col - 1;
@@ -144,7 +153,25 @@ caption_alignment align_captions(const tier& captions, const tier& words, lag_wi
       --i;
     }
   }
+  return match;
+}
 
+}  // namespace
+
+caption_alignment align_captions(const tier& captions, const tier& words, lag_window window) {
+  caption_alignment out;
+  out.cues.resize(captions.annotations.size());
+  interner ids;
+  const std::vector<token> cap = tokens_of(captions, by_start(captions), ids);
+  const std::vector<token> wrd = tokens_of(words, by_start(words), ids);
+  out.tokens = cap.size();
+  for (const token& t : cap)
+    ++out.cues[t.owner].tokens;
+  const std::size_t m = cap.size();
+  if (m == 0 || wrd.empty()) return out;
+  const band bands = bands_of(captions, words, cap, wrd, window);
+  const std::vector<std::optional<std::size_t>> match =
+      trace_back(bands, fill_table(cap, wrd, bands), m);
   for (std::size_t k = 1; k <= m; ++k) {
     if (!match[k]) continue;
     cue_alignment& c = out.cues[cap[k - 1].owner];
