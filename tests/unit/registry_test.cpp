@@ -1,6 +1,7 @@
 // The registry: look-up, sniffing, and the round trip of every format over what it carries.
 #include <algorithm>
 #include <catch2/catch.hpp>
+#include <filesystem>
 #include <limits>
 #include <set>
 
@@ -223,4 +224,37 @@ TEST_CASE("the words of a tier by the inline-words convention", "[names]") {
   CHECK_FALSE(is_words_tier_of(w, "captions"));
   CHECK(find_format("vtt")->holds_captions);
   CHECK_FALSE(find_format("ttml")->holds_captions);
+}
+
+TEST_CASE(
+    "every format of the registry has the documentation, sample and golden case that "
+    "DEVELOPERS.md's steps for a format ask for",
+    "[registry]") {
+  namespace fs = std::filesystem;
+  const fs::path source = TIERS_SOURCE_DIR;
+  std::vector<std::string> titles, commands, samples;
+  for (const auto& e : fs::directory_iterator(source / "docs" / "formats")) {
+    const std::string page = test::slurp(e.path().string());
+    titles.push_back(page.substr(0, page.find('\n')));
+  }
+  for (const auto& e : fs::directory_iterator(source / "tests" / "golden"))
+    if (fs::exists(e.path() / "cmd")) commands.push_back(test::slurp((e.path() / "cmd").string()));
+  for (const auto& e : fs::directory_iterator(source / "samples"))
+    samples.push_back(e.path().filename().string());
+  auto any_has = [](const std::vector<std::string>& texts, const std::string& what) {
+    return std::any_of(texts.begin(), texts.end(),
+                       [&](const std::string& t) { return t.find(what) != std::string::npos; });
+  };
+  for (const format& f : formats()) {
+    INFO(f.name);
+    const std::string name(f.name);
+    CHECK(any_has(titles, "`" + name + "`"));  // a page of docs/formats/ titled with its name
+    bool sample = false, golden = any_has(commands, " " + name);
+    for (std::string_view ext : f.extensions) {
+      sample = sample || any_has(samples, std::string(ext));
+      golden = golden || any_has(commands, std::string(ext));
+    }
+    CHECK(sample);  // a file of samples/ in the format
+    CHECK(golden);  // a golden case that reads or writes it
+  }
 }
