@@ -63,10 +63,20 @@ void write_json_seconds(byte_sink& out, time_ns t) {
   out.write(std::string_view(buf, format_seconds_to(t, buf)));
 }
 
-void write_json_double(byte_sink& out, double v) {
+namespace {
+
+// A number in fmt's shortest form that reads back the same, without a string in between.
+template <class Number>
+void write_number(byte_sink& out, Number v) {
   char buf[32];
   const auto end = fmt::format_to_n(buf, sizeof buf, "{}", v).out;
   out.write(std::string_view(buf, static_cast<std::size_t>(end - buf)));
+}
+
+}  // namespace
+
+void write_json_double(byte_sink& out, double v) {
+  write_number(out, v);
 }
 
 void json_writer::new_line() {
@@ -137,16 +147,12 @@ void json_writer::number(double v) {
 
 void json_writer::count(std::uint64_t n) {
   before_value();
-  char buf[24];
-  const auto end = fmt::format_to_n(buf, sizeof buf, "{}", n).out;
-  out_.write(std::string_view(buf, static_cast<std::size_t>(end - buf)));
+  write_number(out_, n);
 }
 
 void json_writer::integer(std::int64_t n) {
   before_value();
-  char buf[24];
-  const auto end = fmt::format_to_n(buf, sizeof buf, "{}", n).out;
-  out_.write(std::string_view(buf, static_cast<std::size_t>(end - buf)));
+  write_number(out_, n);
 }
 
 void json_writer::seconds(time_ns t) {
