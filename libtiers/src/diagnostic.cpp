@@ -1,6 +1,8 @@
 // Formatting and locating diagnostics.
 #include "tiers/diagnostic.hpp"
 
+#include <cstring>
+
 #include <algorithm>
 #include <numeric>
 
@@ -80,6 +82,20 @@ text_position position_finder::at(std::size_t offset) {
   if (offset < done_) {
     done_ = 0;
     pos_ = {};
+  }
+  if (!carriage_returns_) carriage_returns_ = text_.find('\r') != std::string_view::npos ? 1 : 0;
+  if (*carriage_returns_ == 0) {
+    // Only LF ends lines: jump from one to the next (memchr reads a vector at a time), then
+    // count the code points of the last line's part.
+    const char* base = text_.data();
+    while (const void* lf = std::memchr(base + done_, '\n', offset - done_)) {
+      ++pos_.line;
+      pos_.column = 1;
+      done_ = static_cast<std::size_t>(static_cast<const char*>(lf) - base) + 1;
+    }
+    for (; done_ < offset; ++done_)
+      pos_.column += !is_continuation(text_[done_]);
+    return pos_;
   }
   for (; done_ < offset; ++done_) {
     const char c = text_[done_];

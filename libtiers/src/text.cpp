@@ -10,6 +10,8 @@
 
 #include <memory>
 
+#include "detail/text_ascii.hpp"
+
 namespace tiers {
 namespace {
 
@@ -78,7 +80,7 @@ void for_each_code_point(std::string_view text, F&& f) {
 // Calls f(piece, is_word) for every piece between word boundaries (UAX #29); the rule status
 // tells words (letters, numbers, kana, ideographs) from spaces and punctuation.
 template <class F>
-void for_each_word_segment(std::string_view text, F&& f) {
+void for_each_icu_word_segment(std::string_view text, F&& f) {
   if (text.empty()) return;
   utext_holder holder;
   icu::BreakIterator* it = iterator_over(text, breaks::word, holder.text);
@@ -91,9 +93,27 @@ void for_each_word_segment(std::string_view text, F&& f) {
   }
 }
 
+template <class F>
+void for_each_word_segment(std::string_view text, F&& f) {
+  if (detail::is_ascii(text))
+    detail::for_each_ascii_word_segment(text, f);
+  else
+    for_each_icu_word_segment(text, f);
+}
+
+// NFKC_Casefold of ASCII folds A-Z and changes nothing else.
+std::string ascii_casefold(std::string_view text) {
+  std::string out(text);
+  for (char& c : out)
+    if (c >= 'A' && c <= 'Z') c = static_cast<char>(c - 'A' + 'a');
+  return out;
+}
+
 }  // namespace
 
-std::size_t count_graphemes(std::string_view text) {
+namespace detail {
+
+std::size_t icu_graphemes(std::string_view text) {
   if (text.empty()) return 0;
   utext_holder holder;
   icu::BreakIterator* it = iterator_over(text, breaks::character, holder.text);
@@ -102,6 +122,19 @@ std::size_t count_graphemes(std::string_view text) {
   for (std::int32_t b = it->next(); b != icu::BreakIterator::DONE; b = it->next())
     ++n;
   return n;
+}
+
+std::vector<std::pair<std::string_view, bool>> icu_word_segments(std::string_view text) {
+  std::vector<std::pair<std::string_view, bool>> out;
+  for_each_icu_word_segment(
+      text, [&](std::string_view piece, bool word) { out.emplace_back(piece, word); });
+  return out;
+}
+
+}  // namespace detail
+
+std::size_t count_graphemes(std::string_view text) {
+  return detail::is_ascii(text) ? detail::ascii_graphemes(text) : detail::icu_graphemes(text);
 }
 
 std::vector<std::string_view> word_segments(std::string_view text) {
@@ -113,12 +146,14 @@ std::vector<std::string_view> word_segments(std::string_view text) {
 std::vector<std::string> word_tokens(std::string_view text) {
   std::vector<std::string> out;
   for_each_word_segment(text, [&](std::string_view piece, bool word) {
-    if (word) out.push_back(normalize(piece, true));
+    if (word)
+      out.push_back(detail::is_ascii(piece) ? ascii_casefold(piece) : normalize(piece, true));
   });
   return out;
 }
 
 bool is_nfc(std::string_view text) {
+  if (detail::is_ascii(text)) return true;  // no ASCII character decomposes
   const icu::Normalizer2* n = normalizer(false);
   if (!n) return true;
   UErrorCode status = U_ZERO_ERROR;
@@ -133,6 +168,13 @@ std::string to_nfc(std::string_view text) {
 
 case_counts count_case(std::string_view text) {
   case_counts counts;
+  if (detail::is_ascii(text)) {
+    for (char c : text) {
+      counts.upper += c >= 'A' && c <= 'Z';
+      counts.lower += c >= 'a' && c <= 'z';
+    }
+    return counts;
+  }
   for_each_code_point(text, [&](UChar32 c, std::size_t) {
     if (u_hasBinaryProperty(c, UCHAR_UPPERCASE))
       ++counts.upper;
@@ -143,6 +185,11 @@ case_counts count_case(std::string_view text) {
 }
 
 std::size_t find_control(std::string_view text) {
+  if (detail::is_ascii(text)) {  // Cc in ASCII: U+0000..U+001F and U+007F
+    for (std::size_t i = 0; i < text.size(); ++i)
+      if ((text[i] < 0x20 && text[i] != '\n') || text[i] == 0x7f) return i;
+    return std::string_view::npos;
+  }
   std::size_t found = std::string_view::npos;
   for_each_code_point(text, [&](UChar32 c, std::size_t at) {
     if (found == std::string_view::npos && c != '\n' && u_charType(c) == U_CONTROL_CHAR) found = at;

@@ -5,6 +5,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "detail/text_ascii.hpp"
 #include "detail/utf8.hpp"
 #include "tiers/text.hpp"
 
@@ -131,4 +132,43 @@ TEST_CASE("normalisation, case, controls and white space", "[text]") {
   CHECK(is_space_at("\xC2\xA0x", 0));          // no-break space
   CHECK(is_space_before("x\xE2\x80\x83", 4));  // em space
   CHECK_FALSE(is_space_before("x", 1));
+}
+
+TEST_CASE("ASCII text is measured as ICU measures it", "[text]") {
+  // Reference: ICU's own break iterators (root locale), which the ASCII fast path stands in
+  // for. Every byte below 0x80 between two of a set of neighbours standing for each word-break
+  // class, then every string of up to four of those neighbours.
+  const std::string neighbours = "aZ09 .',;:_\"-\r\n\v\t!";
+  std::vector<std::string> texts;
+  for (int c = 0; c < 128; ++c)
+    for (char l : neighbours)
+      for (char r : neighbours)
+        texts.push_back(std::string{l, static_cast<char>(c), r});
+  std::vector<std::string> level{""};
+  for (int length = 1; length <= 4; ++length) {
+    std::vector<std::string> next;
+    for (const std::string& t : level)
+      for (char c : neighbours)
+        next.push_back(t + c);
+    texts.insert(texts.end(), next.begin(), next.end());
+    level = std::move(next);
+  }
+  texts.push_back("Don't pay 3.50, or 1,000.25; see a_b__c and __ x.y.z 12:30\r\n\r\r\n");
+  std::size_t differences = 0;
+  for (const std::string& t : texts) {
+    std::vector<std::pair<std::string_view, bool>> fast;
+    detail::for_each_ascii_word_segment(
+        t, [&](std::string_view piece, bool word) { fast.emplace_back(piece, word); });
+    if (fast != detail::icu_word_segments(t) ||
+        detail::ascii_graphemes(t) != detail::icu_graphemes(t)) {
+      if (++differences <= 20) {
+        std::string shown;
+        for (char c : t)
+          shown += c >= 0x20 && c < 0x7f ? std::string(1, c) : "\\x" + std::to_string(c);
+        UNSCOPED_INFO("differs: \"" << shown << "\"");
+      }
+    }
+  }
+  CHECK(differences == 0);
+  CHECK(texts.size() > 100000);
 }

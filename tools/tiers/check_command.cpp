@@ -4,7 +4,10 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <mutex>
+#include <optional>
 
+#include "check_inputs.hpp"
 #include "html_page.hpp"
 #include "text_table.hpp"
 #include "tiers/io.hpp"
@@ -87,9 +90,11 @@ std::string seconds_text(time_ns t) {
   return fmt::format("{:.3f} s", static_cast<double>(t) / 1e9);
 }
 
-// The summary for people: totals, problems by rule, the worst files, and the lag.
-std::string summary_text(const std::vector<file_report>& reports) {
-  const check_summary s = summarize(reports);
+// The summary for people: totals, problems by rule, the worst files, and the lag; `tallies`
+// are the files' problems counted, index for index with `reports`.
+std::string summary_text(const std::vector<file_report>& reports,
+                         const std::vector<std::vector<rule_tally>>& tallies) {
+  const check_summary s = summarize(tallies);
   std::string text = fmt::format("checked {} file{}: ", s.files, s.files == 1 ? "" : "s");
   if (s.errors + s.warnings + s.notes == 0) return text + "no problems\n";
   text +=
@@ -102,19 +107,28 @@ std::string summary_text(const std::vector<file_report>& reports) {
     by_rule.add_row({r.rule, std::string(to_string(r.level)), std::to_string(r.problems),
                      std::to_string(r.files)});
   text += "\n" + by_rule.render();
-  std::vector<const file_report*> worst;
-  for (const file_report& r : reports)
-    if (!r.problems.empty()) worst.push_back(&r);
-  std::stable_sort(worst.begin(), worst.end(), [](const file_report* a, const file_report* b) {
-    return std::pair(a->count(severity::error), a->count(severity::warning)) >
-           std::pair(b->count(severity::error), b->count(severity::warning));
+  struct file_counts {
+    const std::string* path;
+    std::size_t of[3] = {0, 0, 0};  // by severity
+  };
+  std::vector<file_counts> worst;
+  for (std::size_t k = 0; k < reports.size() && k < tallies.size(); ++k) {
+    file_counts f{&reports[k].path};
+    for (const rule_tally& c : tallies[k])
+      f.of[static_cast<std::size_t>(c.level)] += c.problems;
+    if (f.of[0] + f.of[1] + f.of[2] > 0) worst.push_back(f);
+  }
+  auto level = [](const file_counts& f, severity l) { return f.of[static_cast<std::size_t>(l)]; };
+  std::stable_sort(worst.begin(), worst.end(), [&](const file_counts& a, const file_counts& b) {
+    return std::pair(level(a, severity::error), level(a, severity::warning)) >
+           std::pair(level(b, severity::error), level(b, severity::warning));
   });
   if (reports.size() > 1) {
     text_table files({"worst files", ">errors", ">warnings", ">notes"});
     for (std::size_t k = 0; k < worst.size() && k < 5; ++k)
-      files.add_row({worst[k]->path, std::to_string(worst[k]->count(severity::error)),
-                     std::to_string(worst[k]->count(severity::warning)),
-                     std::to_string(worst[k]->count(severity::note))});
+      files.add_row({*worst[k].path, std::to_string(level(worst[k], severity::error)),
+                     std::to_string(level(worst[k], severity::warning)),
+                     std::to_string(level(worst[k], severity::note))});
     text += "\n" + files.render();
   }
   return text;
@@ -136,6 +150,94 @@ std::string lag_text(const std::vector<file_report>& reports) {
   return any ? "\n" + lag.render() : "";
 }
 
+std::vector<std::vector<rule_tally>> tallies_of(const std::vector<file_report>& reports) {
+  std::vector<std::vector<rule_tally>> out;
+  for (const file_report& r : reports)
+    out.push_back(tally(r));
+  return out;
+}
+
+// Where the text report goes: the file of -o, or problems to standard error and the summary
+// to standard output.
+struct text_report {
+  std::string path;  // empty: standard error and output
+  std::optional<atomic_file> file;
+  explicit text_report(const check_options& o) : path(o.output == "-" ? "" : o.output) {}
+  // Opened at the first write, so that the inputs' own errors come first.
+  byte_sink* sink() {
+    if (path.empty()) return nullptr;
+    if (!file) file.emplace(path);
+    return &*file;
+  }
+  void problems(const std::string& text) {
+    if (text.empty()) return;
+    if (byte_sink* s = sink())
+      s->write(text);
+    else
+      std::fwrite(text.data(), 1, text.size(), stderr);
+  }
+  void summary(const std::string& text) {
+    if (byte_sink* s = sink()) {
+      s->write(text);
+      file->commit();
+      return;
+    }
+    stdout_sink out;
+    out.write(text);
+    out.flush();
+  }
+};
+
+// A text report lists each file's own problems in the order of the files, then those of the
+// dataset rules, which need every file: so it can be written while the files are checked.
+bool of_dataset(const problem& p) {
+  return p.diag.code == "dataset.inconsistent";
+}
+
+std::string problems_text(const file_report& r, bool dataset) {
+  std::string text;
+  for (const problem& p : r.problems)
+    if (of_dataset(p) == dataset) text += format_problem(p) + "\n";
+  return text;
+}
+
+std::string problems_text(const std::vector<file_report>& reports) {
+  std::string text;
+  for (bool dataset : {false, true})
+    for (const file_report& r : reports)
+      text += problems_text(r, dataset);
+  return text;
+}
+
+// A text report written file by file as the files are checked, keeping of each only its
+// counts, lag and shape: memory does not grow with the number of files. The dataset rules'
+// problems, which need every file, follow the files' own.
+check_summary check_streamed(const check_options& o, const profile& p) {
+  text_report out(o);
+  std::mutex guard;
+  std::vector<std::vector<rule_tally>> tallies;
+  report_stream stream;
+  stream.render = [&](std::size_t k, file_report& r) {
+    std::string text = problems_text(r, false);
+    std::vector<rule_tally> counts = tally(r);
+    std::vector<problem>().swap(r.problems);  // its memory too, which `= {}` would keep
+    if (r.lag) std::vector<lag_report::point>().swap(r.lag->points);  // for drawing only
+    const std::lock_guard<std::mutex> lock(guard);
+    if (tallies.size() <= k) tallies.resize(k + 1);
+    tallies[k] = std::move(counts);
+    return text;
+  };
+  stream.write = [&](const std::string& text) { out.problems(text); };
+  const check_run run = run_checks(o, p, 0, &stream);
+  tallies.resize(run.reports.size());
+  for (std::size_t k = 0; k < run.reports.size(); ++k) {
+    out.problems(problems_text(run.reports[k], true));
+    add_tally(tallies[k], run.reports[k]);
+  }
+  out.summary(escape_controls(summary_text(run.reports, tallies) + lag_text(run.reports), true));
+  return summarize(tallies);
+}
+
 void write_report(const check_options& o, const std::vector<file_report>& reports,
                   const profile& used) {
   report_header header;
@@ -144,11 +246,9 @@ void write_report(const check_options& o, const std::vector<file_report>& report
   auto emit = [&](byte_sink& out, bool with_problems) {
     if (o.format == "json") return write_check_json(reports, out, header);
     if (o.format == "sarif") return write_check_sarif(reports, out, used, header);
-    if (with_problems)
-      for (const file_report& r : reports)
-        for (const problem& p : r.problems)
-          out.write(format_problem(p) + "\n");
-    out.write(escape_controls(summary_text(reports) + lag_text(reports), true));
+    if (with_problems) out.write(problems_text(reports));
+    out.write(
+        escape_controls(summary_text(reports, tallies_of(reports)) + lag_text(reports), true));
   };
   if (!o.output.empty() && o.output != "-") {
     atomic_file out(o.output);
@@ -156,10 +256,7 @@ void write_report(const check_options& o, const std::vector<file_report>& report
     out.commit();
     return;
   }
-  if (o.format == "text")
-    for (const file_report& r : reports)
-      for (const problem& p : r.problems)
-        std::fprintf(stderr, "%s\n", format_problem(p).c_str());
+  if (o.format == "text") std::fputs(problems_text(reports).c_str(), stderr);
   stdout_sink out;
   emit(out, false);
   out.flush();
@@ -184,16 +281,20 @@ int run_check(const check_options& o) {
   if (o.paths.empty()) throw usage_error("check: name the files or folders to check");
   if (!o.html.empty() && o.combine)
     throw usage_error("check: --html draws the files, which --combine does not read");
-  const check_run run = run_checks(o, p, o.html.empty() ? 0 : html_drawn_files);
-  write_report(o, run.reports, p);
-  if (!o.html.empty()) {
-    html_request page;
-    page.output = o.html;
-    page.title = "tiers check";
-    write_html_page(page, run, p);
+  check_summary s;
+  if (o.format == "text" && o.html.empty() && !o.combine) {
+    s = check_streamed(o, p);
+  } else {
+    const check_run run = run_checks(o, p, o.html.empty() ? 0 : html_drawn_files);
+    write_report(o, run.reports, p);
+    if (!o.html.empty()) {
+      html_request page;
+      page.output = o.html;
+      page.title = "tiers check";
+      write_html_page(page, run, p);
+    }
+    s = summarize(run.reports);
   }
-
-  const check_summary s = summarize(run.reports);
   if (s.errors > 0) return exit_rejected;
   if (o.max_warnings >= 0 && s.warnings > static_cast<std::size_t>(o.max_warnings)) {
     std::fprintf(stderr, "tiers: error: %zu warnings, more than --max-warnings %ld allows\n",

@@ -10,6 +10,7 @@
 #include <chrono>
 #include <cstdio>
 #include <filesystem>
+#include <mutex>
 #include <thread>
 
 #include "tiers/io.hpp"
@@ -54,9 +55,22 @@ file_report check_one(const std::string& path, const check_options& o, const pro
 std::vector<file_report> check_files(const std::vector<std::string>& files, const check_options& o,
                                      const profile& p, const check_context& roles,
                                      bool whole_dataset, std::vector<std::optional<document>>* docs,
-                                     std::size_t keep) {
+                                     std::size_t keep, const report_stream* stream) {
   std::vector<file_report> results(files.size());
   if (docs) docs->assign(files.size(), std::nullopt);
+  // Rendered texts wait here until every file before them is written.
+  std::mutex order;
+  std::vector<std::optional<std::string>> rendered(stream ? files.size() : 0);
+  std::size_t written = 0;
+  auto pass_on = [&](std::size_t k) {
+    std::string text = stream->render(k, results[k]);
+    const std::lock_guard<std::mutex> lock(order);
+    rendered[k] = std::move(text);
+    for (; written < rendered.size() && rendered[written]; ++written) {
+      stream->write(*rendered[written]);
+      rendered[written].reset();
+    }
+  };
   run_parallel(
       files.size(), o.jobs,
       [&](std::size_t k) {
@@ -69,6 +83,7 @@ std::vector<file_report> check_files(const std::vector<std::string>& files, cons
           d.message = std::string("could not be checked: ") + e.what();
           results[k] = unreadable_file(d.file, {d});
         }
+        if (stream) pass_on(k);
       },
       "checking");
   std::vector<file_report> reports = std::move(results);

@@ -77,7 +77,8 @@ profile load_check_profile(const std::string& name) {
   return take(load_profile(name));
 }
 
-check_run run_checks(const check_options& o, const profile& p, std::size_t keep_documents) {
+check_run run_checks(const check_options& o, const profile& p, std::size_t keep_documents,
+                     const report_stream* stream) {
   if (o.paths.empty()) throw usage_error("name the files or folders to check");
   reading_options(o.input, "");  // bad option values are usage errors before any work
   check_run run;
@@ -107,7 +108,7 @@ check_run run_checks(const check_options& o, const profile& p, std::size_t keep_
   }
   if (files.empty() && o.shard.empty()) throw usage_error("the folders named hold no tier files");
   run.reports =
-      check_files(files, o, p, run.roles, o.shard.empty(), &run.documents, keep_documents);
+      check_files(files, o, p, run.roles, o.shard.empty(), &run.documents, keep_documents, stream);
   for (std::size_t k = 0; k < places.size() && k < run.reports.size(); ++k)
     run.reports[k].index = places[k];
   return run;

@@ -39,8 +39,11 @@ struct check_run {
   std::vector<file_report> reports;
   std::vector<std::optional<document>> documents;  ///< the first few files', for drawing
 };
+struct report_stream;
 /// Checks the files (or combines the reports) that `options` name against `p`, keeping the
-/// documents of the first `keep_documents` files.
-check_run run_checks(const check_options& options, const profile& p, std::size_t keep_documents);
+/// documents of the first `keep_documents` files; with `stream`, each file's report goes
+/// through it as soon as it is made (see check_files).
+check_run run_checks(const check_options& options, const profile& p, std::size_t keep_documents,
+                     const report_stream* stream = nullptr);
 
 }  // namespace tiers::cli

@@ -260,6 +260,8 @@ class handler final {
       fail_member("must be a string");
       return std::nullopt;
     }
+    // The scanner's string is handed on, not copied: one allocation per long text, not two.
+    if (v.text.data() == string_value_.data()) return std::move(string_value_);
     return std::string(v.text);
   }
 

@@ -132,6 +132,20 @@ struct check_summary {
 };
 check_summary summarize(std::span<const file_report> reports);
 
+/// One file's problems counted by rule and severity: all a summary needs of a file, so that a
+/// run over an archive can write each file's problems and keep only this.
+struct rule_tally {
+  std::string rule;
+  severity level = severity::error;
+  std::size_t problems = 0;
+  friend bool operator==(const rule_tally&, const rule_tally&) = default;
+};
+std::vector<rule_tally> tally(const file_report& report);
+/// The problems of `report` added to `counts` (a tally of the same file made earlier).
+void add_tally(std::vector<rule_tally>& counts, const file_report& report);
+/// The summary of files given by their tallies: summarize(reports) is this over tally(each).
+check_summary summarize(std::span<const std::vector<rule_tally>> files);
+
 /// The report as JSON: {"files": [{"path", "problems": […], "lag": {…}}], "summary": {…}}
 /// (docs/cli.md, "check").
 void write_check_json(std::span<const file_report> reports, byte_sink& out,

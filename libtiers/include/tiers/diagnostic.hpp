@@ -3,6 +3,7 @@
 
 #include <cstddef>
 #include <cstdint>
+#include <optional>
 #include <stdexcept>
 #include <string>
 #include <string_view>
@@ -64,8 +65,9 @@ class position_finder {
 
  private:
   std::string_view text_;
-  std::size_t done_ = 0;  ///< bytes walked so far
-  text_position pos_;     ///< of byte done_
+  std::size_t done_ = 0;                 ///< bytes walked so far
+  text_position pos_;                    ///< of byte done_
+  std::optional<int> carriage_returns_;  ///< whether the text has a CR, once looked for
 };
 
 /// Fills in line and column of every diagnostic that has an offset, in one pass over `text`.

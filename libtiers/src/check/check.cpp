@@ -290,31 +290,44 @@ file_report check_document(const document& doc, const source_map& positions,
   return r;
 }
 
-check_summary summarize(std::span<const file_report> reports) {
+void add_tally(std::vector<rule_tally>& counts, const file_report& report) {
+  for (const problem& p : report.problems) {
+    auto it = std::find_if(counts.begin(), counts.end(), [&](const rule_tally& c) {
+      return c.rule == p.diag.code && c.level == p.diag.level;
+    });
+    if (it == counts.end()) it = counts.insert(counts.end(), {p.diag.code, p.diag.level, 0});
+    ++it->problems;
+  }
+}
+
+std::vector<rule_tally> tally(const file_report& report) {
+  std::vector<rule_tally> counts;
+  add_tally(counts, report);
+  return counts;
+}
+
+check_summary summarize(std::span<const std::vector<rule_tally>> files) {
   check_summary s;
-  s.files = reports.size();
-  for (const file_report& r : reports) {
-    const std::size_t e = r.count(severity::error), w = r.count(severity::warning);
-    s.errors += e;
-    s.warnings += w;
-    s.notes += r.count(severity::note);
-    s.files_with_errors += e > 0;
-    s.files_with_warnings += w > 0;
+  s.files = files.size();
+  for (const std::vector<rule_tally>& counts : files) {
+    std::size_t of[3] = {0, 0, 0};  // by severity: note, warning, error
     std::vector<std::string_view> seen;
-    for (const problem& p : r.problems) {
-      auto it = std::find_if(s.by_rule.begin(), s.by_rule.end(), [&](const auto& c) {
-        return c.rule == p.diag.code && c.level == p.diag.level;
-      });
-      if (it == s.by_rule.end()) {
-        s.by_rule.push_back({p.diag.code, p.diag.level, 0, 0});
-        it = s.by_rule.end() - 1;
-      }
-      ++it->problems;
-      if (std::find(seen.begin(), seen.end(), p.diag.code) == seen.end()) {
-        seen.push_back(p.diag.code);
+    for (const rule_tally& c : counts) {
+      of[static_cast<std::size_t>(c.level)] += c.problems;
+      auto it = std::find_if(s.by_rule.begin(), s.by_rule.end(),
+                             [&](const auto& r) { return r.rule == c.rule && r.level == c.level; });
+      if (it == s.by_rule.end()) it = s.by_rule.insert(s.by_rule.end(), {c.rule, c.level, 0, 0});
+      it->problems += c.problems;
+      if (std::find(seen.begin(), seen.end(), c.rule) == seen.end()) {
+        seen.push_back(c.rule);
         ++it->files;
       }
     }
+    s.errors += of[static_cast<std::size_t>(severity::error)];
+    s.warnings += of[static_cast<std::size_t>(severity::warning)];
+    s.notes += of[static_cast<std::size_t>(severity::note)];
+    s.files_with_errors += of[static_cast<std::size_t>(severity::error)] > 0;
+    s.files_with_warnings += of[static_cast<std::size_t>(severity::warning)] > 0;
   }
   std::stable_sort(s.by_rule.begin(), s.by_rule.end(), [](const auto& a, const auto& b) {
     if (a.level != b.level) return a.level > b.level;
@@ -322,6 +335,14 @@ check_summary summarize(std::span<const file_report> reports) {
     return a.rule < b.rule;
   });
   return s;
+}
+
+check_summary summarize(std::span<const file_report> reports) {
+  std::vector<std::vector<rule_tally>> files;
+  files.reserve(reports.size());
+  for (const file_report& r : reports)
+    files.push_back(tally(r));
+  return summarize(std::span<const std::vector<rule_tally>>(files));
 }
 
 }  // namespace tiers

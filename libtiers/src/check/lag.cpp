@@ -98,30 +98,41 @@ band_table fill_table(const std::vector<token>& cap, const std::vector<token>& w
   for (std::size_t i = 1; i <= m; ++i)
     t.row_start[i + 1] = t.row_start[i] + (bands.b[i] - bands.a[i] + 2);
   t.moves.resize(t.row_start[m + 1]);
-  std::vector<std::uint32_t> previous(n + 1, 0), current;
+  std::vector<std::uint32_t> previous(n + 1, 0), current, word_ids(n);
+  for (std::size_t j = 0; j < n; ++j)
+    word_ids[j] = wrd[j].id;
   std::size_t prev_first = 0, prev_last = n;  // row 0: every column is 0
   for (std::size_t i = 1; i <= m; ++i) {
     const std::size_t first = bands.a[i] - 1, last = bands.b[i];
-    auto prev = [&](std::size_t j) { return previous[std::min(j, prev_last) - prev_first]; };
+    // Row i-1 read at column j: its value there up to prev_last, its last value beyond.
+    const std::uint32_t* above = previous.data();
+    const std::uint32_t beyond = previous[prev_last - prev_first];
     current.assign(last - first + 1, 0);
     std::uint8_t* mv = t.moves.data() + t.row_start[i];
-    current[0] = prev(first);
+    std::uint32_t diagonal_value = first <= prev_last ? above[first - prev_first] : beyond;
+    std::uint32_t left = diagonal_value;
+    current[0] = left;
     mv[0] = from_above;
     const std::uint32_t tok = cap[i - 1].id;
-    for (std::size_t j = first + 1; j <= last; ++j) {
-      std::uint32_t best = prev(j);
-      std::uint8_t how = from_above;
-      if (current[j - 1 - first] > best) {
-        best = current[j - 1 - first];
-        how = from_left;
-      }
-      if (wrd[j - 1].id == tok && prev(j - 1) + 1 > best) {
-        best = prev(j - 1) + 1;
-        how = diagonal;
-      }
+    // One cell, without branches (the moves are data the predictor cannot learn): the first of
+    // above, left and diagonal that gives the longest subsequence, in that order of preference.
+    auto cell = [&](std::size_t j, std::uint32_t up) {
+      const bool take_left = left > up;
+      std::uint32_t best = take_left ? left : up;
+      std::uint8_t how = take_left ? from_left : from_above;
+      const bool take_diagonal = (word_ids[j - 1] == tok) & (diagonal_value + 1 > best);
+      best = take_diagonal ? diagonal_value + 1 : best;
+      how = take_diagonal ? static_cast<std::uint8_t>(diagonal) : how;
       current[j - first] = best;
       mv[j - first] = how;
-    }
+      left = best;
+      diagonal_value = up;
+    };
+    const std::size_t within = std::min(last, prev_last);
+    for (std::size_t j = first + 1; j <= within; ++j)
+      cell(j, above[j - prev_first]);
+    for (std::size_t j = std::max(first, within) + 1; j <= last; ++j)
+      cell(j, beyond);
     previous.swap(current);
     prev_first = first;
     prev_last = last;
