@@ -102,11 +102,10 @@ void for_each_word_segment(std::string_view text, F&& f) {
 }
 
 // NFKC_Casefold of ASCII folds A-Z and changes nothing else.
-std::string ascii_casefold(std::string_view text) {
-  std::string out(text);
+void ascii_casefold(std::string_view text, std::string& out) {
+  out.assign(text);
   for (char& c : out)
     if (c >= 'A' && c <= 'Z') c = static_cast<char>(c - 'A' + 'a');
-  return out;
 }
 
 }  // namespace
@@ -143,12 +142,21 @@ std::vector<std::string_view> word_segments(std::string_view text) {
   return out;
 }
 
+void for_each_word_token(std::string_view text, const std::function<void(std::string_view)>& f) {
+  std::string folded;
+  for_each_word_segment(text, [&](std::string_view piece, bool word) {
+    if (!word) return;
+    if (detail::is_ascii(piece))
+      ascii_casefold(piece, folded);
+    else
+      folded = normalize(piece, true);
+    f(folded);
+  });
+}
+
 std::vector<std::string> word_tokens(std::string_view text) {
   std::vector<std::string> out;
-  for_each_word_segment(text, [&](std::string_view piece, bool word) {
-    if (word)
-      out.push_back(detail::is_ascii(piece) ? ascii_casefold(piece) : normalize(piece, true));
-  });
+  for_each_word_token(text, [&](std::string_view token) { out.emplace_back(token); });
   return out;
 }
 

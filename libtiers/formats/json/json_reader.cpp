@@ -296,7 +296,7 @@ bool handler::on_key(std::string& k, std::size_t at) {
       return fail_at("json.duplicate", key_offset_, "duplicate key " + quote_name(key_));
     return true;
   }
-  for (std::size_t k2 = 0; k2 < names.size(); ++k2)
+  for (std::size_t k2 = 0; k2 < names.size() && member_ < 0; ++k2)
     if (names[k2] == key_) member_ = static_cast<int>(k2);
   if (member_ < 0)
     return fail_at("json.member", key_offset_,

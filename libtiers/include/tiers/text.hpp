@@ -3,6 +3,7 @@
 #pragma once
 
 #include <cstddef>
+#include <functional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -21,6 +22,10 @@ std::vector<std::string_view> word_segments(std::string_view text);
 /// letter, digit or ideograph (punctuation and spaces dropped), each NFKC-case-folded, so that
 /// "Straße," and "STRASSE" give the same token "strasse".
 std::vector<std::string> word_tokens(std::string_view text);
+
+/// Calls `f` with each of word_tokens(text) in turn, without making the vector: what a caller
+/// does over millions of annotations. The view is valid during the call only.
+void for_each_word_token(std::string_view text, const std::function<void(std::string_view)>& f);
 
 /// Whether `text` is in Unicode Normalization Form C (UAX #15).
 bool is_nfc(std::string_view text);

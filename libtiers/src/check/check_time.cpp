@@ -47,6 +47,7 @@ void checker::check_time(std::size_t t) {
   std::size_t instants = 0;
   std::unordered_map<span_key, std::size_t, span_hash> seen;
   const bool find_duplicates = on("time.duplicate");
+  if (find_duplicates) seen.reserve(as.size());
   for (std::size_t a = 0; a < as.size(); ++a) {
     const annotation& x = as[a];
     if (x.start < 0 || x.end < 0)

@@ -19,13 +19,20 @@ using detail::saturating_add;
 // Tokens become small integers, so that the inner loop compares numbers, not strings.
 class interner {
  public:
-  std::uint32_t operator()(std::string token) {
-    auto [it, added] = ids_.try_emplace(std::move(token), static_cast<std::uint32_t>(ids_.size()));
-    return it->second;
+  std::uint32_t operator()(std::string_view token) {
+    if (auto it = ids_.find(token); it != ids_.end()) return it->second;
+    const auto id = static_cast<std::uint32_t>(ids_.size());
+    ids_.emplace(std::string(token), id);
+    return id;
   }
 
  private:
-  std::unordered_map<std::string, std::uint32_t> ids_;
+  // Looked up by view: a token seen before (most are) costs no string.
+  struct hash {
+    using is_transparent = void;
+    std::size_t operator()(std::string_view s) const { return std::hash<std::string_view>{}(s); }
+  };
+  std::unordered_map<std::string, std::uint32_t, hash, std::equal_to<>> ids_;
 };
 
 struct token {
@@ -46,8 +53,9 @@ std::vector<std::size_t> by_start(const tier& t) {
 std::vector<token> tokens_of(const tier& t, const std::vector<std::size_t>& order, interner& ids) {
   std::vector<token> out;
   for (std::size_t k : order)
-    for (std::string& w : word_tokens(t.annotations[k].text))
-      out.push_back({ids(std::move(w)), k});
+    for_each_word_token(t.annotations[k].text, [&](std::string_view w) {
+      out.push_back({ids(w), k});
+    });
   return out;
 }
 
