@@ -38,6 +38,8 @@ class table_scanner {
   diagnostic problem;
 
  private:
+  std::size_t field_end(std::size_t pos) const;  ///< of the unquoted field at `pos`
+
   std::string_view in_;
   char delim_;
   std::size_t pos_;
