@@ -5,15 +5,14 @@
 // exactly by whoever needs them.
 #pragma once
 
-#include <bit>
 #include <cstddef>
 #include <cstdint>
-#include <cstring>
 #include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
 
+#include "detail/swar.hpp"
 #include "detail/utf8.hpp"
 
 namespace tiers::detail {
@@ -60,26 +59,16 @@ inline std::string describe(std::string_view in, std::size_t at) {
 }
 
 /// The end of the run of bytes from `pos` that a string holds as they are: up to the first
-/// quote, backslash or control character (or the end). Eight bytes at a time: a byte b of a
-/// word is flagged by the classic test for a zero byte, applied to b ^ '"', b ^ '\\' and to
-/// b - 0x20 for b < 0x80; a borrow can flag bytes after the first true one, never before it,
-/// so the lowest flag is exact.
+/// quote, backslash or control character (or the end), eight bytes at a time.
 inline std::size_t plain_run(std::string_view in, std::size_t pos) {
-  constexpr std::uint64_t ones = 0x0101010101010101ULL, highs = 0x8080808080808080ULL;
   const std::size_t n = in.size();
-  for (; pos + 8 <= n; pos += 8) {
-    std::uint64_t w;
-    std::memcpy(&w, in.data() + pos, 8);
-    const std::uint64_t quote = w ^ (ones * '"'), backslash = w ^ (ones * '\\');
-    const std::uint64_t flags =
-        (((quote - ones) & ~quote) | ((backslash - ones) & ~backslash) | ((w - ones * 0x20) & ~w)) &
-        highs;
-    if (flags) {
-      if constexpr (std::endian::native == std::endian::little)
-        return pos + static_cast<std::size_t>(std::countr_zero(flags)) / 8;
-      break;  // find the byte one by one below
+  if constexpr (swar::fast)
+    for (; pos + 8 <= n; pos += 8) {
+      const std::uint64_t w = swar::load(in.data() + pos);
+      if (const std::uint64_t flags =
+              swar::equal(w, '"') | swar::equal(w, '\\') | swar::below(w, 0x20))
+        return pos + swar::first_flag(flags);
     }
-  }
   while (pos < n && in[pos] != '"' && in[pos] != '\\' &&
          static_cast<unsigned char>(in[pos]) >= 0x20)
     ++pos;

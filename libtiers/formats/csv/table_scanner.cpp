@@ -1,29 +1,21 @@
 // The record and field splitter behind the CSV and TSV readers.
 #include "table_scanner.hpp"
 
-#include <bit>
-#include <cstdint>
-#include <cstring>
-
 #include "detail/report.hpp"
+#include "detail/swar.hpp"
 
 namespace tiers::detail {
 
-// Eight bytes at a time, a byte b flagged when b ^ delimiter, b ^ LF or b ^ CR is zero (the
-// classic test for a zero byte: a borrow may flag bytes after the first true one, never before,
-// so the lowest flag is exact); the rest byte by byte.
+// Eight bytes at a time up to the delimiter or a line break; the rest byte by byte.
 std::size_t table_scanner::field_end(std::size_t pos) const {
-  constexpr std::uint64_t ones = 0x0101010101010101ULL, highs = 0x8080808080808080ULL;
   const std::size_t n = in_.size();
-  const std::uint64_t delim = ones * static_cast<unsigned char>(delim_);
-  if constexpr (std::endian::native == std::endian::little)
+  const auto delim = static_cast<unsigned char>(delim_);
+  if constexpr (swar::fast)
     for (; pos + 8 <= n; pos += 8) {
-      std::uint64_t w;
-      std::memcpy(&w, in_.data() + pos, 8);
-      const std::uint64_t d = w ^ delim, lf = w ^ (ones * '\n'), cr = w ^ (ones * '\r');
-      const std::uint64_t flags =
-          (((d - ones) & ~d) | ((lf - ones) & ~lf) | ((cr - ones) & ~cr)) & highs;
-      if (flags) return pos + static_cast<std::size_t>(std::countr_zero(flags)) / 8;
+      const std::uint64_t w = swar::load(in_.data() + pos);
+      if (const std::uint64_t flags =
+              swar::equal(w, delim) | swar::equal(w, '\n') | swar::equal(w, '\r'))
+        return pos + swar::first_flag(flags);
     }
   while (pos < n && !ends_field_[static_cast<unsigned char>(in_[pos])])
     ++pos;

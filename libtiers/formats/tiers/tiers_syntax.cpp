@@ -1,6 +1,8 @@
 // Quoting and escaping of the plain-text tier format (docs/formats/tiers.md, "Escaping").
 #include "tiers_syntax.hpp"
 
+#include <array>
+#include <cstdint>
 #include <cstdio>
 
 #include "detail/utf8.hpp"
@@ -159,6 +161,21 @@ void append_text(std::string& out, std::string_view s) {
     out += s[i] == ' ' ? "\\s" : "\\t";
 }
 
+namespace {
+
+// The bytes that end a bare word (white space, and '=' after a key) or make it wrong.
+constexpr std::array<std::uint8_t, 256> word_stops(bool equals) {
+  std::array<std::uint8_t, 256> t{};
+  for (unsigned char c : {' ', '\t', '"', '\\', '|'})
+    t[c] = 1;
+  if (equals) t['='] = 1;
+  return t;
+}
+constexpr std::array<std::uint8_t, 256> key_stops = word_stops(true),
+                                        value_stops = word_stops(false);
+
+}  // namespace
+
 std::size_t split_line(std::string_view line, std::vector<item>& items,
                        std::optional<std::string>& text, std::string& problem) {
   items.clear();
@@ -191,13 +208,12 @@ std::size_t split_line(std::string_view line, std::vector<item>& items,
       return true;
     }
     const std::size_t begin = i;
-    while (i < line.size() && line[i] != ' ' && line[i] != '\t' &&
-           !(stop_at_equals && line[i] == '=')) {
-      if (line[i] == '"' || line[i] == '\\' || line[i] == '|') {
-        problem = "a word cannot hold '\"', '\\' or '|': quote it";
-        return false;
-      }
+    const std::array<std::uint8_t, 256>& stops = stop_at_equals ? key_stops : value_stops;
+    while (i < line.size() && !stops[static_cast<unsigned char>(line[i])])
       ++i;
+    if (i < line.size() && (line[i] == '"' || line[i] == '\\' || line[i] == '|')) {
+      problem = "a word cannot hold '\"', '\\' or '|': quote it";
+      return false;
     }
     out.assign(line.substr(begin, i - begin));
     return true;
@@ -213,16 +229,17 @@ std::size_t split_line(std::string_view line, std::vector<item>& items,
       }
       const std::string_view rest = i + 2 <= line.size() ? line.substr(i + 2) : std::string_view{};
       std::string t;
+      t.reserve(rest.size());
       for (std::size_t k = 0; k < rest.size();) {
-        if (rest[k] == '\\') {
-          const std::size_t at = k;
-          if (!read_escape(rest, k, t, false)) {
-            problem = "unknown escape in the text (escapes: \\\\ \\n \\t \\r \\s \\u{…})";
-            return i + 2 + at;
-          }
-          continue;
+        // Up to the next escape in one piece.
+        const std::size_t escape = std::min(rest.find('\\', k), rest.size());
+        t.append(rest.substr(k, escape - k));
+        k = escape;
+        if (k == rest.size()) break;
+        if (!read_escape(rest, k, t, false)) {
+          problem = "unknown escape in the text (escapes: \\\\ \\n \\t \\r \\s \\u{…})";
+          return i + 2 + escape;
         }
-        t += rest[k++];
       }
       text = std::move(t);
       return std::string_view::npos;

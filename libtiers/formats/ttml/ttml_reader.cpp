@@ -76,15 +76,15 @@ class ttml_reader {
 
   // The namespace of a prefix ("" for the default namespace), as declared on tt.
   std::string_view ns_of(std::string_view prefix) const {
-    auto it = prefixes_.find(std::string(prefix));
+    auto it = prefixes_.find(prefix);
     return it == prefixes_.end() ? std::string_view{} : std::string_view(it->second);
   }
   // An element's local name when it is in the TTML namespace, else empty.
   std::string_view tt_name(const pugi::xml_node& n) const {
     const std::string_view q = n.name();
     const std::size_t colon = q.find(':');
-    const std::string_view prefix = colon == std::string_view::npos ? "" : q.substr(0, colon);
-    return ns_of(prefix) == ns_tt ? local_name(q) : std::string_view{};
+    if (colon == std::string_view::npos) return default_tt_ ? q : std::string_view{};
+    return ns_of(q.substr(0, colon)) == ns_tt ? local_name(q) : std::string_view{};
   }
   // An attribute's name with the canonical prefix of a TTML namespace (tts:, ttm:, ttp:).
   std::string canonical(std::string_view q) const {
@@ -191,9 +191,10 @@ class ttml_reader {
 
   std::string_view in_;
   read_result& out_;
-  std::map<std::string, std::string> prefixes_;
-  std::map<std::string, std::string> agents_;  // agent id -> name
-  std::set<std::string> generated_;            // agent ids of the writer's speakers block
+  std::map<std::string, std::string, std::less<>> prefixes_;
+  bool default_tt_ = false;  // unprefixed names are TTML's (prefixes are the root's alone)
+  std::map<std::string, std::string, std::less<>> agents_;  // agent id -> name
+  std::set<std::string, std::less<>> generated_;  // agent ids of the writer's speakers block
   timing_parameters params_;
   bool bad_time_ = false;
   std::size_t divs_ = 0;
@@ -249,6 +250,7 @@ bool ttml_reader::read_root(pugi::xml_document& doc, const pugi::xml_node& tt) {
     else if (name.rfind("xmlns:", 0) == 0)
       prefixes_[std::string(name.substr(6))] = a.value();
   }
+  default_tt_ = ns_of("") == ns_tt;
   if (tt_name(tt) != "tt")
     return refuse(at(tt), "ttml.root",
                   "not a TTML document: the root must be tt in namespace " + std::string(ns_tt));
@@ -476,8 +478,12 @@ void ttml_reader::text_of(const pugi::xml_node& n, std::string& out, const span&
   for (pugi::xml_node c : n.children()) {
     if (c.type() == pugi::node_pcdata || c.type() == pugi::node_cdata) {
       // Line breaks in the source are white space; only br breaks a line (xml:space default).
-      for (const char* v = c.value(); *v; ++v)
-        out += !preserve && (*v == '\n' || *v == '\r' || *v == '\t') ? ' ' : *v;
+      const std::string_view v = c.value();
+      const std::size_t from = out.size();
+      out += v;
+      if (!preserve)
+        for (std::size_t k = from; k < out.size(); ++k)
+          if (out[k] == '\n' || out[k] == '\r' || out[k] == '\t') out[k] = ' ';
     } else if (c.type() == pugi::node_element) {
       const std::string_view name = tt_name(c);
       if (name == "br") {
@@ -539,9 +545,9 @@ void ttml_reader::read_p(const pugi::xml_node& p, const span& active, std::size_
       std::string_view refs = at_.value();
       const std::string_view first = next_idref(refs);
       if (!first.empty()) {
-        auto it = agents_.find(std::string(first));
+        auto it = agents_.find(first);
         a.attributes.emplace("speaker", it == agents_.end() ? std::string(first) : it->second);
-        if (generated_.count(std::string(first)) && first == at_.value()) continue;
+        if (generated_.count(first) && first == at_.value()) continue;
       }
     }
     a.attributes.emplace("ttml:" + q, at_.value());
@@ -556,7 +562,26 @@ void ttml_reader::read_p(const pugi::xml_node& p, const span& active, std::size_
 
 }  // namespace
 
+namespace {
+
+// Text that is already collapsed: no tab or CR, no space at either end, next to another or
+// next to a line break. Most text is, and is then copied as it is.
+bool collapsed(std::string_view text) {
+  if (text.empty()) return true;
+  if (text.front() == ' ' || text.back() == ' ') return false;
+  for (std::size_t k = 0; k < text.size(); ++k) {
+    const char c = text[k];
+    if (c == '\t' || c == '\r') return false;
+    if (c == ' ' && (text[k + 1] == ' ' || text[k + 1] == '\n' || text[k - 1] == '\n'))
+      return false;
+  }
+  return true;
+}
+
+}  // namespace
+
 std::string ttml::collapse_space(std::string_view text) {
+  if (collapsed(text)) return std::string(text);
   // '\n' stands for br: kept, with the spaces around it dropped.
   std::string out;
   bool pending = false;

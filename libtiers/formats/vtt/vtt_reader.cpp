@@ -1,10 +1,10 @@
 // Reads WebVTT by the W3C specification's parser algorithm (§6.1 "WebVTT parser algorithm"
 // and "collect a WebVTT block"), from the input buffer, one line view at a time.
 #include <algorithm>
-#include <unordered_set>
 
 #include "detail/positions.hpp"
 #include "detail/report.hpp"
+#include "detail/view_index.hpp"
 #include "vtt_format.hpp"
 #include "vtt_syntax.hpp"
 
@@ -51,6 +51,7 @@ class vtt_reader {
   }
 
   void collect_block(bool in_header);
+  void reserve_cues(std::string_view in);
   void finish_cue(annotation& cue, std::string_view settings, std::size_t settings_offset,
                   std::size_t timing_offset, std::size_t text_offset);
   void keep_block(const std::string& raw, std::size_t offset);
@@ -67,7 +68,7 @@ class vtt_reader {
   time_ns last_start_ = 0;
   // Views of the cues' ids: an annotation's id lives on the heap, so the views stay valid while
   // the cues move.
-  std::unordered_set<std::string_view> ids_;
+  view_index ids_;
 };
 
 void vtt_reader::run() {
@@ -92,6 +93,7 @@ void vtt_reader::run() {
          detail::plural(static_cast<std::size_t>(std::count(in.begin(), in.end(), '\0')),
                         "NUL character", "NUL characters") +
              " replaced by U+FFFD, as the WebVTT parser does (WebVTT §6.1)");
+  reserve_cues(in);
   bool ended = false;
   const std::string_view first = lines_.next(ended);
   append_line(header_, first.substr(6));
@@ -129,6 +131,18 @@ void vtt_reader::run() {
     for (std::size_t offset : word_offsets_)
       positions.annotation(1, offset);
   }
+}
+
+// Every cue has a line with "-->", so their count bounds the cues: the cues are then allocated
+// once instead of growing (moving every cue made so far, and a peak of one and a half times
+// their size), and so are their ids' index and offsets.
+void vtt_reader::reserve_cues(std::string_view in) {
+  std::size_t arrows = 0;
+  for (std::size_t at = in.find("-->"); at != std::string_view::npos; at = in.find("-->", at + 3))
+    ++arrows;
+  cues_.reserve(arrows);
+  cue_offsets_.reserve(arrows);
+  ids_ = view_index(arrows);
 }
 
 // "Collect a WebVTT block" (W3C WebVTT §6.1) step by step: the line loop with its seen-cue,
@@ -290,7 +304,7 @@ void vtt_reader::finish_cue(annotation& cue, std::string_view settings, std::siz
     authoring("vtt.empty", timing_offset, "cue does not end after it starts");
   last_start_ = cue.start;
   if (cue.id) {
-    if (!ids_.insert(std::string_view(*cue.id)).second)
+    if (!ids_.emplace(*cue.id, cues_.size()).second)
       authoring("vtt.id", timing_offset,
                 "cue identifier " + quote_name(*cue.id) + " is not unique");
   }
