@@ -188,6 +188,11 @@ std::optional<int> own_descriptor(const std::string& path) {
 
 }  // namespace
 
+bool atomic_file::writes_directly(const std::string& path) {
+  struct stat st {};
+  return own_descriptor(path) || (::stat(path.c_str(), &st) == 0 && !S_ISREG(st.st_mode));
+}
+
 atomic_file::atomic_file(std::string path) : path_(std::move(path)) {
   if (const std::optional<int> fd = own_descriptor(path_)) {
     fd_ = ::dup(*fd);

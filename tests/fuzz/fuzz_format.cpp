@@ -6,6 +6,7 @@
 #include <bitset>
 #include <cstddef>
 #include <cstdint>
+#include <memory>
 #include <string>
 #include <string_view>
 
@@ -136,6 +137,26 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   for (const tiers::diagnostic& d : r.diagnostics)
     if (d.code.empty() || d.message.empty() || (d.offset != tiers::no_offset && d.line == 0))
       __builtin_trap();  // every problem says what and where
+  // Streaming gives the bytes that reading the document and writing it give, refuses what
+  // reading refuses, or says that it cannot stream.
+  for (const tiers::format& to : tiers::formats()) {
+    if (!tiers::streams_losslessly(fmt, to)) continue;
+    std::string streamed, whole;
+    tiers::stream_result s;
+    {
+      tiers::string_sink sink(streamed);
+      const std::unique_ptr<tiers::document_handler> writer = to.stream_writer(sink);
+      s = tiers::stream_document(in, fmt, options, *writer, "fuzz");
+    }
+    if (s.status == tiers::stream_status::not_streamed) continue;
+    if (s.ok() != r.ok()) __builtin_trap();
+    if (!r.ok()) continue;
+    {
+      tiers::string_sink sink(whole);
+      to.write(r.value, sink, {});
+    }
+    if (streamed != whole) __builtin_trap();
+  }
   if (!r.ok()) return 0;
   // A control character the input holds is in the document, or a diagnostic says what became
   // of it: an `&#0;` that cut a text short without a word fails here.

@@ -6,6 +6,7 @@
 #include <charconv>
 #include <cstdio>
 #include <filesystem>
+#include <memory>
 #include <mutex>
 #include <numeric>
 
@@ -269,21 +270,49 @@ std::optional<words_file> words_file_of(const std::string& spec, const input_opt
   return w;
 }
 
-document load_document(const input_options& in, std::string* given_name, bool* warned) {
-  const read_options options = reading_options(in, in.path);
-  const std::string content = read_input(in.path);
+loaded_input load_input(const input_options& in) {
+  loaded_input input;
+  input.options = reading_options(in, in.path);
+  input.content = read_input(in.path);
   diagnostic why;
-  const format* fmt = input_format(in, in.path, content, why);
-  if (!fmt) report_all({why});
-  read_result result = read_document(content, *fmt, options, display_name(in.path));
+  input.fmt = input_format(in, in.path, input.content, why);
+  if (!input.fmt) report_all({why});
+  return input;
+}
+
+document parse_input(const input_options& in, loaded_input&& input, std::string* given_name,
+                     bool* warned) {
+  read_result result =
+      read_document(input.content, *input.fmt, input.options, display_name(in.path));
+  input.content = std::string();  // the document holds copies: give the memory back first
   if (warned)
     *warned = std::any_of(result.diagnostics.begin(), result.diagnostics.end(),
                           [](const diagnostic& d) { return d.level == severity::warning; });
   document doc = take(std::move(result));
-  if (given_name && !fmt->carries.has(feature::several_tiers) && !doc.tiers.empty() &&
-      doc.tiers.front().name == options.tier_name)
-    *given_name = options.tier_name;
+  if (given_name && !input.fmt->carries.has(feature::several_tiers) && !doc.tiers.empty() &&
+      doc.tiers.front().name == input.options.tier_name)
+    *given_name = input.options.tier_name;
   return doc;
+}
+
+document load_document(const input_options& in, std::string* given_name, bool* warned) {
+  return parse_input(in, load_input(in), given_name, warned);
+}
+
+bool stream_output(const loaded_input& input, const format& to, const std::string& output,
+                   const std::string& file) {
+  // Standard output, a pipe or a device would keep what was written before an error: they get
+  // the whole document once it is read, as every output does without streaming.
+  if (output.empty() || output == "-" || !streams_losslessly(*input.fmt, to) ||
+      atomic_file::writes_directly(output))
+    return false;
+  atomic_file out(output);
+  const std::unique_ptr<document_handler> writer = to.stream_writer(out);
+  stream_result r = stream_document(input.content, *input.fmt, input.options, *writer, file);
+  if (r.status == stream_status::not_streamed) return false;  // the temporary goes with `out`
+  report_all(std::move(r.diagnostics));
+  out.commit();
+  return true;
 }
 
 }  // namespace tiers::cli

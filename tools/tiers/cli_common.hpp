@@ -65,6 +65,25 @@ const format* input_format(const input_options& in, const std::string& path,
 document load_document(const input_options& in, std::string* given_name = nullptr,
                        bool* warned = nullptr);
 
+/// An input file read into memory, with the format and the options to read it.
+struct loaded_input {
+  std::string content;
+  const format* fmt = nullptr;
+  read_options options;
+};
+/// load_document in two steps: reading the file (printing why, and throwing rejected, when no
+/// format fits it), then parsing it, which frees the file's bytes.
+loaded_input load_input(const input_options& in);
+document parse_input(const input_options& in, loaded_input&& input,
+                     std::string* given_name = nullptr, bool* warned = nullptr);
+
+/// Converts `input` to the file `output` without a document where nothing can be lost and
+/// the input's order allows (streams_losslessly, stream_document): each annotation goes to the
+/// writer as it is read, so memory holds the input alone. Prints the diagnostics and throws
+/// rejected on errors (nothing written); false, with nothing written, when it cannot stream.
+bool stream_output(const loaded_input& input, const format& to, const std::string& output,
+                   const std::string& file);
+
 /// The output format: --to, else the extension of `output`; throws usage_error when neither
 /// tells (writing to standard output needs --to).
 const format& output_format(const std::string& to, const std::string& output);

@@ -62,8 +62,11 @@ void convert_one(const convert_options& o, const input_options& in, const format
                  const std::string& output, bool replaces_input = false) {
   std::string given_name;
   bool warned = false;
-  document doc = load_document(in, &given_name, &warned);
   const std::string file = display_name(in.path);
+  loaded_input input = load_input(in);
+  if (o.tiers.empty() && !o.voices && !replaces_input && stream_output(input, to, output, file))
+    return;
+  document doc = parse_input(in, std::move(input), &given_name, &warned);
   if (replaces_input && warned) {
     diagnostic d;
     d.file = file;

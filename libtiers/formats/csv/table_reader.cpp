@@ -61,25 +61,37 @@ parsed_time parse_time_cell(std::string_view text, const read_options& options) 
 
 class table_reader {
  public:
+  // With `stream`, rows are handed to it one by one instead of kept in `out`.
   table_reader(std::string_view input, char delimiter, const read_options& options,
-               read_result& out)
+               read_result& out, document_handler* stream = nullptr)
       : scanner_(input, delimiter, input.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0),
         options_(options),
         out_(out),
-        positions_(options, out) {}
+        positions_(options, out),
+        stream_(stream) {}
 
-  void run() {
+  stream_status run() {
     std::size_t offset = 0;
     if (!scanner_.next(cells_, offset)) {
-      if (scanner_.failed()) return fail(scanner_.problem);
-      return fail(make_diagnostic(severity::error, "csv.header", 0,
-                                  "the file is empty; a table needs a header row"));
+      if (scanner_.failed())
+        fail(scanner_.problem);
+      else
+        fail(make_diagnostic(severity::error, "csv.header", 0,
+                             "the file is empty; a table needs a header row"));
+      return stream_status::done;
     }
-    if (!read_header()) return;
+    if (!read_header()) return stream_status::done;
     count_rows();
+    if (stream_) {
+      // A tier's rows apart from one another would make two tiers of one name in a stream.
+      if (scattered_) return stream_status::not_streamed;
+      if (!stream_->begin_document(out_.value)) return stream_status::done;
+    }
     while (scanner_.next(cells_, offset))
-      if (!read_row(offset)) return;
-    if (scanner_.failed()) fail(scanner_.problem);
+      if (!read_row(offset)) return stream_status::done;
+    if (scanner_.failed()) return fail(scanner_.problem), stream_status::done;
+    if (stream_ && (streamed_ == absent || stream_->end_tier())) stream_->end_document();
+    return stream_status::done;
   }
 
  private:
@@ -154,7 +166,9 @@ class table_reader {
                                         : cells[columns_[r_tier]].text;
       if (!count || name != last) {
         last = name;
-        count = &expected_rows_[last];
+        const auto [it, fresh] = expected_rows_.try_emplace(last, 0);
+        scattered_ = scattered_ || !fresh;
+        count = &it->second;
       }
       ++*count;
     }
@@ -177,7 +191,7 @@ class table_reader {
       tier& t = out_.value.tiers.emplace_back();
       t.name = name;
       t.kind = kind_;
-      if (auto e = expected_rows_.find(t.name); e != expected_rows_.end())
+      if (auto e = expected_rows_.find(t.name); e != expected_rows_.end() && !stream_)
         t.annotations.reserve(e->second);
       positions_.tier(row_offset);
     }
@@ -240,9 +254,20 @@ class table_reader {
     for (std::size_t k : attribute_columns_)
       if (!cells_[k].text.empty()) a.attributes.emplace(header_[k], cells_[k].text);
     const std::size_t index = tier_for(name, offset);
+    if (stream_) return hand_over(index, a);
     out_.value.tiers[index].annotations.push_back(std::move(a));
     positions_.annotation(index, offset);
     return true;
+  }
+
+  // Streaming: a row of the tier being handed over, or the first of the next one.
+  bool hand_over(std::size_t index, const annotation& a) {
+    if (index != streamed_) {
+      if (streamed_ != absent && !stream_->end_tier()) return false;
+      streamed_ = index;
+      if (!stream_->begin_tier(out_.value.tiers[index])) return false;
+    }
+    return stream_->add(a);
   }
 
   table_scanner scanner_;
@@ -288,12 +313,25 @@ class table_reader {
   std::unordered_map<std::string, std::size_t> tier_index_;
   std::unordered_map<std::string, std::size_t> expected_rows_;  // tier name -> rows, counted
   std::size_t last_tier_ = absent;
+  document_handler* stream_;
+  bool scattered_ = false;         // some tier's rows are not all together
+  std::size_t streamed_ = absent;  // the tier being handed over
 };
 
 read_result read_table(std::string_view input, char delimiter, const read_options& options) {
   read_result out;
   table_reader(input, delimiter, options, out).run();
   return out;
+}
+
+stream_status stream_table(std::string_view input, char delimiter, const read_options& options,
+                           document_handler& to, std::vector<diagnostic>& diagnostics) {
+  read_options plain = options;
+  plain.positions = false;
+  read_result out;
+  const stream_status status = table_reader(input, delimiter, plain, out, &to).run();
+  diagnostics = std::move(out.diagnostics);
+  return status;
 }
 
 // 2 when the first line names a start column, 1 when it at least has the delimiter.
@@ -317,6 +355,14 @@ read_result read_csv(std::string_view input, const read_options& options) {
 }
 read_result read_tsv(std::string_view input, const read_options& options) {
   return read_table(input, '\t', options);
+}
+stream_status stream_csv(std::string_view input, const read_options& options, document_handler& to,
+                         std::vector<diagnostic>& diagnostics) {
+  return stream_table(input, ',', options, to, diagnostics);
+}
+stream_status stream_tsv(std::string_view input, const read_options& options, document_handler& to,
+                         std::vector<diagnostic>& diagnostics) {
+  return stream_table(input, '\t', options, to, diagnostics);
 }
 int sniff_csv(std::string_view head) {
   return sniff_table(head, ',');

@@ -145,7 +145,9 @@ struct scalar {
 
 class handler final {
  public:
-  handler(const read_options& options, read_result& out) : out_(out), positions_(options, out) {}
+  // With `stream`, each annotation is handed to it once read, instead of kept in `out`.
+  handler(const read_options& options, read_result& out, document_handler* stream = nullptr)
+      : out_(out), positions_(options, out), stream_(stream) {}
 
   bool on_null(std::size_t at) {
     at_ = at;
@@ -191,6 +193,7 @@ class handler final {
   }
 
   bool failed() const { return failed_; }
+  bool out_of_order() const { return out_of_order_; }
 
  private:
   // Offset of the value the scanner reported last.
@@ -279,6 +282,15 @@ class handler final {
   bool failed_ = false;
   bool version_ok_ = false;
   std::size_t missing_end_ = no_offset;  // first annotation of the current tier without "end"
+
+  // Streaming: the document's fields are handed over when its tiers begin, a tier's when its
+  // annotations begin; a member after that would come too late.
+  bool late(bool handed) {
+    if (handed) out_of_order_ = true;
+    return !handed;
+  }
+  document_handler* stream_;
+  bool document_handed_ = false, tier_handed_ = false, out_of_order_ = false;
 };
 
 bool handler::on_key(std::string& k, std::size_t at) {
@@ -305,6 +317,9 @@ bool handler::on_key(std::string& k, std::size_t at) {
   if (f.seen & bit)
     return fail_at("json.duplicate", key_offset_, "duplicate member " + quote_name(key_));
   f.seen |= bit;
+  if (stream_ && f.where == ctx::root && (member_ == m_media || member_ == m_metadata))
+    return late(document_handed_);
+  if (stream_ && f.where == ctx::tier) return late(tier_handed_);
   return true;
 }
 
@@ -375,6 +390,15 @@ bool handler::on_start_array(std::size_t at) {
     current_tier().vocabulary.emplace();
   }
   if (top() == ctx::tier && member_ == t_annotations) next = ctx::annotations;
+  if (stream_ && next == ctx::tiers) {
+    document_handed_ = true;
+    if (!stream_->begin_document(out_.value)) return false;
+  }
+  if (stream_ && next == ctx::annotations) {
+    if (!(stack_.back().seen & (1u << t_name))) return late(true);  // named later, or never
+    tier_handed_ = true;
+    if (!stream_->begin_tier(current_tier())) return false;
+  }
   if (next == ctx::top) {
     if (top() == ctx::top) return fail_here("json.value", "a tiers document is a JSON object");
     if (!in_object())
@@ -555,13 +579,17 @@ bool handler::finish_object(const frame& f) {
     case ctx::root:
       if (!(f.seen & (1u << m_format))) return missing("format");
       if (!version_ok_) return missing("version");
-      return true;
+      if (stream_ && !document_handed_ && !stream_->begin_document(out_.value)) return false;
+      return !stream_ || stream_->end_document();
     case ctx::tier:
       if (!(f.seen & (1u << t_name))) return missing("name");
       if (missing_end_ != no_offset && current_tier().kind == tier_kind::interval)
         return fail_at("json.member", missing_end_,
                        "annotation has no 'end' (only annotations of instant tiers may omit it)");
-      return true;
+      if (!stream_) return true;
+      if (!tier_handed_ && !stream_->begin_tier(current_tier())) return false;
+      tier_handed_ = false;
+      return stream_->end_tier();
     case ctx::source:
       if (!(f.seen & (1u << s_kind))) return missing("kind");
       return true;
@@ -575,7 +603,10 @@ bool handler::finish_object(const frame& f) {
         a.end = a.start;
         if (missing_end_ == no_offset) missing_end_ = f.offset;
       }
-      return true;
+      if (!stream_) return true;
+      const bool go = stream_->add(current_annotation());
+      current_tier().annotations.pop_back();
+      return go;
     }
     default:
       return true;
@@ -596,6 +627,17 @@ read_result read_json(std::string_view input, const read_options& options) {
   handler h(options, out);
   if (auto e = scan_json(input, h)) h.syntax_error(*e);
   return out;
+}
+
+stream_status stream_json(std::string_view input, const read_options& options, document_handler& to,
+                          std::vector<diagnostic>& diagnostics) {
+  read_options plain = options;
+  plain.positions = false;
+  read_result out;
+  handler h(plain, out, &to);
+  if (auto e = scan_json(input, h)) h.syntax_error(*e);
+  diagnostics = std::move(out.diagnostics);
+  return h.out_of_order() ? stream_status::not_streamed : stream_status::done;
 }
 
 }  // namespace tiers::detail

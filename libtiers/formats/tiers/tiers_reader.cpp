@@ -19,10 +19,12 @@ using text_format::item;
 
 class text_reader {
  public:
-  text_reader(std::string_view input, const read_options& options, read_result& out)
-      : in_(input), out_(out), positions_(options, out) {}
+  // With `stream`, annotations are handed to it one by one instead of kept in `out`.
+  text_reader(std::string_view input, const read_options& options, read_result& out,
+              document_handler* stream = nullptr)
+      : in_(input), out_(out), positions_(options, out), stream_(stream) {}
 
-  void run() {
+  stream_status run() {
     std::size_t pos = in_.substr(0, 3) == "\xEF\xBB\xBF" ? 3 : 0;
     while (pos < in_.size() && !stopped_) {
       std::size_t end = in_.find('\n', pos);
@@ -41,6 +43,8 @@ class text_reader {
       fail(0, "tiers.signature", "not a tiers text file: it must start with the line 'tiers 1'");
     for (tier& t : out_.value.tiers)
       if (t.annotations.capacity() / 2 > t.annotations.size()) t.annotations.shrink_to_fit();
+    if (stream_ && !stopped_ && streamable(state::ended)) stream_->end_document();
+    return out_of_order_ ? stream_status::not_streamed : stream_status::done;
   }
 
  private:
@@ -95,6 +99,10 @@ class text_reader {
     }
     if (head.value || head.attribute) return bad(head, "a line starts with a keyword or a time");
     const std::string& k = head.key;
+    if (stream_ && !streamable(k == "media" || k == "meta" ? state::document
+                               : k == "tier"               ? state::tier
+                                                           : state::tier_fields))
+      return;
     if (k == "media") return read_media();
     if (k == "meta") return read_pair(out_.value.metadata);
     if (k == "tier") return read_tier();
@@ -159,7 +167,7 @@ class text_reader {
     tier& t = out_.value.tiers.emplace_back();
     positions_.tier(line_start_);
     current_ = &t;
-    t.annotations.reserve(lines_to_next_tier());
+    if (!stream_) t.annotations.reserve(lines_to_next_tier());
     t.name = items_[1].key;
     if (items_.size() == 3) {
       auto kind = parse_tier_kind(items_[2].key);
@@ -268,8 +276,36 @@ class text_reader {
       }
     }
     if (text) a.text = std::move(*text);
+    if (stream_) {
+      if (streamable(state::annotations) && !stream_->add(a)) stopped_ = true;
+      return;
+    }
     current_->annotations.push_back(std::move(a));
     positions_.annotation(out_.value.tiers.size() - 1, line_start_);
+  }
+
+  // Streaming: where in the document a line belongs, in the order the writer writes it.
+  enum class state { document, tier, tier_fields, annotations, ended };
+
+  // Moves the stream on to `next` for the line about to be read, handing over what is
+  // complete (the document's fields at its first tier, a tier's fields at its first
+  // annotation); false when the line is not where the stream can take it, which stops the
+  // reading (out of order, or the handler said stop).
+  bool streamable(state next) {
+    if (out_of_order_ || stopped_) return false;
+    if ((next == state::document && at_ != state::document) ||
+        (next == state::tier_fields && at_ != state::tier)) {
+      out_of_order_ = stopped_ = true;
+      return false;
+    }
+    if (next == state::tier_fields || (next == at_ && next != state::tier)) return true;
+    bool ok = true;
+    if (at_ == state::document) ok = stream_->begin_document(out_.value);
+    if (ok && at_ == state::tier) ok = stream_->begin_tier(*current_);  // its fields are complete
+    if (ok && at_ != state::document && next != state::annotations) ok = stream_->end_tier();
+    at_ = next;
+    if (!ok) stopped_ = true;
+    return ok;
   }
 
   std::string_view in_;
@@ -280,6 +316,9 @@ class text_reader {
   bool seen_signature_ = false;
   bool stopped_ = false;
   tier* current_ = nullptr;
+  document_handler* stream_;
+  state at_ = state::document;
+  bool out_of_order_ = false;
 };
 
 }  // namespace
@@ -298,6 +337,16 @@ read_result read_tiers_text(std::string_view input, const read_options& options)
   read_result out;
   text_reader(input, options, out).run();
   return out;
+}
+
+stream_status stream_tiers_text(std::string_view input, const read_options& options,
+                                document_handler& to, std::vector<diagnostic>& diagnostics) {
+  read_options plain = options;
+  plain.positions = false;
+  read_result out;
+  const stream_status status = text_reader(input, plain, out, &to).run();
+  diagnostics = std::move(out.diagnostics);
+  return status;
 }
 
 }  // namespace tiers::detail

@@ -53,64 +53,89 @@ void write_annotation(std::string& line, const annotation& a, bool instant) {
   line += '\n';
 }
 
+// The document as it is handed over: the same bytes whether it comes whole or streamed.
+class text_stream final : public document_handler {
+ public:
+  explicit text_stream(byte_sink& out) : out_(out) {}
+
+  bool begin_document(const document& doc) override {
+    line_ = "tiers 1\n";
+    const media_info& m = doc.media;
+    if (m.uri || m.duration || m.frame_rate) {
+      line_ += "media";
+      if (m.uri) pair(line_, "uri", *m.uri);
+      if (m.duration) pair(line_, "duration", time_text(*m.duration));
+      if (m.frame_rate) pair(line_, "rate", format_rational(*m.frame_rate));
+      line_ += '\n';
+    }
+    for (const auto& [k, v] : doc.metadata) {
+      line_ += "meta";
+      pair(line_, k, v);
+      line_ += '\n';
+    }
+    out_.write(line_);
+    return true;
+  }
+  bool begin_tier(const tier& t) override {
+    line_ = "\ntier ";
+    append_value(line_, t.name);
+    line_ += ' ';
+    line_ += to_string(t.kind);
+    line_ += '\n';
+    if (t.source) {
+      line_ += "  source ";
+      line_ += to_string(t.source->kind);
+      if (t.source->agent) pair(line_, "agent", *t.source->agent);
+      if (t.source->version) pair(line_, "version", *t.source->version);
+      line_ += '\n';
+    }
+    if (t.parent) {
+      line_ += "  parent ";
+      append_value(line_, t.parent->tier);
+      line_ += ' ';
+      line_ += to_string(t.parent->rel);
+      line_ += '\n';
+    }
+    if (t.vocabulary) {
+      line_ += "  vocabulary";
+      for (const std::string& label : *t.vocabulary) {
+        line_ += ' ';
+        append_value(line_, label);
+      }
+      line_ += '\n';
+    }
+    for (const auto& [k, v] : t.attributes) {
+      line_ += "  attr";
+      pair(line_, k, v);
+      line_ += '\n';
+    }
+    out_.write(line_);
+    instant_ = t.kind == tier_kind::instant;
+    return true;
+  }
+  bool add(const annotation& a) override {
+    write_annotation(line_, a, instant_);
+    out_.write(line_);
+    return true;
+  }
+  bool end_tier() override { return true; }
+  bool end_document() override { return true; }
+
+ private:
+  byte_sink& out_;
+  std::string line_;
+  bool instant_ = false;
+};
+
 }  // namespace
 
 void write_tiers_text(const document& doc, byte_sink& out, const write_options&) {
-  std::string line = "tiers 1\n";
-  const media_info& m = doc.media;
-  if (m.uri || m.duration || m.frame_rate) {
-    line += "media";
-    if (m.uri) pair(line, "uri", *m.uri);
-    if (m.duration) pair(line, "duration", time_text(*m.duration));
-    if (m.frame_rate) pair(line, "rate", format_rational(*m.frame_rate));
-    line += '\n';
-  }
-  for (const auto& [k, v] : doc.metadata) {
-    line += "meta";
-    pair(line, k, v);
-    line += '\n';
-  }
-  out.write(line);
-  for (const tier& t : doc.tiers) {
-    line = "\ntier ";
-    append_value(line, t.name);
-    line += ' ';
-    line += to_string(t.kind);
-    line += '\n';
-    if (t.source) {
-      line += "  source ";
-      line += to_string(t.source->kind);
-      if (t.source->agent) pair(line, "agent", *t.source->agent);
-      if (t.source->version) pair(line, "version", *t.source->version);
-      line += '\n';
-    }
-    if (t.parent) {
-      line += "  parent ";
-      append_value(line, t.parent->tier);
-      line += ' ';
-      line += to_string(t.parent->rel);
-      line += '\n';
-    }
-    if (t.vocabulary) {
-      line += "  vocabulary";
-      for (const std::string& label : *t.vocabulary) {
-        line += ' ';
-        append_value(line, label);
-      }
-      line += '\n';
-    }
-    for (const auto& [k, v] : t.attributes) {
-      line += "  attr";
-      pair(line, k, v);
-      line += '\n';
-    }
-    out.write(line);
-    const bool instant = t.kind == tier_kind::instant;
-    for (const annotation& a : t.annotations) {
-      write_annotation(line, a, instant);
-      out.write(line);
-    }
-  }
+  text_stream writer(out);
+  hand_over(doc, writer);
+}
+
+std::unique_ptr<document_handler> tiers_text_stream_writer(byte_sink& out) {
+  return std::make_unique<text_stream>(out);
 }
 
 }  // namespace tiers::detail

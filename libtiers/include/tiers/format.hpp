@@ -4,6 +4,7 @@
 
 #include <cstdint>
 #include <initializer_list>
+#include <memory>
 #include <optional>
 #include <span>
 #include <string>
@@ -130,6 +131,41 @@ struct read_result : result<document> {
   source_map positions;  ///< empty unless read_options::positions was set
 };
 
+/// Receives a document piece by piece, in reading order, instead of whole: first the
+/// document's own fields, then each tier's own fields followed by its annotations one at a
+/// time. A streaming reader (format::stream) hands each annotation over as it reads it and
+/// keeps nothing of it, and a streaming writer (format::stream_writer) writes it at once, so
+/// that converting needs memory for the input alone. What is passed is valid only during the
+/// call. Each call returns false to stop the reading.
+class document_handler {
+ public:
+  virtual ~document_handler() = default;
+  /// The media and metadata; called once, first. `head.tiers` is not to be used (a
+  /// streaming reader leaves it empty).
+  virtual bool begin_document(const document& head) = 0;
+  /// A tier's own fields; `head.annotations` is not to be used (a streaming reader leaves
+  /// it empty).
+  virtual bool begin_tier(const tier& head) = 0;
+  virtual bool add(const annotation& a) = 0;
+  virtual bool end_tier() = 0;
+  /// Called once, last, when everything was handed over.
+  virtual bool end_document() = 0;
+};
+
+/// Hands a whole document to `to` piece by piece, as a streaming reader would: how a writer
+/// that streams writes a document, through the same code.
+bool hand_over(const document& doc, document_handler& to);
+
+/// How streaming a document went.
+enum class stream_status : std::uint8_t {
+  done,  ///< everything was handed over, or an error stopped the reading (see diagnostics)
+  /// Not streamed: the input's order does not allow it (a tier's rows apart from one
+  /// another, a tier's own fields after its annotations, the document's fields after its
+  /// tiers), or it is not plain UTF-8, or it breaks a resource limit, which a document read
+  /// locates. Discard what was handed over and read the document (read_document).
+  not_streamed,
+};
+
 /// One registered format. Everything is plain data and function pointers, listed in one table.
 struct format {
   std::string_view name;                         ///< as in --from/--to
@@ -158,6 +194,17 @@ struct format {
   /// The format's one tier is caption cues (WebVTT): `check` judges it by the caption rules
   /// unless a profile or option names another caption tier.
   bool holds_captions = false;
+  /// Reads the input handing it to `to` piece by piece, without a document, where its order
+  /// allows (else not_streamed); problems go into `diagnostics`. Null when the format
+  /// cannot stream (WebVTT and TTML keep what comes last in the file before their tiers).
+  stream_status (*stream)(std::string_view input, const read_options& options, document_handler& to,
+                          std::vector<diagnostic>& diagnostics) = nullptr;
+  /// A handler that writes what it is handed byte for byte as `write` writes the whole
+  /// document. Unlike `write`, it does not repair text that is not UTF-8: give it UTF-8, as
+  /// stream_document does (it streams only UTF-8 input, of which readers make nothing else).
+  /// Null when the writer needs the whole document (a table's header names every
+  /// attribute; WebVTT orders its cues; TTML plans its speakers).
+  std::unique_ptr<document_handler> (*stream_writer)(byte_sink& out) = nullptr;
 };
 
 /// Every format, in a fixed order.
@@ -172,6 +219,28 @@ std::vector<const format*> sniff_formats(std::string_view head);
 /// diagnostic (line, column, and `file` set to `file_name`).
 read_result read_document(std::string_view input, const format& fmt, const read_options& options,
                           std::string_view file_name = {});
+
+/// What streaming produced: how it went, and every diagnostic, located as read_document
+/// locates them.
+struct stream_result {
+  stream_status status = stream_status::done;
+  std::vector<diagnostic> diagnostics;
+  /// Whether no diagnostic is an error (not_streamed is not one).
+  bool ok() const;
+};
+
+/// Whether converting from `from` to `to` can stream: both formats stream, and `to` carries
+/// everything `from` can hold, so that nothing can be lost and no loss report needs the
+/// whole document (CSV, TSV, tiers text and JSON into JSON or tiers text).
+bool streams_losslessly(const format& from, const format& to);
+
+/// Reads `input` as `fmt` (which must stream), handing the document to `to` piece by piece,
+/// with read_document's checks: UTF-8, resource limits (a breach is read again as a document
+/// to locate it) and every diagnostic located. When an error is among the diagnostics, what
+/// was handed over is incomplete and must be discarded.
+stream_result stream_document(std::string_view input, const format& fmt,
+                              const read_options& options, document_handler& to,
+                              std::string_view file_name = {});
 
 inline constexpr std::size_t no_tier = static_cast<std::size_t>(-1);
 

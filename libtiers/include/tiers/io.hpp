@@ -24,6 +24,10 @@ class atomic_file final : public byte_sink {
   explicit atomic_file(std::string path);  ///< throws tiers::error
   ~atomic_file() override;
   void commit();  ///< flushes, syncs and renames; throws tiers::error
+  /// Whether bytes for `path` go straight to it (a device, a pipe, the process's own
+  /// descriptors) rather than to a temporary file: what was written before a failure could
+  /// not be taken back, so a writer that streams should not start before its input is read.
+  static bool writes_directly(const std::string& path);
 
  protected:
   void emit(const char* data, std::size_t size) override;

@@ -3,11 +3,11 @@
 #include <algorithm>
 #include <map>
 #include <numeric>
-#include <unordered_map>
 #include <unordered_set>
 
 #include "checker.hpp"
 #include "detail/report.hpp"
+#include "detail/view_index.hpp"
 
 namespace tiers::detail {
 namespace {
@@ -47,12 +47,12 @@ struct parent_index {
 // structure.duplicate-id: an id used twice in one tier.
 void duplicate_ids(checker& c, std::size_t t) {
   const auto& as = c.doc_.tiers[t].annotations;
-  std::unordered_map<std::string_view, std::size_t> ids;
+  detail::view_index ids(as.size());
   for (std::size_t a = 0; a < as.size(); ++a) {
     if (!as[a].id) continue;
-    auto [it, added] = ids.emplace(*as[a].id, a);
+    const auto [first, added] = ids.emplace(*as[a].id, a);
     if (added) continue;
-    const std::string there = c.where(t, it->second);
+    const std::string there = c.where(t, first);
     c.emit("structure.duplicate-id", t, a,
            "id " + quote_name(*as[a].id) + " is used again" +
                (there.empty() ? "" : " (first at " + there + ")"));
@@ -110,14 +110,14 @@ std::size_t parent_tier(checker& c, std::size_t t, const parent_link& link, bool
 // structure.missing-parent: children that refer to their parent annotation by id.
 void parent_references(checker& c, std::size_t t, std::size_t p, const std::string& parent) {
   const auto& as = c.doc_.tiers[t].annotations;
-  std::unordered_set<std::string_view> ids;
+  detail::view_index ids(c.doc_.tiers[p].annotations.size());
   for (const annotation& x : c.doc_.tiers[p].annotations)
-    if (x.id) ids.insert(*x.id);
+    if (x.id) ids.emplace(*x.id, 0);
   for (std::size_t a = 0; a < as.size(); ++a) {
     if (!as[a].parent)
       c.emit("structure.missing-parent", t, a,
              "refers to no annotation of its parent tier " + quote_name(parent));
-    else if (!ids.count(*as[a].parent))
+    else if (!ids.contains(*as[a].parent))
       c.emit("structure.missing-parent", t, a,
              "refers to " + quote_name(*as[a].parent) + ", which tier " + quote_name(parent) +
                  " does not have");
