@@ -26,6 +26,11 @@ class view_index {
   /// The value stored under `key`, or null.
   const std::uint32_t* find(std::string_view key) const;
   bool contains(std::string_view key) const { return find(key) != nullptr; }
+  /// Starts loading the slot of `key` into the cache, for an emplace or find a little later:
+  /// over millions of keys, that load is most of an insert's time.
+  void prefetch(std::string_view key) const {
+    __builtin_prefetch(&slots_[static_cast<std::size_t>(hash_of(key)) & (slots_.size() - 1)]);
+  }
   std::size_t size() const { return size_; }
 
  private:

@@ -169,7 +169,10 @@ TEST_CASE("an error while streaming is located as reading the document locates i
            {"csv", "tier,start,end\na,1,2\na,x,3\n"},
            {"json", R"({"format": "tiers", "version": 1, "tiers": [{"name": "a", "annotations": )"
                     R"([{"start": 1, "end": 2}, {"start": "x"}]}]})"},
-           {"tiers", "tiers 1\n\ntier a interval\n  1.0 2.0 | x\n  1.0 oops | y\n"}}) {
+           {"tiers", "tiers 1\n\ntier a interval\n  1.0 2.0 | x\n  1.0 oops | y\n"},
+           // A tier line that is wrong: no tier to hand over, and every later problem found.
+           {"tiers", "tiers 1\ntier a b c d\n  1.0 2.0 | x\nbogus\n"},
+           {"tiers", "tiers 1\ntier a\n  1.0 | x\ntier b c d e\n  2.0 | y\n"}}) {
     INFO(format << ": " << text);
     const streamed s = stream_as(format, "json", text);
     const read_result whole = read_document(text, *find_format(format), {}, "in");

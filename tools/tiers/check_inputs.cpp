@@ -40,6 +40,7 @@ file_report check_one(const std::string& path, const check_options& o, const pro
   read_options options = reading_options(o.input, path);
   options.positions = true;
   read_result r = read_document(content, *fmt, options, name);
+  content = std::string();  // lines and columns are found: the file's bytes are not needed
   if (!r.ok()) return unreadable_file(name, r.diagnostics);
   check_context roles = shared;
   roles.instant_tiers = fmt->carries.has(feature::instant_tiers);

@@ -81,14 +81,10 @@ class table_reader {
       return stream_status::done;
     }
     if (!read_header()) return stream_status::done;
-    count_rows();
-    if (stream_) {
-      // A tier's rows apart from one another would make two tiers of one name in a stream.
-      if (scattered_) return stream_status::not_streamed;
-      if (!stream_->begin_document(out_.value)) return stream_status::done;
-    }
+    if (!stream_) count_rows();  // a stream keeps no rows: one pass
+    if (stream_ && !stream_->begin_document(out_.value)) return stream_status::done;
     while (scanner_.next(cells_, offset))
-      if (!read_row(offset)) return stream_status::done;
+      if (!read_row(offset)) return scattered_ ? stream_status::not_streamed : stream_status::done;
     if (scanner_.failed()) return fail(scanner_.problem), stream_status::done;
     if (stream_ && (streamed_ == absent || stream_->end_tier())) stream_->end_document();
     return stream_status::done;
@@ -166,9 +162,7 @@ class table_reader {
                                         : cells[columns_[r_tier]].text;
       if (!count || name != last) {
         last = name;
-        const auto [it, fresh] = expected_rows_.try_emplace(last, 0);
-        scattered_ = scattered_ || !fresh;
-        count = &it->second;
+        count = &expected_rows_[last];
       }
       ++*count;
     }
@@ -263,6 +257,12 @@ class table_reader {
   // Streaming: a row of the tier being handed over, or the first of the next one.
   bool hand_over(std::size_t index, const annotation& a) {
     if (index != streamed_) {
+      // A tier met again after another: its rows are apart, and would make two tiers of one
+      // name in a stream.
+      if (index + 1 != out_.value.tiers.size()) {
+        scattered_ = true;
+        return false;
+      }
       if (streamed_ != absent && !stream_->end_tier()) return false;
       streamed_ = index;
       if (!stream_->begin_tier(out_.value.tiers[index])) return false;
@@ -314,7 +314,7 @@ class table_reader {
   std::unordered_map<std::string, std::size_t> expected_rows_;  // tier name -> rows, counted
   std::size_t last_tier_ = absent;
   document_handler* stream_;
-  bool scattered_ = false;         // some tier's rows are not all together
+  bool scattered_ = false;         // streaming met a tier's rows apart
   std::size_t streamed_ = absent;  // the tier being handed over
 };
 

@@ -51,6 +51,7 @@ class text_reader {
   void fail(std::size_t at, std::string code, std::string message) {
     out_.diagnostics.push_back(
         make_diagnostic(severity::error, std::move(code), at, std::move(message)));
+    failed_ = true;
   }
   void bad(const item& it, std::string message) {
     fail(line_start_ + it.offset, "tiers.syntax", std::move(message));
@@ -99,9 +100,10 @@ class text_reader {
     }
     if (head.value || head.attribute) return bad(head, "a line starts with a keyword or a time");
     const std::string& k = head.key;
-    if (stream_ && !streamable(k == "media" || k == "meta" ? state::document
-                               : k == "tier"               ? state::tier
-                                                           : state::tier_fields))
+    if (stream_ && !failed_ &&
+        !streamable(k == "media" || k == "meta" ? state::document
+                    : k == "tier"               ? state::tier
+                                                : state::tier_fields))
       return;
     if (k == "media") return read_media();
     if (k == "meta") return read_pair(out_.value.metadata);
@@ -292,7 +294,9 @@ class text_reader {
   // annotation); false when the line is not where the stream can take it, which stops the
   // reading (out of order, or the handler said stop).
   bool streamable(state next) {
-    if (out_of_order_ || stopped_) return false;
+    // After an error nothing more is handed over (what was is discarded), but reading goes on
+    // to find every problem, as it does for a document.
+    if (out_of_order_ || stopped_ || failed_) return false;
     if ((next == state::document && at_ != state::document) ||
         (next == state::tier_fields && at_ != state::tier)) {
       out_of_order_ = stopped_ = true;
@@ -319,6 +323,7 @@ class text_reader {
   document_handler* stream_;
   state at_ = state::document;
   bool out_of_order_ = false;
+  bool failed_ = false;  // an error was found
 };
 
 }  // namespace

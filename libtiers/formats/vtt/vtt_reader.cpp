@@ -169,7 +169,10 @@ void vtt_reader::collect_block(bool in_header) {
         previous = lines_.pos;
         // Collect the timings (§6.3); the settings are parsed once the cue is complete.
         annotation a;
-        if (!buffer.empty()) a.id = buffer;
+        if (!buffer.empty()) {
+          a.id = buffer;
+          ids_.prefetch(buffer);  // checked once the cue's text is read
+        }
         std::size_t p = 0;
         auto skip = [&] {
           while (p < line.size() && is_space(line[p]))
