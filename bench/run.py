@@ -4,7 +4,8 @@
 For each size (default 100 MB and 1 GB of CSV; the other formats as large as the same corpus
 makes them, WebVTT and TTML from a caption-only corpus of the same size), it measures:
   - every format's read and write (bench/tiers-bench, in one process: seconds, MB/s,
-    annotations/s, peak resident memory);
+    annotations/s, peak resident memory), and for the formats that stream, the reader alone
+    handing annotations to a counter (no document);
   - tiers check, merge, agree and derive as whole commands (wall time, peak memory);
   - the raw read speed of the machine (`wc -l` on each file);
   - `tiers convert` from every format to JSON and from JSON to every format (peak memory);
@@ -27,6 +28,7 @@ import time
 
 MB = 1_000_000
 READ_TARGETS = {"csv": 200, "tsv": 200, "vtt": 200, "tiers": 200, "json": 150, "ttml": 60}
+STREAMS = ("csv", "tsv", "tiers", "json")  # formats whose readers stream (format::stream)
 CONVERT_MEMORY = 1.5  # peak resident memory over the input's size
 CHECK_MEMORY = 2.5
 SCRIPT_RATIO = 20     # tiers convert against bench/baseline_convert.py
@@ -138,6 +140,12 @@ def measure_size(t, build, out_dir, size, smallest, here):
         goal = READ_TARGETS[fmt]
         t.target(f"read {fmt} at {mb} MB", f"{row['mb_per_s']} MB/s", f">= {goal} MB/s",
                  row["mb_per_s"] >= goal)
+        if fmt in STREAMS:
+            seconds, rss, code, out, err = measure([bench, "--stream", path])
+            if code == 0:
+                r = json.loads(out)
+                t.add(size, "stream", fmt, path, r["read_seconds"], r["peak_rss_bytes"],
+                      r["annotations"], note="the reader alone: no document built")
         wc_seconds, _, _, _, _ = measure(["wc", "-l", path])
         t.add(size, "wc -l", fmt, path, wc_seconds, 0, note="the machine's raw read speed")
     for fmt in ("json", "csv", "tsv", "tiers"):

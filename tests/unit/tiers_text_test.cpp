@@ -171,6 +171,8 @@ TEST_CASE("tiers text: every bad line is reported with its place, and reading go
   const std::string text =
       "tiers 1\n"
       "00:00:01 | before any tier\n"
+      "media uri=a.mp4 uri=b.mp4\n"
+      "media rate=25\n"
       "tier t\n"
       "  00:00:01 00:00:02 colour=red | unknown field\n"
       "  00:61:00 | bad time\n"
@@ -185,14 +187,17 @@ TEST_CASE("tiers text: every bad line is reported with its place, and reading go
     std::size_t line, column;
     const char* part;
   };
+  // A media field given twice, or a second media line, would replace the first silently.
   const where expected[] = {{2, 1, "before any 'tier' line"},
-                            {4, 21, "unknown field 'colour'"},
-                            {5, 3, "time '00:61:00' has a field out of range"},
-                            {6, 12, "conf '2' is not a number from 0 to 1"},
-                            {7, 15, "quoted string is not closed"},
-                            {8, 12, "followed by a space"},
-                            {9, 18, "unknown escape"},
-                            {10, 3, "only annotation lines have a text"}};
+                            {3, 17, "uri is given twice"},
+                            {4, 1, "a second 'media' line"},
+                            {6, 21, "unknown field 'colour'"},
+                            {7, 3, "time '00:61:00' has a field out of range"},
+                            {8, 12, "conf '2' is not a number from 0 to 1"},
+                            {9, 15, "quoted string is not closed"},
+                            {10, 12, "followed by a space"},
+                            {11, 18, "unknown escape"},
+                            {12, 3, "only annotation lines have a text"}};
   REQUIRE(r.diagnostics.size() == std::size(expected));
   for (std::size_t k = 0; k < std::size(expected); ++k) {
     INFO(k << ": " << format_diagnostic(r.diagnostics[k]));

@@ -133,9 +133,15 @@ class text_reader {
 
   void read_media() {
     media_info& m = out_.value.media;
+    // A field given again would replace the first without a word.
+    if (seen_media_) return bad(items_[0], "a second 'media' line: one line gives every field");
+    seen_media_ = true;
     for (std::size_t k = 1; k < items_.size(); ++k) {
       const item& it = items_[k];
       if (!it.value || it.attribute) return bad(it, "media takes uri=…, duration=… and rate=…");
+      const bool again = (it.key == "uri" && m.uri) || (it.key == "duration" && m.duration) ||
+                         (it.key == "rate" && m.frame_rate);
+      if (again) return bad(it, it.key + " is given twice");
       if (it.key == "uri") {
         m.uri = *it.value;
       } else if (it.key == "duration") {
@@ -324,6 +330,7 @@ class text_reader {
   state at_ = state::document;
   bool out_of_order_ = false;
   bool failed_ = false;  // an error was found
+  bool seen_media_ = false;
 };
 
 }  // namespace
