@@ -95,7 +95,15 @@ enum move : std::uint8_t { from_left, from_above, diagonal };
 // later row reads row i's value at min(j, b[i]).
 struct band_table {
   std::vector<std::size_t> row_start;
-  std::vector<std::uint8_t> moves;
+  // Two bits a cell: the table is the largest thing a check holds (a cue's window of about
+  // forty seconds spans about a hundred words, for every caption word of the file).
+  std::vector<std::uint8_t> packed;
+  void set(std::size_t cell, std::uint8_t how) {
+    packed[cell >> 2] |= static_cast<std::uint8_t>(how << ((cell & 3) * 2));
+  }
+  std::uint8_t at(std::size_t cell) const {
+    return static_cast<std::uint8_t>((packed[cell >> 2] >> ((cell & 3) * 2)) & 3);
+  }
 };
 
 band_table fill_table(const std::vector<token>& cap, const std::vector<token>& wrd,
@@ -105,7 +113,7 @@ band_table fill_table(const std::vector<token>& cap, const std::vector<token>& w
   t.row_start.assign(m + 2, 0);
   for (std::size_t i = 1; i <= m; ++i)
     t.row_start[i + 1] = t.row_start[i] + (bands.b[i] - bands.a[i] + 2);
-  t.moves.resize(t.row_start[m + 1]);
+  t.packed.assign((t.row_start[m + 1] + 3) / 4, 0);
   std::vector<std::uint32_t> previous(n + 1, 0), current, word_ids(n);
   for (std::size_t j = 0; j < n; ++j)
     word_ids[j] = wrd[j].id;
@@ -116,11 +124,11 @@ band_table fill_table(const std::vector<token>& cap, const std::vector<token>& w
     const std::uint32_t* above = previous.data();
     const std::uint32_t beyond = previous[prev_last - prev_first];
     current.assign(last - first + 1, 0);
-    std::uint8_t* mv = t.moves.data() + t.row_start[i];
+    const std::size_t row = t.row_start[i];
     std::uint32_t diagonal_value = first <= prev_last ? above[first - prev_first] : beyond;
     std::uint32_t left = diagonal_value;
     current[0] = left;
-    mv[0] = from_above;
+    t.set(row, from_above);
     const std::uint32_t tok = cap[i - 1].id;
     // One cell, without branches (the moves are data the predictor cannot learn): the first of
     // above, left and diagonal that gives the longest subsequence, in that order of preference.
@@ -132,7 +140,7 @@ band_table fill_table(const std::vector<token>& cap, const std::vector<token>& w
       best = take_diagonal ? diagonal_value + 1 : best;
       how = take_diagonal ? static_cast<std::uint8_t>(diagonal) : how;
       current[j - first] = best;
-      mv[j - first] = how;
+      t.set(row + (j - first), how);
       left = best;
       diagonal_value = up;
     };
@@ -160,7 +168,7 @@ std::vector<std::optional<std::size_t>> trace_back(const band& bands, const band
       --i;
       continue;
     }
-    const std::uint8_t how = t.moves[t.row_start[i] + (col - (bands.a[i] - 1))];
+    const std::uint8_t how = t.at(t.row_start[i] + (col - (bands.a[i] - 1)));
     if (how == diagonal) {
       match[i] = col;
       j = col - 1;
