@@ -179,6 +179,16 @@ TEST_CASE("clock time for people rounds at the shown precision", "[time]") {
   CHECK(format_clock(90 * ns_per_second, 0) == "00:01:30");
 }
 
+TEST_CASE("exact clock time: two-digit fields, hours as many digits as they need", "[time]") {
+  CHECK(format_clock_exact(0) == "00:00:00");
+  CHECK(format_clock_exact(3599 * ns_per_second + 1) == "00:59:59.000000001");
+  CHECK(format_clock_exact(9 * 3600 * ns_per_second) == "09:00:00");
+  CHECK(format_clock_exact(100 * 3600 * ns_per_second + 61'500'000'000) == "100:01:01.5");
+  CHECK(format_clock_exact(-61 * ns_per_second) == "-00:01:01");
+  // The largest time: 9223372036.854775807 s is 2562047 h 47 min 16.854775807 s (computed).
+  CHECK(format_clock_exact(std::numeric_limits<time_ns>::max()) == "2562047:47:16.854775807");
+}
+
 TEST_CASE("durations take a unit: s, ms or frames", "[time]") {
   CHECK(parse_duration("1.5s")->ns == 1'500'000'000);
   CHECK(parse_duration("1.5")->ns == 1'500'000'000);  // plain numbers are seconds
