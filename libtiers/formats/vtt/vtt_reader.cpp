@@ -15,8 +15,13 @@ using namespace vtt;
 
 constexpr std::string_view replacement = "\xEF\xBF\xBD";
 
-// Appends a line, with NUL replaced by U+FFFD (§6.1 step 1).
-void append_line(std::string& out, std::string_view line) {
+// Appends a line, with NUL replaced by U+FFFD (§6.1 step 1) when the file has any (`nuls`:
+// the whole file was searched once, so that lines need not be).
+void append_line(std::string& out, std::string_view line, bool nuls) {
+  if (!nuls) {
+    out.append(line);
+    return;
+  }
   for (std::size_t nul = line.find('\0'); nul != std::string_view::npos; nul = line.find('\0')) {
     out.append(line.substr(0, nul));
     out.append(replacement);
@@ -63,6 +68,7 @@ class vtt_reader {
   std::vector<annotation> cues_, words_;
   std::vector<std::size_t> cue_offsets_, word_offsets_;  // timing line, cue text
   bool seen_cue_ = false;
+  bool nuls_ = false;  // the file holds a NUL somewhere
   std::vector<std::string> regions_;
   std::string prelude_, pending_notes_, header_;
   time_ns last_start_ = 0;
@@ -88,7 +94,9 @@ void vtt_reader::run() {
     return;
   }
   // The parser replaces NUL by U+FFFD (§6.1 step 1): a change to the text, so it is said.
-  if (const std::size_t nul = in.find('\0', pos); nul != std::string_view::npos)
+  const std::size_t nul = in.find('\0', pos);
+  nuls_ = nul != std::string_view::npos;
+  if (nuls_)
     note(severity::warning, "input.utf8", nul,
          detail::plural(static_cast<std::size_t>(std::count(in.begin(), in.end(), '\0')),
                         "NUL character", "NUL characters") +
@@ -96,7 +104,7 @@ void vtt_reader::run() {
   reserve_cues(in);
   bool ended = false;
   const std::string_view first = lines_.next(ended);
-  append_line(header_, first.substr(6));
+  append_line(header_, first.substr(6), nuls_);
   if (ended && !lines_.at_end()) {
     if (in[pos] != '\n' && in[pos] != '\r') {
       collect_block(true);
@@ -239,12 +247,12 @@ void vtt_reader::collect_block(bool in_header) {
         }
       }
       if (!buffer.empty()) buffer += '\n';
-      append_line(buffer, line);
+      append_line(buffer, line, nuls_);
       previous = lines_.pos;
     }
     if (kind != block_kind::cue) {
       if (!raw.empty()) raw += '\n';
-      append_line(raw, line);
+      append_line(raw, line, nuls_);
     }
     if (!ended) break;
   }
