@@ -85,7 +85,10 @@ class table_reader {
     if (stream_ && !stream_->begin_document(out_.value)) return stream_status::done;
     while (scanner_.next(cells_, offset))
       if (!read_row(offset)) return scattered_ ? stream_status::not_streamed : stream_status::done;
-    if (scanner_.failed()) return fail(scanner_.problem), stream_status::done;
+    if (scanner_.failed()) {
+      fail(scanner_.problem);
+      return stream_status::done;
+    }
     if (stream_ && (streamed_ == absent || stream_->end_tier())) stream_->end_document();
     return stream_status::done;
   }
