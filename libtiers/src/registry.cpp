@@ -4,6 +4,7 @@
 #include <cstdio>
 #include <optional>
 
+#include "detail/limits.hpp"
 #include "detail/paths.hpp"
 #include "detail/report.hpp"
 #include "detail/utf8.hpp"
@@ -188,7 +189,7 @@ std::optional<limit_breach> find_breach(const document& doc, const read_options&
   for (std::size_t t = 0; t < doc.tiers.size(); ++t)
     for (std::size_t a = 0; a < doc.tiers[t].annotations.size(); ++a) {
       const annotation& x = doc.tiers[t].annotations[a];
-      const std::size_t size = std::max(x.text.size(), x.markup ? x.markup->size() : 0);
+      const std::size_t size = detail::limited_text_size(x);
       if (size > options.max_text)
         return limit_breach{t, a, "limit.text",
                             "an annotation's text is " + std::to_string(size) +

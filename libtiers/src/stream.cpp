@@ -1,7 +1,6 @@
 // Streaming: a document handed over piece by piece, and reading with read_document's checks
 // without keeping the document.
-#include <algorithm>
-
+#include "detail/limits.hpp"
 #include "detail/utf8.hpp"
 #include "tiers/format.hpp"
 
@@ -21,7 +20,7 @@ class limit_guard final : public document_handler {
     return to_.begin_tier(head);
   }
   bool add(const annotation& a) override {
-    if (std::max(a.text.size(), a.markup ? a.markup->size() : 0) > options_.max_text) return stop();
+    if (detail::limited_text_size(a) > options_.max_text) return stop();
     return to_.add(a);
   }
   bool end_tier() override { return to_.end_tier(); }
@@ -72,8 +71,11 @@ stream_result stream_document(std::string_view input, const format& fmt,
     result.status = stream_status::not_streamed;
     return result;
   }
+  // Positions would be kept for every annotation handed over: a stream keeps nothing.
+  read_options streaming = options;
+  streaming.positions = false;
   limit_guard guard(to, options);
-  result.status = fmt.stream(input, options, guard, result.diagnostics);
+  result.status = fmt.stream(input, streaming, guard, result.diagnostics);
   if (guard.breached) result.status = stream_status::not_streamed;
   locate_all(input, result.diagnostics);
   for (diagnostic& d : result.diagnostics)

@@ -329,10 +329,8 @@ read_result read_table(std::string_view input, char delimiter, const read_option
 
 stream_status stream_table(std::string_view input, char delimiter, const read_options& options,
                            document_handler& to, std::vector<diagnostic>& diagnostics) {
-  read_options plain = options;
-  plain.positions = false;
   read_result out;
-  const stream_status status = table_reader(input, delimiter, plain, out, &to).run();
+  const stream_status status = table_reader(input, delimiter, options, out, &to).run();
   diagnostics = std::move(out.diagnostics);
   return status;
 }

@@ -631,10 +631,8 @@ read_result read_json(std::string_view input, const read_options& options) {
 
 stream_status stream_json(std::string_view input, const read_options& options, document_handler& to,
                           std::vector<diagnostic>& diagnostics) {
-  read_options plain = options;
-  plain.positions = false;
   read_result out;
-  handler h(plain, out, &to);
+  handler h(options, out, &to);
   if (auto e = scan_json(input, h)) h.syntax_error(*e);
   diagnostics = std::move(out.diagnostics);
   return h.out_of_order() ? stream_status::not_streamed : stream_status::done;

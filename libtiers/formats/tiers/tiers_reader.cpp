@@ -353,10 +353,8 @@ read_result read_tiers_text(std::string_view input, const read_options& options)
 
 stream_status stream_tiers_text(std::string_view input, const read_options& options,
                                 document_handler& to, std::vector<diagnostic>& diagnostics) {
-  read_options plain = options;
-  plain.positions = false;
   read_result out;
-  const stream_status status = text_reader(input, plain, out, &to).run();
+  const stream_status status = text_reader(input, options, out, &to).run();
   diagnostics = std::move(out.diagnostics);
   return status;
 }

@@ -195,7 +195,8 @@ struct format {
   /// unless a profile or option names another caption tier.
   bool holds_captions = false;
   /// Reads the input handing it to `to` piece by piece, without a document, where its order
-  /// allows (else not_streamed); problems go into `diagnostics`, and what the handler throws
+  /// allows (else not_streamed); `options.positions` is off (stream_document sees to it);
+  /// problems go into `diagnostics`, and what the handler throws
   /// (a writer's tiers::error) passes through. Null when the format
   /// cannot stream (WebVTT and TTML keep what comes last in the file before their tiers).
   stream_status (*stream)(std::string_view input, const read_options& options, document_handler& to,
