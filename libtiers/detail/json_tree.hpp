@@ -35,6 +35,13 @@ std::string_view type_name(json_node::type t);
 std::optional<json_node> parse_json_tree(std::string_view text, std::vector<diagnostic>& problems,
                                          std::size_t max_depth = 64);
 
+/// The root object of a document of one of the project's own kinds (a profile, a merge plan, a
+/// dataset description): nothing when the text is not JSON or its root is no object, with the
+/// problem appended (`<prefix>.value`: "a merge plan is a JSON object" from `what`).
+std::optional<json_node> parse_json_object(std::string_view text, std::vector<diagnostic>& problems,
+                                           std::size_t max_depth, std::string_view what,
+                                           std::string_view prefix);
+
 /// Reads the members of one object, reporting type errors at the value and, on `finish`, every
 /// member that was not asked for. Codes: `<prefix>.value` and `<prefix>.member`.
 class json_fields {
@@ -54,6 +61,9 @@ class json_fields {
   bool require(std::string_view key);
   /// Reports a problem with a member's value (`<prefix>.value`).
   void bad(const json_node& value, std::string message);
+  /// Checks `"format": kind` and `"version": 1`, each reported when missing if `required`;
+  /// `why` follows the message of a wrong format.
+  void kind_and_version(std::string_view kind, bool required, std::string_view why = {});
   /// Reports the members no `get` asked for.
   void finish();
 

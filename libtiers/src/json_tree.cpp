@@ -119,6 +119,27 @@ std::optional<json_node> parse_json_tree(std::string_view text, std::vector<diag
   return std::move(b.root);
 }
 
+std::optional<json_node> parse_json_object(std::string_view text, std::vector<diagnostic>& problems,
+                                           std::size_t max_depth, std::string_view what,
+                                           std::string_view prefix) {
+  std::optional<json_node> root = parse_json_tree(text, problems, max_depth);
+  if (root && root->kind != json_node::type::object) {
+    problems.push_back(make_diagnostic(severity::error, std::string(prefix) + ".value",
+                                       root->offset, std::string(what) + " is a JSON object"));
+    root.reset();
+  }
+  return root;
+}
+
+void json_fields::kind_and_version(std::string_view kind, bool required, std::string_view why) {
+  const std::optional<std::string> format = string("format");
+  if ((!required || require("format")) && format && *format != kind)
+    bad(*get("format"), "'format' must be \"" + std::string(kind) + "\"" + std::string(why));
+  if (const json_node* v = get("version"); (!required || require("version")) && v &&
+                                           (v->kind != json_node::type::number || v->text != "1"))
+    bad(*v, "'version' must be 1");
+}
+
 json_fields::json_fields(const json_node& object, std::string_view what, std::string_view prefix,
                          std::vector<diagnostic>& problems)
     : object_(object),

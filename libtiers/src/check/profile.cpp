@@ -61,19 +61,11 @@ std::optional<duration_value> profile_reader::duration(json_fields& f, std::stri
 }
 
 void profile_reader::run() {
-  std::optional<json_node> root = detail::parse_json_tree(text_, local_, 32);
-  if (root && root->kind != json_node::type::object) {
-    error_at(root->offset, "a profile is a JSON object");
-    root.reset();
-  }
+  const std::optional<json_node> root =
+      detail::parse_json_object(text_, local_, 32, "a profile", "profile");
   if (root) {
     json_fields f(*root, "the profile", "profile", local_);
-    const auto format = f.string("format");
-    if (f.require("format") && format && *format != "tiers-profile")
-      f.bad(*f.get("format"), "'format' must be \"tiers-profile\": this is not a tiers profile");
-    if (const json_node* v = f.get("version");
-        f.require("version") && v && (v->kind != json_node::type::number || v->text != "1"))
-      f.bad(*v, "'version' must be 1");
+    f.kind_and_version("tiers-profile", true, ": this is not a tiers profile");
     if (const json_node* e = f.get("extends")) {
       if (e->kind == json_node::type::string)
         read_extends(*e, e->text);

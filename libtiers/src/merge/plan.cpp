@@ -107,19 +107,11 @@ std::string duration_text(time_ns t) {
 plan_result read_merge_plan(std::string_view text, const std::string& file) {
   plan_result r;
   std::vector<diagnostic>& problems = r.diagnostics;
-  std::optional<json_node> root = detail::parse_json_tree(text, problems, 32);
-  if (root && root->kind != json_node::type::object) {
-    problems.push_back(detail::make_diagnostic(severity::error, "plan.value", root->offset,
-                                               "a merge plan is a JSON object"));
-    root.reset();
-  }
+  const std::optional<json_node> root =
+      detail::parse_json_object(text, problems, 32, "a merge plan", "plan");
   if (root) {
     json_fields f(*root, "the plan", "plan", problems);
-    if (auto fmt = f.string("format"); fmt && *fmt != "tiers-merge-plan")
-      f.bad(*f.get("format"), "'format' must be \"tiers-merge-plan\"");
-    if (const json_node* v = f.get("version");
-        v && (v->kind != json_node::type::number || v->text != "1"))
-      f.bad(*v, "'version' must be 1");
+    f.kind_and_version("tiers-merge-plan", false);
     if (const json_node* in = f.array("inputs"))
       for (const json_node& i : in->items) {
         if (i.kind != json_node::type::string)
