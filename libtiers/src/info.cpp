@@ -2,6 +2,7 @@
 #include "tiers/info.hpp"
 
 #include <algorithm>
+#include <iterator>
 #include <limits>
 #include <utility>
 
@@ -73,6 +74,35 @@ document_summary summarize(const document& doc) {
         s.coverage = static_cast<double>(s.annotated) / static_cast<double>(out.reference);
   }
   return out;
+}
+
+time_ns duration_of(const document_summary& s) {
+  return s.media.duration.value_or(s.end.value_or(0));
+}
+
+void dataset_inventory::add(const document_summary& recording) {
+  ++recordings;
+  length += duration_of(recording);
+  for (const tier_summary& t : recording.tiers) {
+    auto it = std::find_if(tiers.begin(), tiers.end(),
+                           [&](const tier_inventory& i) { return i.name == t.name; });
+    if (it == tiers.end()) {
+      tiers.push_back({});
+      tiers.back().name = t.name;
+      it = std::prev(tiers.end());
+    }
+    ++it->recordings;
+    it->annotations += t.annotations;
+    it->length += duration_of(recording);
+    it->annotated += t.annotated;
+    if (!t.source)
+      ++it->unmarked;
+    else if (t.source->kind == source_kind::human)
+      ++it->human;
+    else
+      ++it->machine;
+    if (t.kind == tier_kind::instant) ++it->instant;
+  }
 }
 
 }  // namespace tiers

@@ -34,4 +34,29 @@ void write_summary_json(const document_summary& s, std::string_view path, byte_s
   out.put('\n');
 }
 
+void write_inventory_json(const dataset_inventory& inv, std::string_view path, byte_sink& out) {
+  detail::json_writer j(out);
+  j.begin_object(true);
+  j.string("dataset", path);
+  j.count("recordings", inv.recordings);
+  j.seconds("length", inv.length);
+  j.key("tiers").begin_array(true);
+  for (const tier_inventory& t : inv.tiers) {
+    j.begin_object();
+    j.string("name", t.name);
+    j.count("recordings", t.recordings);
+    j.count("annotations", t.annotations);
+    j.seconds("length", t.length);
+    j.seconds("annotated", t.annotated);
+    j.count("human", t.human);
+    j.count("machine", t.machine);
+    j.count("unmarked", t.unmarked);
+    j.count("instant", t.instant);
+    j.end_object();
+  }
+  j.end_array();
+  j.end_object();
+  out.put('\n');
+}
+
 }  // namespace tiers

@@ -88,6 +88,11 @@ struct frame_agreement {
 };
 frame_agreement compare_frames(const tier& reference, const tier& candidate, const time_grid& grid);
 
+/// Frame agreement over several recordings as one: the confusion matrices summed (labels
+/// joined, sorted, "none" last) and every measure computed from the sum — the same as
+/// comparing the recordings' frames concatenated. The grid is `frames` long from 0.
+frame_agreement pool_frames(const std::vector<frame_agreement>& parts);
+
 /// Cohen's kappa of a square confusion matrix (rows: one rater, columns: the other).
 /// NaN when the expected agreement is 1 or the matrix is empty.
 double cohen_kappa(const std::vector<std::vector<std::uint64_t>>& confusion);
@@ -124,6 +129,10 @@ struct segment_agreement {
 segment_agreement compare_segments(const tier& reference, const tier& candidate,
                                    const segment_options& options = {});
 
+/// Segment agreement over several recordings: segments and matches counted together, the
+/// deviations' quantiles over every match.
+segment_agreement pool_segments(const std::vector<segment_agreement>& parts);
+
 /// Krippendorff's alpha over `units` (rows) rated by several coders (columns; nothing where a
 /// coder gave no value). Units with fewer than two values do not count. Nominal: any two
 /// different values disagree equally; interval: disagreement is the squared difference.
@@ -150,6 +159,10 @@ struct agreement_report {
 agreement_report compare_tiers(const tier& reference, const tier& candidate, const time_grid& grid,
                                const segment_options& matching = {});
 
+/// The reports of several recordings pooled (pool_frames, pool_segments); the origins keep
+/// the tiers' names and no file.
+agreement_report pool_agreements(const std::vector<agreement_report>& parts);
+
 /// Agreement among several annotators' tiers on one grid: Krippendorff's alpha (every frame a
 /// unit, no annotation a missing value), nominal, and interval too when every label is a
 /// number; and Cohen's kappa of every pair.
@@ -172,5 +185,16 @@ annotators_report compare_annotators(const std::vector<const tier*>& tiers, cons
 /// at the top level; undefined measures as null.
 void write_agreement_json(const agreement_report& r, byte_sink& out);
 void write_annotators_json(const annotators_report& r, byte_sink& out);
+
+/// One recording's report, in a dataset's.
+struct recording_agreement {
+  std::string id;
+  agreement_report report;
+};
+/// `{"pooled": {…}, "recordings": [{"id": …, …}]}`: the pooled report and each recording's,
+/// each with the members of write_agreement_json.
+void write_dataset_agreement_json(const agreement_report& pooled,
+                                  const std::vector<recording_agreement>& recordings,
+                                  byte_sink& out);
 
 }  // namespace tiers

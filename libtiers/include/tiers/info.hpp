@@ -35,8 +35,36 @@ struct document_summary {
 
 document_summary summarize(const document& doc);
 
+/// How long a recording is: its media's duration, else the latest end of its tiers (a
+/// recording starts at zero); zero when neither is known.
+time_ns duration_of(const document_summary& s);
+
 /// The summary as one JSON object (docs/cli.md, "info"): times in exact seconds, coverage as a
 /// fraction. `path` names the file it describes.
 void write_summary_json(const document_summary& summary, std::string_view path, byte_sink& out);
+
+/// One tier name over the recordings of a dataset.
+struct tier_inventory {
+  std::string name;
+  std::size_t recordings = 0;   ///< that have a tier of this name
+  std::size_t annotations = 0;  ///< over all of them
+  time_ns length = 0;           ///< the durations (duration_of) of those recordings, summed
+  time_ns annotated = 0;        ///< the tier's annotated time, summed
+  std::size_t human = 0, machine = 0, unmarked = 0;  ///< recordings by the tier's source
+  std::size_t instant = 0;                           ///< recordings where it is an instant tier
+};
+
+/// What a dataset holds, tier name by tier name, in the order the names were first met.
+struct dataset_inventory {
+  std::size_t recordings = 0;
+  time_ns length = 0;  ///< every recording's duration (duration_of), summed
+  std::vector<tier_inventory> tiers;
+  /// Counts one more recording.
+  void add(const document_summary& recording);
+};
+
+/// The inventory as one JSON object (docs/dataset.md): times in exact seconds.
+void write_inventory_json(const dataset_inventory& inventory, std::string_view path,
+                          byte_sink& out);
 
 }  // namespace tiers

@@ -65,6 +65,44 @@ class run_painter {
   std::map<std::uint64_t, frame_run> runs_;
 };
 
+// Everything frame_agreement says, from its labels and confusion matrix ("none" last).
+void score_frames(frame_agreement& out) {
+  const std::size_t none = out.labels.size() - 1;
+  std::uint64_t total = 0, same = 0, ref_labelled = 0, cand_labelled = 0, agreed = 0;
+  std::vector<std::uint64_t> rows(none + 1, 0), cols(none + 1, 0);
+  for (std::size_t i = 0; i <= none; ++i)
+    for (std::size_t j = 0; j <= none; ++j) {
+      const std::uint64_t v = out.confusion[i][j];
+      total += v;
+      rows[i] += v;
+      cols[j] += v;
+      if (i == j) same += v;
+      if (i != none) ref_labelled += v;
+      if (j != none) cand_labelled += v;
+      if (i == j && i != none) agreed += v;
+    }
+  out.observed = ratio(same, total);
+  out.expected = 0;
+  for (std::size_t i = 0; i <= none && total > 0; ++i)
+    out.expected += static_cast<double>(rows[i]) / static_cast<double>(total) *
+                    (static_cast<double>(cols[i]) / static_cast<double>(total));
+  out.kappa = cohen_kappa(out.confusion);
+  out.precision = ratio(agreed, cand_labelled);
+  out.recall = ratio(agreed, ref_labelled);
+  out.f1 = harmonic(out.precision, out.recall);
+  for (std::size_t i = 0; i < none; ++i) {
+    label_scores s;
+    s.label = out.labels[i];
+    s.reference = rows[i];
+    s.candidate = cols[i];
+    s.agreed = out.confusion[i][i];
+    s.precision = ratio(s.agreed, s.candidate);
+    s.recall = ratio(s.agreed, s.reference);
+    s.f1 = harmonic(s.precision, s.recall);
+    out.scores.push_back(std::move(s));
+  }
+}
+
 }  // namespace
 
 std::uint64_t time_grid::frames() const {
@@ -143,39 +181,37 @@ frame_agreement compare_frames(const tier& reference, const tier& candidate,
     out.confusion[l[0] < 0 ? none : static_cast<std::size_t>(l[0])]
                  [l[1] < 0 ? none : static_cast<std::size_t>(l[1])] += to - from;
   });
-  std::uint64_t total = 0, same = 0, ref_labelled = 0, cand_labelled = 0, agreed = 0;
-  std::vector<std::uint64_t> rows(none + 1, 0), cols(none + 1, 0);
-  for (std::size_t i = 0; i <= none; ++i)
-    for (std::size_t j = 0; j <= none; ++j) {
-      const std::uint64_t v = out.confusion[i][j];
-      total += v;
-      rows[i] += v;
-      cols[j] += v;
-      if (i == j) same += v;
-      if (i != none) ref_labelled += v;
-      if (j != none) cand_labelled += v;
-      if (i == j && i != none) agreed += v;
-    }
-  out.observed = ratio(same, total);
-  out.expected = 0;
-  for (std::size_t i = 0; i <= none && total > 0; ++i)
-    out.expected += static_cast<double>(rows[i]) / static_cast<double>(total) *
-                    (static_cast<double>(cols[i]) / static_cast<double>(total));
-  out.kappa = cohen_kappa(out.confusion);
-  out.precision = ratio(agreed, cand_labelled);
-  out.recall = ratio(agreed, ref_labelled);
-  out.f1 = harmonic(out.precision, out.recall);
-  for (std::size_t i = 0; i < none; ++i) {
-    label_scores s;
-    s.label = f.labels[i];
-    s.reference = rows[i];
-    s.candidate = cols[i];
-    s.agreed = out.confusion[i][i];
-    s.precision = ratio(s.agreed, s.candidate);
-    s.recall = ratio(s.agreed, s.reference);
-    s.f1 = harmonic(s.precision, s.recall);
-    out.scores.push_back(std::move(s));
+  score_frames(out);
+  return out;
+}
+
+frame_agreement pool_frames(const std::vector<frame_agreement>& parts) {
+  frame_agreement out;
+  std::map<std::string, std::size_t> index;
+  for (const frame_agreement& f : parts)
+    for (std::size_t i = 0; i + 1 < f.labels.size(); ++i)
+      index.emplace(f.labels[i], 0);
+  for (auto& [label, i] : index) {
+    i = out.labels.size();
+    out.labels.push_back(label);
   }
+  const std::size_t none = out.labels.size();
+  out.labels.push_back("none");
+  out.confusion.assign(none + 1, std::vector<std::uint64_t>(none + 1, 0));
+  std::uint64_t frames = 0;
+  for (const frame_agreement& f : parts) {
+    std::vector<std::size_t> to(f.labels.size(), none);
+    for (std::size_t i = 0; i + 1 < f.labels.size(); ++i)
+      to[i] = index.at(f.labels[i]);
+    for (std::size_t i = 0; i < f.confusion.size(); ++i)
+      for (std::size_t j = 0; j < f.confusion[i].size(); ++j) {
+        out.confusion[to[i]][to[j]] += f.confusion[i][j];
+        frames += f.confusion[i][j];
+      }
+  }
+  if (!parts.empty()) out.grid.step = parts.front().grid.step;
+  out.grid.end = static_cast<time_ns>(frames) * out.grid.step;
+  score_frames(out);
   return out;
 }
 

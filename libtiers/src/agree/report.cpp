@@ -18,6 +18,24 @@ agreement_report compare_tiers(const tier& reference, const tier& candidate, con
   return r;
 }
 
+agreement_report pool_agreements(const std::vector<agreement_report>& parts) {
+  agreement_report out;
+  std::vector<frame_agreement> frames;
+  std::vector<segment_agreement> segments;
+  for (const agreement_report& r : parts) {
+    frames.push_back(r.frames);
+    segments.push_back(r.segments);
+  }
+  if (!parts.empty()) {
+    out.reference.tier = parts.front().reference.tier;
+    out.candidate.tier = parts.front().candidate.tier;
+    out.matching = parts.front().matching;
+  }
+  out.frames = pool_frames(frames);
+  out.segments = pool_segments(segments);
+  return out;
+}
+
 annotators_report compare_annotators(const std::vector<const tier*>& tiers, const time_grid& grid) {
   annotators_report r;
   r.grid = grid;
@@ -136,11 +154,10 @@ void write_segments(json_writer& j, const segment_options& o, const segment_agre
   j.end_object();
 }
 
-}  // namespace
-
-void write_agreement_json(const agreement_report& r, byte_sink& out) {
-  json_writer j(out);
+// One report's members; `id` first when it is a recording's of a dataset.
+void write_agreement(json_writer& j, const agreement_report& r, const std::string* id = nullptr) {
   j.begin_object(true);
+  if (id) j.string("id", *id);
   write_origin(j.key("reference"), r.reference);
   write_origin(j.key("candidate"), r.candidate);
   write_frames(j.key("frames"), r.frames);
@@ -150,6 +167,27 @@ void write_agreement_json(const agreement_report& r, byte_sink& out) {
   j.number("precision", r.frames.precision);
   j.number("recall", r.frames.recall);
   j.number("f1", r.frames.f1);
+  j.end_object();
+}
+
+}  // namespace
+
+void write_agreement_json(const agreement_report& r, byte_sink& out) {
+  json_writer j(out);
+  write_agreement(j, r);
+  out.put('\n');
+}
+
+void write_dataset_agreement_json(const agreement_report& pooled,
+                                  const std::vector<recording_agreement>& recordings,
+                                  byte_sink& out) {
+  json_writer j(out);
+  j.begin_object(true);
+  write_agreement(j.key("pooled"), pooled);
+  j.key("recordings").begin_array(true);
+  for (const recording_agreement& r : recordings)
+    write_agreement(j, r.report, &r.id);
+  j.end_array();
   j.end_object();
   out.put('\n');
 }

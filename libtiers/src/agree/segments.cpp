@@ -207,16 +207,8 @@ std::vector<segment_match> best_matches(const std::vector<annotation>& rs,
   return matches;
 }
 
-}  // namespace
-
-segment_agreement compare_segments(const tier& reference, const tier& candidate,
-                                   const segment_options& options) {
-  const std::vector<annotation>& rs = reference.annotations;
-  const std::vector<annotation>& cs = candidate.annotations;
-  segment_agreement out;
-  out.reference = rs.size();
-  out.candidate = cs.size();
-  out.matches = best_matches(rs, cs, possible_matches(rs, cs, options));
+// Precision, recall, F1 and the deviations' quantiles, from the counts and matches.
+void score_segments(segment_agreement& out) {
   out.precision = ratio(out.matches.size(), out.candidate);
   out.recall = ratio(out.matches.size(), out.reference);
   out.f1 = std::isnan(out.precision) || std::isnan(out.recall) ? std::nan("")
@@ -232,6 +224,30 @@ segment_agreement compare_segments(const tier& reference, const tier& candidate,
   out.onset_p90 = quantile(on, 0.9);
   out.offset_median = quantile(off, 0.5);
   out.offset_p90 = quantile(off, 0.9);
+}
+
+}  // namespace
+
+segment_agreement compare_segments(const tier& reference, const tier& candidate,
+                                   const segment_options& options) {
+  const std::vector<annotation>& rs = reference.annotations;
+  const std::vector<annotation>& cs = candidate.annotations;
+  segment_agreement out;
+  out.reference = rs.size();
+  out.candidate = cs.size();
+  out.matches = best_matches(rs, cs, possible_matches(rs, cs, options));
+  score_segments(out);
+  return out;
+}
+
+segment_agreement pool_segments(const std::vector<segment_agreement>& parts) {
+  segment_agreement out;
+  for (const segment_agreement& s : parts) {
+    out.reference += s.reference;
+    out.candidate += s.candidate;
+    out.matches.insert(out.matches.end(), s.matches.begin(), s.matches.end());
+  }
+  score_segments(out);
   return out;
 }
 
