@@ -105,6 +105,17 @@ TEST_CASE("patterns: {id} takes as little as it can, * stays in a folder, ** spa
   CHECK(match_pattern("a/{id}.vtt", "a/.vtt") == std::nullopt);  // an id is never empty
 }
 
+TEST_CASE("a source's files name their tier after the pattern, not after the recording",
+          "[dataset]") {
+  CHECK(tier_name_of("coding/{id}.gestures.csv") == "gestures");
+  CHECK(tier_name_of("captions/{id}.vtt") == "captions");
+  CHECK(tier_name_of("{id}_head-nods.tsv") == "head-nods");
+  CHECK(tier_name_of("aligner/words-{id}") == "words");
+  CHECK(tier_name_of("**/{id}.vtt").empty());
+  CHECK(tier_name_of("{id}.vtt").empty());
+  CHECK(tier_name_of("sub*/{id}.vtt").empty());
+}
+
 void touch(const fs::path& p) {
   fs::create_directories(p.parent_path());
   std::ofstream(p) << "x";
@@ -176,14 +187,14 @@ TEST_CASE("a source names its tiers, says who made them and what they stand for"
   document both = two_tier_document();
   d = apply_source(both, every, "ep01.csv");
   REQUIRE(has_errors(d));
-  CHECK(d.back().code == "dataset.rename");
+  CHECK(d.back().code == "input.rename");
 
   dataset_source instants;
   instants.kind = tier_kind::instant;
   document spans = two_tier_document();
   d = apply_source(spans, instants, "ep01.csv");
   REQUIRE(d.size() == 1);  // 'hands' spans a second; 'strokes' may be instants
-  CHECK(d[0].code == "dataset.kind");
+  CHECK(d[0].code == "input.kind");
   CHECK(d[0].message.find("'hands'") != std::string::npos);
   CHECK(spans.tiers[1].kind == tier_kind::instant);
 }

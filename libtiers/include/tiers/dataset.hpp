@@ -10,6 +10,8 @@
 #include <vector>
 
 #include "tiers/diagnostic.hpp"
+#include "tiers/info.hpp"
+#include "tiers/merge.hpp"
 #include "tiers/model.hpp"
 
 namespace tiers {
@@ -55,6 +57,13 @@ std::string dataset_json(const dataset_description& d);
 /// part is empty.
 std::optional<tier_source> parse_tier_source(std::string_view text);
 
+/// The name a source's files give a tier that would be named after its file (WebVTT, a table
+/// without a tier column), so that it is one name in every recording: the pattern's file name
+/// without its extension and {id} (and the dots, dashes and underscores around it), else its
+/// folder's name — `coding/{id}.gestures.csv` gives `gestures`, `captions/{id}.vtt` gives
+/// `captions`. Empty when neither holds a name without wildcards.
+std::string tier_name_of(std::string_view pattern);
+
 /// One recording of a dataset: its id and, source by source, the file it has (a path below
 /// the description's folder, `/` between folders), empty where it lacks that source.
 struct recording {
@@ -77,21 +86,26 @@ result<std::vector<recording>> find_recordings(const dataset_description& d,
 
 /// Gives the tiers of a document read from one of the source's files what the source says:
 /// names (parent links follow), source and kind. A tier made an instant tier while one of its
-/// annotations spans time, and two tiers renamed alike, are errors (`dataset.kind`,
-/// `dataset.rename`); a rename of a tier the file lacks is a warning. Diagnostics name `file`.
+/// annotations spans time, and two tiers renamed alike, are errors (`input.kind`,
+/// `input.rename`); a rename of a tier the file lacks is a warning. Diagnostics name `file`.
 std::vector<diagnostic> apply_source(document& doc, const dataset_source& s,
                                      const std::string& file);
 
-/// One file's part of a recording.
-struct recording_part {
-  std::string file;
-  document doc;
-};
-/// The union of a recording's parts: their tiers in order, media and metadata joined. Two
-/// parts yielding one tier name (`dataset.clash`), or naming different media (`dataset.media`),
-/// are errors naming both files; metadata the parts give differently keeps the first part's
-/// value, with a warning (`dataset.metadata`). `tier_files`, when given, gets each tier's file.
-result<document> join_recording(std::vector<recording_part> parts,
+/// The union of a recording's files (each a merge_input: its name and document): their tiers in
+/// order, media and metadata joined. Two parts yielding one tier name (`dataset.clash`), or naming
+/// different media (`dataset.media`), are errors naming both files; metadata the parts give
+/// differently keeps the first part's value, with a warning (`dataset.metadata`). `tier_files`,
+/// when given, gets each tier's file.
+result<document> join_recording(std::vector<merge_input> parts,
                                 std::vector<std::string>* tier_files = nullptr);
+
+/// What `tiers dataset --json` lists (docs/dataset.md): the sources with how many recordings
+/// have each, and every recording with its files (null where it lacks one), the patterns it
+/// lacks and, when it could be read (`summaries`, index for index), its tiers, annotations and
+/// duration. `path` names the description.
+void write_dataset_listing_json(const dataset_description& d,
+                                const std::vector<recording>& recordings,
+                                const std::vector<std::optional<document_summary>>& summaries,
+                                std::string_view path, byte_sink& out);
 
 }  // namespace tiers

@@ -8,7 +8,7 @@ namespace {
 
 using enum rule_level;
 
-constexpr std::array<rule_info, 75> catalogue{{
+constexpr std::array<rule_info, 81> catalogue{{
     // Times of single annotations and their order.
     {"time.range", "time", error, "a time beyond what the model holds (about ±292 years)"},
     {"time.negative", "time", error, "an annotation starts or ends before zero"},
@@ -69,11 +69,21 @@ constexpr std::array<rule_info, 75> catalogue{{
     {"dataset.tier-unexpected", "dataset", off, "a tier the profile does not declare"},
     {"dataset.inconsistent", "dataset", warning,
      "a tier's presence, kind or vocabulary differs from most files of the dataset"},
+    {"dataset.missing-source", "dataset", error,
+     "a recording of a dataset description lacks a file of one of its sources"},
     // What the readers report (docs/cli.md lists them with the formats).
     {"io.open", "read", error, "a file could not be opened"},
     {"io.read", "read", error, "a file could not be read"},
     {"input.format", "read", error, "the format of a file could not be told"},
     {"input.encoding", "read", error, "the file is UTF-16 or UTF-32, not UTF-8"},
+    {"input.kind", "read", error, "--kind instant, or a source's kind, for a tier that spans time"},
+    {"input.rename", "read", error,
+     "a source's rename gives two tiers one name (or names a tier the file lacks: a warning)"},
+    {"dataset.clash", "read", error, "two files of one recording yield a tier of the same name"},
+    {"dataset.media", "read", error,
+     "the files of one recording name different media (or frame rates: a warning)"},
+    {"dataset.metadata", "read", warning,
+     "the files of one recording give one metadata key different values"},
     {"json.syntax", "read", error, "not well-formed JSON"},
     {"json.value", "read", error, "a JSON member has the wrong type or value"},
     {"json.member", "read", error, "an unknown JSON member, or a required one missing"},

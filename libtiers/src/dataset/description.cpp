@@ -184,6 +184,28 @@ std::string dataset_json(const dataset_description& d) {
   return text;
 }
 
+std::string tier_name_of(std::string_view pattern) {
+  const std::size_t slash = pattern.rfind('/');
+  std::string name(pattern.substr(slash == std::string_view::npos ? 0 : slash + 1));
+  if (const std::size_t dot = name.rfind('.');
+      dot != std::string::npos && dot > 0 && name.find("{id}", dot) == std::string::npos)
+    name.erase(dot);
+  if (const std::size_t id = name.find("{id}"); id != std::string::npos) {
+    name.erase(id, 4);
+    const auto separator = [](char c) { return c == '.' || c == '-' || c == '_'; };
+    while (!name.empty() && separator(name.front()))
+      name.erase(0, 1);
+    while (!name.empty() && separator(name.back()))
+      name.pop_back();
+  }
+  if (!name.empty() && name.find_first_of("*{}") == std::string::npos) return name;
+  if (slash == std::string_view::npos || slash == 0) return {};
+  const std::string_view folder = pattern.substr(0, slash);
+  const std::size_t up = folder.rfind('/');
+  const std::string_view last = folder.substr(up == std::string_view::npos ? 0 : up + 1);
+  return last.find_first_of("*{}") == std::string_view::npos ? std::string(last) : std::string();
+}
+
 std::optional<tier_source> parse_tier_source(std::string_view text) {
   const std::size_t colon = text.find(':');
   const std::optional<source_kind> kind = parse_source_kind(text.substr(0, colon));

@@ -162,7 +162,7 @@ std::vector<diagnostic> apply_source(document& doc, const dataset_source& s,
     for (const auto& [from, to] : names)
       if (!find_tier(doc, from))
         out.push_back(problem_in(
-            file, severity::warning, "dataset.rename",
+            file, severity::warning, "input.rename",
             "has no tier " + quote_name(from) + " to rename (tiers: " + tier_names(doc) + ")"));
     auto renamed = [&](const std::string& name) -> std::string {
       if (auto it = names.find(name); it != names.end()) return it->second;
@@ -176,7 +176,7 @@ std::vector<diagnostic> apply_source(document& doc, const dataset_source& s,
     std::map<std::string_view, std::size_t> seen;
     for (const tier& t : doc.tiers)
       if (++seen[t.name] == 2)
-        out.push_back(problem_in(file, severity::error, "dataset.rename",
+        out.push_back(problem_in(file, severity::error, "input.rename",
                                  "renaming gives two tiers the name " + quote_name(t.name)));
   }
   for (tier& t : doc.tiers) {
@@ -186,7 +186,7 @@ std::vector<diagnostic> apply_source(document& doc, const dataset_source& s,
       const auto spans = std::find_if(t.annotations.begin(), t.annotations.end(),
                                       [](const annotation& a) { return a.end != a.start; });
       if (spans != t.annotations.end()) {
-        out.push_back(problem_in(file, severity::error, "dataset.kind",
+        out.push_back(problem_in(file, severity::error, "input.kind",
                                  "the tier " + quote_name(t.name) +
                                      " cannot be an instant tier: its annotation at " +
                                      format_clock(spans->start) + " spans " +
@@ -199,14 +199,14 @@ std::vector<diagnostic> apply_source(document& doc, const dataset_source& s,
   return out;
 }
 
-result<document> join_recording(std::vector<recording_part> parts,
+result<document> join_recording(std::vector<merge_input> parts,
                                 std::vector<std::string>* tier_files) {
   result<document> r;
   document& doc = r.value;
   std::map<std::string, std::string, std::less<>> tier_from;  // tier name → file
   std::optional<std::string> uri_from, rate_from;
   std::map<std::string, std::string, std::less<>> key_from;
-  for (recording_part& part : parts) {
+  for (merge_input& part : parts) {
     media_info& m = part.doc.media;
     if (m.uri) {
       if (!doc.media.uri) {
