@@ -1,7 +1,8 @@
 #!/usr/bin/python3
 """The bad-input corpus of `tiers check`: each case is named for the one rule it must trigger.
 
-A case is a file `RULE.EXT`, or a folder `RULE/` checked as one dataset, in tests/check-corpus/.
+A case is a file `RULE.EXT`, or a folder `RULE/` checked as one dataset (by its dataset
+description, when it holds a `dataset.json`), in tests/check-corpus/.
 `RULE.args` holds extra arguments (shell quoting), run from the corpus folder; files ending in
 `.profile.json` are profiles the arguments name, not cases. For every case the test asserts
 that the rules reported are exactly {RULE} and that the exit status is 1 when RULE's severity
@@ -54,7 +55,10 @@ def main():
         if os.path.exists(os.path.join(corpus, rule + ".args")):
             with open(os.path.join(corpus, rule + ".args")) as fh:
                 args = shlex.split(fh.read())
-        run = subprocess.run([tiers, "check", "--format", "json", "--jobs", "2", name] + args,
+        described = os.path.join(name, "dataset.json")
+        inputs = (["--dataset", described] if os.path.exists(os.path.join(corpus, described))
+                  else [name])
+        run = subprocess.run([tiers, "check", "--format", "json", "--jobs", "2"] + inputs + args,
                              cwd=corpus, capture_output=True, text=True)
         try:
             report = json.loads(run.stdout)

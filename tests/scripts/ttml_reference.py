@@ -81,7 +81,7 @@ def main():
     os.makedirs(work, exist_ok=True)
     written = []
     for src in sorted(glob.glob(os.path.join(samples, "*"))):
-        if src.endswith((".md", ".frames.csv", ".timecode.csv")):
+        if os.path.isdir(src) or src.endswith((".md", ".frames.csv", ".timecode.csv")):
             continue
         out = os.path.join(work, os.path.basename(src) + ".ttml")
         proc = subprocess.run([tiers, "convert", src, "-o", out, "--allow-loss"], capture_output=True)

@@ -6,6 +6,7 @@
 
 #include <cmath>
 
+#include "dataset_inputs.hpp"
 #include "text_table.hpp"
 #include "tiers/agree.hpp"
 #include "tiers/io.hpp"
@@ -18,9 +19,15 @@ void setup_agree(CLI::App& app, int& status) {
   CLI::App* cmd = app.add_subcommand(
       "agree", "How far a candidate tier agrees with a reference, or annotators with each other");
   cmd->add_option("files", o.paths, "REF CAND, or one FILE with both tiers (or with --tiers)")
-      ->required()
       ->expected(1, 2)
       ->type_name("FILE");
+  cmd->add_option("--dataset", o.dataset,
+                  "A dataset description: compare the tiers in each recording, and pooled over "
+                  "all of them")
+      ->type_name("FILE");
+  cmd->add_option("--jobs", o.jobs,
+                  "With --dataset: recordings read at once (default: one per core)")
+      ->type_name("N");
   cmd->add_option("--tier", o.tier, "The tier compared, when both files call it the same")
       ->type_name("NAME");
   cmd->add_option("--ref-tier", o.ref_tier, "The reference tier")->type_name("NAME");
@@ -67,6 +74,15 @@ const tier& tier_in(const loaded& l, const std::string& name) {
   d.message = "no tier " + quote_name(name);
   report(d);
   throw rejected();
+}
+
+// The candidate tier of `l`, without the annotations below --min-confidence.
+tier candidate_in(const agree_options& o, const loaded& l, const std::string& name) {
+  tier c = tier_in(l, name);
+  std::erase_if(c.annotations, [&](const annotation& a) {
+    return a.confidence && *a.confidence < o.min_confidence;
+  });
+  return c;
 }
 
 // The grid: from zero to the media's end when a document knows it, else to the last end.
@@ -145,11 +161,8 @@ int two_tiers(const agree_options& o) {
   if (o.paths.size() == 1 && (rn.empty() || cn.empty() || rn == cn))
     throw usage_error("with one file, name two of its tiers: --ref-tier A --cand-tier B");
   const tier& r = tier_in(ref, rn);
-  tier c = tier_in(cand, cn);
-  const std::size_t cand_count = c.annotations.size();
-  std::erase_if(c.annotations, [&](const annotation& a) {
-    return a.confidence && *a.confidence < o.min_confidence;
-  });
+  const std::size_t cand_count = tier_in(cand, cn).annotations.size();
+  const tier c = candidate_in(o, cand, cn);
   agreement_report report = compare_tiers(
       r, c, grid_for({&ref.doc, &cand.doc}, {&r, &c}, o.compare.step), segment_matching(o.compare));
   report.reference.file = ref.file;
@@ -198,10 +211,63 @@ int many_tiers(const agree_options& o) {
   return exit_ok;
 }
 
+// Each recording of a dataset compared, then all of them pooled: the confusion matrices summed
+// and every measure taken from the sum, as if the recordings' frames were one long grid.
+int dataset_tiers(const agree_options& o) {
+  const std::string rn = !o.ref_tier.empty() ? o.ref_tier : o.tier;
+  const std::string cn = !o.cand_tier.empty() ? o.cand_tier : o.tier;
+  if (rn.empty() || cn.empty() || rn == cn)
+    throw usage_error(
+        "agree --dataset: name two tiers of each recording: --ref-tier A --cand-tier B");
+  if (!o.paths.empty()) throw usage_error("agree: give either files or --dataset, not both");
+  if (!o.tiers.empty())
+    throw usage_error("agree --dataset compares two tiers (--ref-tier, --cand-tier)");
+  const opened_dataset d = open_dataset(o.dataset, o.input);
+  std::vector<std::optional<recording_agreement>> found(d.recordings.size());
+  const int status = for_each_recording(d, o.jobs, "comparing", [&](const recording& rec) {
+    const loaded l{rec.id, load_recording(d, rec)};
+    const tier& r = tier_in(l, rn);
+    const tier c = candidate_in(o, l, cn);
+    agreement_report report = compare_tiers(r, c, grid_for({&l.doc}, {&r, &c}, o.compare.step),
+                                            segment_matching(o.compare));
+    report.reference.file = report.candidate.file = rec.id;
+    const std::size_t k = static_cast<std::size_t>(&rec - d.recordings.data());
+    found[k] = recording_agreement{rec.id, std::move(report)};
+  });
+  std::vector<recording_agreement> each;
+  for (std::optional<recording_agreement>& f : found)
+    if (f) each.push_back(std::move(*f));
+  std::vector<agreement_report> reports;
+  for (const recording_agreement& r : each)
+    reports.push_back(r.report);
+  agreement_report pooled = pool_agreements(reports);
+  pooled.reference.file = pooled.candidate.file = d.file;
+  stdout_sink out;
+  if (o.json) {
+    write_dataset_agreement_json(pooled, each, out);
+  } else {
+    std::string text = fmt::format("pooled over {} recording{} of {}\n", each.size(),
+                                   each.size() == 1 ? "" : "s", d.file);
+    text += text_report(pooled, pooled.segments.reference, pooled.segments.candidate);
+    text_table table(
+        {"recording", ">frames", ">kappa", ">precision", ">recall", ">f1", ">segment f1"});
+    for (const recording_agreement& r : each)
+      table.add_row({r.id, std::to_string(r.report.frames.grid.frames()),
+                     num(r.report.frames.kappa), num(r.report.frames.precision),
+                     num(r.report.frames.recall), num(r.report.frames.f1),
+                     num(r.report.segments.f1)});
+    out.write(escape_controls(text + "\n" + table.render(), true));
+  }
+  out.flush();
+  return status;
+}
+
 }  // namespace
 
 int run_agree(const agree_options& o) {
   reading_options(o.input, "");
+  if (!o.dataset.empty()) return dataset_tiers(o);
+  if (o.paths.empty()) throw usage_error("agree: name REF CAND, one FILE, or --dataset");
   if (!o.tiers.empty()) return many_tiers(o);
   return two_tiers(o);
 }

@@ -15,6 +15,8 @@ namespace tiers::cli {
 struct agree_options {
   input_options input;  ///< reading options for both files (path unused)
   std::vector<std::string> paths;
+  std::string dataset;  ///< a dataset description: each recording, and all pooled
+  unsigned jobs = 0;
   std::string tier, ref_tier, cand_tier, tiers;
   comparison_options compare;
   double min_confidence = 0;

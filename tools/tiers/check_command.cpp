@@ -21,6 +21,10 @@ void setup_check(CLI::App& app, int& status) {
       "check", "Validate tier files or whole folders: times, structure, text, captions, lag");
   cmd->add_option("inputs", o.paths, "Files or folders (searched recursively), or - for stdin")
       ->type_name("PATH");
+  cmd->add_option("--dataset", o.dataset,
+                  "A dataset description: check each of its recordings as one document (its "
+                  "files joined), and compare the recordings")
+      ->type_name("FILE");
   cmd->add_option("--profile", o.profile,
                   "A profile: a built-in name (see --list-profiles) or a JSON file")
       ->type_name("PROFILE");
@@ -278,7 +282,8 @@ int run_check(const check_options& o) {
     return exit_ok;
   }
   if (o.list_rules) return list_rules(p);
-  if (o.paths.empty()) throw usage_error("check: name the files or folders to check");
+  if (o.paths.empty() && o.dataset.empty())
+    throw usage_error("check: name the files or folders to check, or --dataset");
   if (!o.html.empty() && o.combine)
     throw usage_error("check: --html draws the files, which --combine does not read");
   check_summary s;

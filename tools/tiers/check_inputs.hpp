@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "check_run.hpp"
+#include "dataset_inputs.hpp"
 #include "tiers/check.hpp"
 
 namespace tiers::cli {
@@ -20,7 +21,8 @@ struct report_stream {
   std::function<void(const std::string&)> write;
 };
 
-/// Checks every file on `jobs` threads (a progress bar on standard error when it is a
+/// Checks every file (or, with `dataset`, every recording of it, `files` holding their ids) on
+/// `jobs` threads (a progress bar on standard error when it is a
 /// terminal) and returns the reports in the order of `files`; the files are compared with one
 /// another (dataset rules) when `whole_dataset`. With `docs`, the documents of the first
 /// `keep` files are kept there too (index for index; none for a file that could not be read),
@@ -29,6 +31,7 @@ std::vector<file_report> check_files(const std::vector<std::string>& files, cons
                                      const profile& p, const check_context& roles,
                                      bool whole_dataset,
                                      std::vector<std::optional<document>>* docs = nullptr,
-                                     std::size_t keep = 0, const report_stream* stream = nullptr);
+                                     std::size_t keep = 0, const report_stream* stream = nullptr,
+                                     const opened_dataset* dataset = nullptr);
 
 }  // namespace tiers::cli

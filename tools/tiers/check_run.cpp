@@ -79,7 +79,11 @@ profile load_check_profile(const std::string& name) {
 
 check_run run_checks(const check_options& o, const profile& p, std::size_t keep_documents,
                      const report_stream* stream) {
-  if (o.paths.empty()) throw usage_error("name the files or folders to check");
+  if (o.paths.empty() == o.dataset.empty())
+    throw usage_error(o.dataset.empty() ? "name the files or folders to check, or --dataset"
+                                        : "give either files and folders or --dataset, not both");
+  if (!o.dataset.empty() && o.combine)
+    throw usage_error("--combine joins reports, which are named as files: not with --dataset");
   reading_options(o.input, "");  // bad option values are usage errors before any work
   check_run run;
   if (!o.captions.empty()) run.roles.captions = o.captions;
@@ -93,6 +97,19 @@ check_run run_checks(const check_options& o, const profile& p, std::size_t keep_
   }
   if (o.combine) {
     run.reports = combine_reports(o.paths, p, !o.profile.empty());
+    return run;
+  }
+  if (!o.dataset.empty()) {
+    const opened_dataset d = open_dataset(o.dataset, o.input, o.shard);
+    std::vector<std::string> ids;
+    for (const recording& r : d.recordings)
+      ids.push_back(r.id);
+    if (ids.empty() && o.shard.empty())
+      throw usage_error(d.file + ": the dataset's patterns find no files");
+    run.reports = check_files(ids, o, p, run.roles, o.shard.empty(), &run.documents, keep_documents,
+                              stream, &d);
+    for (std::size_t k = 0; k < d.places.size() && k < run.reports.size(); ++k)
+      run.reports[k].index = d.places[k];
     return run;
   }
   std::vector<std::string> files;

@@ -15,6 +15,7 @@ namespace tiers::cli {
 struct check_options {
   input_options input;  ///< reading options for every file (path unused)
   std::vector<std::string> paths;
+  std::string dataset;  ///< a dataset description: its recordings are checked, not paths
   std::string profile;
   std::string captions;
   std::string words;

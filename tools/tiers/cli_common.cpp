@@ -59,6 +59,38 @@ void add_input_options(CLI::App& cmd, input_options& in) {
   cmd.add_option("--rate", in.rate,
                  "Frames per second for frame numbers and timecode: 25, 30000/1001")
       ->type_name("RATE");
+  cmd.add_option("--source", in.source,
+                 "Who made the tiers read (formats without a field for it: tables, WebVTT): "
+                 "human or machine, with the agent and its version, e.g. machine:aligner@2.1")
+      ->type_name("KIND[:AGENT[@VERSION]]");
+  cmd.add_option("--kind", in.kind,
+                 "What the tiers read stand for: interval, or instant (every annotation must be "
+                 "a point in time)")
+      ->check(CLI::IsMember({"interval", "instant"}))
+      ->type_name("KIND");
+}
+
+std::optional<dataset_source> tier_settings(const input_options& in) {
+  if (in.source.empty() && in.kind.empty()) return std::nullopt;
+  dataset_source s;
+  if (!in.source.empty()) {
+    s.source = parse_tier_source(in.source);
+    if (!s.source)
+      throw usage_error("--source: '" + in.source +
+                        "' is not KIND[:AGENT[@VERSION]] with KIND human or machine, e.g. "
+                        "machine:aligner@2.1");
+  }
+  if (!in.kind.empty()) {
+    s.kind = parse_tier_kind(in.kind);
+    if (!s.kind) throw usage_error("--kind: '" + in.kind + "' is neither interval nor instant");
+  }
+  return s;
+}
+
+std::vector<diagnostic> settle_tiers(document& doc, const input_options& in,
+                                     const std::string& file) {
+  const std::optional<dataset_source> s = tier_settings(in);
+  return s ? apply_source(doc, *s, file) : std::vector<diagnostic>{};
 }
 
 void add_output_options(CLI::App& cmd, std::string& output, std::string& to, bool& allow_loss,
@@ -209,6 +241,7 @@ read_options reading_options(const input_options& in, const std::string& path) {
     }
   }
   if (!in.from.empty()) format_named(in.from);  // a usage error before any input is read
+  tier_settings(in);
   return options;
 }
 
@@ -273,6 +306,7 @@ std::optional<words_file> words_file_of(const std::string& spec, const input_opt
 loaded_input load_input(const input_options& in) {
   loaded_input input;
   input.options = reading_options(in, in.path);
+  input.settled = tier_settings(in).has_value();
   input.content = read_input(in.path);
   diagnostic why;
   input.fmt = input_format(in, in.path, input.content, why);
@@ -288,6 +322,9 @@ document parse_input(const input_options& in, loaded_input&& input, std::string*
   if (warned)
     *warned = std::any_of(result.diagnostics.begin(), result.diagnostics.end(),
                           [](const diagnostic& d) { return d.level == severity::warning; });
+  if (result.ok())
+    for (diagnostic& d : settle_tiers(result.value, in, display_name(in.path)))
+      result.diagnostics.push_back(std::move(d));
   document doc = take(std::move(result));
   if (given_name && !input.fmt->carries.has(feature::several_tiers) && !doc.tiers.empty() &&
       doc.tiers.front().name == input.options.tier_name)
@@ -303,7 +340,7 @@ bool stream_output(const loaded_input& input, const format& to, const std::strin
                    const std::string& file) {
   // Standard output, a pipe or a device would keep what was written before an error: they get
   // the whole document once it is read, as every output does without streaming.
-  if (output.empty() || output == "-" || !streams_losslessly(*input.fmt, to) ||
+  if (output.empty() || output == "-" || input.settled || !streams_losslessly(*input.fmt, to) ||
       atomic_file::writes_directly(output))
     return false;
   atomic_file out(output);

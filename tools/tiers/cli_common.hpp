@@ -7,6 +7,7 @@
 #include <string>
 #include <vector>
 
+#include "tiers/dataset.hpp"
 #include "tiers/format.hpp"
 
 namespace tiers::cli {
@@ -35,6 +36,8 @@ struct input_options {
   bool strict = false;
   std::size_t max_text = read_options{}.max_text;
   std::size_t max_tiers = read_options{}.max_tiers;
+  std::string source;  ///< --source KIND[:AGENT[@VERSION]]: who made the file's tiers
+  std::string kind;    ///< --kind interval|instant: what the file's tiers stand for
 };
 
 /// Adds -o/--output (with `output_help`; required unless `output_help` is given), --to and
@@ -45,12 +48,21 @@ void add_output_options(CLI::App& cmd, std::string& output, std::string& to, boo
 /// A validator for limits and counts: a whole number of at least 1, written without a sign.
 CLI::Validator positive_size();
 
-/// Adds --from, --columns, --tier-name, --time-unit and --rate to `cmd`.
+/// Adds --from, --columns, --tier-name, --time-unit, --rate, --source and --kind to `cmd`.
 void add_input_options(CLI::App& cmd, input_options& in);
 
 /// The reading options of `in` for the file `path` (a table or WebVTT tier is named after the
 /// file's stem unless --tier-name says otherwise); throws usage_error on bad option values.
 read_options reading_options(const input_options& in, const std::string& path);
+
+/// What --source and --kind say of every tier read (nothing when neither is given), as a
+/// dataset's source says it; throws usage_error on a bad value.
+std::optional<dataset_source> tier_settings(const input_options& in);
+
+/// Gives the tiers of `doc` what --source and --kind say; the problems are returned, naming
+/// `file`.
+std::vector<diagnostic> settle_tiers(document& doc, const input_options& in,
+                                     const std::string& file);
 
 /// The format to read `path` with: --from, else the extension, else the content. Null when none
 /// fits, with `why` saying so.
@@ -70,6 +82,7 @@ struct loaded_input {
   std::string content;
   const format* fmt = nullptr;
   read_options options;
+  bool settled = false;  ///< --source or --kind change the tiers read: no streaming
 };
 /// load_document in two steps: reading the file (printing why, and throwing rejected, when no
 /// format fits it), then parsing it, which frees the file's bytes.

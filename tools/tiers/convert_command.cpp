@@ -3,6 +3,7 @@
 #include "convert_command.hpp"
 
 #include "batch.hpp"
+#include "dataset_inputs.hpp"
 
 #include <sys/stat.h>
 
@@ -26,7 +27,10 @@ void setup_convert(CLI::App& app, int& status) {
   cmd->add_option("inputs", o.inputs,
                   "Input file, or - for standard input; with -d, files and folders (searched "
                   "recursively)")
-      ->required()
+      ->type_name("FILE");
+  cmd->add_option("--dataset", o.dataset,
+                  "A dataset description: with -d, write one file per recording, its sources' "
+                  "tiers joined")
       ->type_name("FILE");
   cmd->add_option("-d,--output-dir", o.output_dir,
                   "Convert many files into this folder, keeping their layout below the folders "
@@ -208,9 +212,37 @@ int convert_many(const convert_options& o) {
   return n > 0 ? exit_rejected : exit_ok;
 }
 
+// Each recording of a dataset into one file, OUT/ID.EXT: its files joined into one document.
+int convert_dataset(const convert_options& o) {
+  namespace fs = std::filesystem;
+  if (o.output_dir.empty() || o.to.empty())
+    throw usage_error("convert --dataset writes a file per recording: give -d DIR and --to");
+  if (!o.inputs.empty()) throw usage_error("convert: give either inputs or --dataset, not both");
+  if (o.in_place || o.voices || !o.tiers.empty() || !o.output.empty())
+    throw usage_error("convert --dataset: -o, --in-place, --tier and --voices are for files");
+  const format& to = format_named(o.to);
+  const opened_dataset d = open_dataset(o.dataset, o.input, o.shard);
+  return for_each_output(
+      d, o.output_dir, to, o.jobs, "converting",
+      [&](const recording& r, const std::string& output) {
+        std::error_code ec;
+        if (o.resume && fs::exists(output, ec)) {
+          const auto written = fs::last_write_time(output, ec);
+          const bool newer = std::all_of(r.files.begin(), r.files.end(), [&](const std::string& f) {
+            return f.empty() || fs::last_write_time(d.path_of(f), ec) <= written;
+          });
+          if (newer && r.complete()) return;
+        }
+        const document doc = load_recording(d, r);
+        write_output(doc, to, output, o.allow_loss, r.id);
+      });
+}
+
 }  // namespace
 
 int run_convert(const convert_options& o) {
+  if (!o.dataset.empty()) return convert_dataset(o);
+  if (o.inputs.empty()) throw usage_error("convert: name the input, or --dataset");
   if (!o.output_dir.empty() || o.inputs.size() > 1) {
     if (o.output_dir.empty())
       throw usage_error("convert: several inputs need an output folder (-d)");

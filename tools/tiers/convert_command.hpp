@@ -13,6 +13,7 @@ namespace tiers::cli {
 struct convert_options {
   input_options input;              ///< reading options (path: the one input, when only one)
   std::vector<std::string> inputs;  ///< files or folders
+  std::string dataset;              ///< or a dataset description: a file per recording
   std::string output_dir;           ///< many inputs: where their outputs go
   unsigned jobs = 0;
   std::string shard;

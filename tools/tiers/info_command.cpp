@@ -3,6 +3,7 @@
 
 #include <fmt/format.h>
 
+#include "dataset_inputs.hpp"
 #include "text_table.hpp"
 #include "tiers/info.hpp"
 #include "tiers/io.hpp"
@@ -14,9 +15,14 @@ void setup_info(CLI::App& app, int& status) {
   info_options& o = *options;
   CLI::App* cmd = app.add_subcommand(
       "info", "Show the tiers in a file: kinds, sources, counts, span, coverage");
-  cmd->add_option("input", o.input.path, "Input file, or - for standard input")
-      ->required()
+  cmd->add_option("input", o.input.path, "Input file, or - for standard input")->type_name("FILE");
+  cmd->add_option("--dataset", o.dataset,
+                  "A dataset description: per tier, how many recordings have it, its "
+                  "annotations, total and annotated time, and who made it")
       ->type_name("FILE");
+  cmd->add_option("--jobs", o.jobs,
+                  "With --dataset: recordings read at once (default: one per core)")
+      ->type_name("N");
   cmd->add_flag("--json", o.json, "Print JSON for scripts");
   add_input_options(*cmd, o.input);
   cmd->callback([options, &status] { status = run_info(*options); });
@@ -39,9 +45,43 @@ std::string media_line(const media_info& m) {
   return out;
 }
 
+// The inventory of a dataset: each tier name over the recordings that could be read.
+int dataset_info(const info_options& o) {
+  if (!o.input.path.empty()) throw usage_error("info: give either a file or --dataset, not both");
+  const opened_dataset d = open_dataset(o.dataset, o.input);
+  const std::vector<std::optional<document_summary>> summaries = summarize_recordings(d, o.jobs);
+  dataset_inventory inv;
+  std::size_t unreadable = 0;
+  for (const std::optional<document_summary>& s : summaries) {
+    if (s)
+      inv.add(*s);
+    else
+      ++unreadable;
+  }
+  stdout_sink out;
+  if (o.json) {
+    write_inventory_json(inv, d.file, out);
+  } else {
+    std::string text = fmt::format("{}\n  recordings {} read", d.file, inv.recordings);
+    if (unreadable) text += fmt::format(", {} unreadable", unreadable);
+    text += "\n  length     " + format_clock(inv.length) + "\n\n";
+    text_table table({"tier", ">recordings", ">annotations", ">length", ">annotated", ">human",
+                      ">machine", ">unmarked"});
+    for (const tier_inventory& t : inv.tiers)
+      table.add_row({t.name, std::to_string(t.recordings), std::to_string(t.annotations),
+                     format_clock(t.length), format_clock(t.annotated), std::to_string(t.human),
+                     std::to_string(t.machine), std::to_string(t.unmarked)});
+    out.write(escape_controls(text + table.render(), true));
+  }
+  out.flush();
+  return unreadable ? exit_rejected : exit_ok;
+}
+
 }  // namespace
 
 int run_info(const info_options& o) {
+  if (!o.dataset.empty()) return dataset_info(o);
+  if (o.input.path.empty()) throw usage_error("info: name the file, or --dataset");
   const document doc = load_document(o.input);
   const document_summary s = summarize(doc);
   stdout_sink out;

@@ -10,6 +10,8 @@ namespace tiers::cli {
 
 struct info_options {
   input_options input;
+  std::string dataset;  ///< a dataset description: the inventory of its recordings
+  unsigned jobs = 0;
   bool json = false;
 };
 

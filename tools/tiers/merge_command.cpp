@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <filesystem>
 
+#include "dataset_inputs.hpp"
 #include "tiers/io.hpp"
 #include "tiers/merge.hpp"
 
@@ -17,6 +18,17 @@ void setup_merge(CLI::App& app, int& status) {
       "merge", "Join the tiers of several files of one recording; combine human and machine tiers");
   cmd->add_option("inputs", o.paths, "Files to merge (after the plan's inputs, if any)")
       ->type_name("FILE");
+  cmd->add_option("--dataset", o.dataset,
+                  "A dataset description: merge each recording's files by the plan, into -d")
+      ->type_name("FILE");
+  cmd->add_option("-d,--output-dir", o.output_dir,
+                  "With --dataset: write each recording's merge here, as ID.EXT (needs --to)")
+      ->type_name("DIR");
+  cmd->add_option("--jobs", o.jobs,
+                  "With --dataset: recordings merged at once (default: one per core)")
+      ->type_name("N");
+  cmd->add_option("--shard", o.shard, "With --dataset: merge only part K of N of the recordings")
+      ->type_name("K/N");
   cmd->add_option("--plan", o.plan, "A merge plan (JSON); the options below add to it")
       ->type_name("PLAN");
   cmd->add_option("--clash", o.clash,
@@ -124,6 +136,27 @@ merge_plan make_plan(const merge_options& o) {
   return plan;
 }
 
+// Each recording of a dataset merged by one plan: its files are the merge's inputs.
+int merge_dataset(const merge_options& o, const merge_plan& plan) {
+  if (!plan.inputs.empty())
+    throw usage_error(
+        "merge --dataset: the recordings' files are the inputs; the plan and the "
+        "command line name none");
+  if (o.output_dir.empty() || o.to.empty() || !o.output.empty())
+    throw usage_error("merge --dataset writes a file per recording: give -d DIR and --to");
+  const format& to = format_named(o.to);
+  const opened_dataset d = open_dataset(o.dataset, o.input, o.shard);
+  return for_each_output(
+      d, o.output_dir, to, o.jobs, "merging", [&](const recording& r, const std::string& output) {
+        recording_parts parts = read_parts(d, r);
+        std::vector<diagnostic> problems = lacking_sources(d, r);
+        problems.insert(problems.end(), parts.diagnostics.begin(), parts.diagnostics.end());
+        report_all(std::move(problems));
+        const document merged = take(merge_documents(std::move(parts.parts), plan), r.id);
+        write_output(merged, to, output, o.allow_loss, r.id);
+      });
+}
+
 }  // namespace
 
 int run_merge(const merge_options& o) {
@@ -135,6 +168,9 @@ int run_merge(const merge_options& o) {
     out.flush();
     return exit_ok;
   }
+  if (!o.dataset.empty()) return merge_dataset(o, plan);
+  if (!o.output_dir.empty() || o.jobs || !o.shard.empty())
+    throw usage_error("merge: -d, --jobs and --shard go with --dataset");
   if (o.output.empty()) throw usage_error("merge: name the output with -o");
   const format& to = output_format(o.to, o.output);
   if (plan.inputs.empty()) throw usage_error("merge: name the files to merge");

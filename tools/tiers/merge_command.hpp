@@ -14,6 +14,10 @@ namespace tiers::cli {
 struct merge_options {
   input_options input;  ///< reading options for every input (path unused)
   std::vector<std::string> paths;
+  std::string dataset;     ///< a dataset description: each recording merged on its own
+  std::string output_dir;  ///< with --dataset: a file per recording
+  unsigned jobs = 0;
+  std::string shard;
   std::string output;
   std::string to;
   std::string plan;
