@@ -17,6 +17,8 @@ options, sources, renames), and asserts:
   - `check --dataset --captions captions --words words` measures in each recording the lag
     planted in it, within 1 ms;
   - `merge --dataset --plan` shifts each recording's captions onto its words;
+  - `retime --dataset` moves each recording's cues by exactly its lag; `edit --dataset` edits
+    every recording alike;
   - `agree --dataset` pools the recordings: its pooled kappa equals scikit-learn's
     cohen_kappa_score on the concatenated frames (an outside reference), and each recording's
     own kappa equals scikit-learn's on its frames;
@@ -223,6 +225,26 @@ def main():
         cue = tiers_of["captions"]["annotations"][0]
         checks.check(abs(cue["start"] - 0) < 1e-9,
                      f"{ep}: the first cue starts with its first word after the shift: {cue}")
+
+    # Re-timed: each recording's cues moved onto their words, by its own lag.
+    retimed = os.path.join(work, "retimed")
+    r = run(tiers, "retime", "--dataset", description, "--captions", "captions", "--words",
+            "words", "-d", retimed, "--to", "json", "--json")
+    moves = {x["id"]: x["report"]["cues"] for x in json.loads(r.stdout)["recordings"]}
+    for k in range(RECORDINGS):
+        ep = f"ep{k + 1:02d}"
+        shifts = {round(c["new_start"] - c["old_start"], 6) for c in moves.get(ep, [])}
+        checks.check(shifts == {round(-lag_ns(k) / 1e9, 6)},
+                     f"{ep}: retime moved the cues by {sorted(shifts)}, the lag is {lag_ns(k)} ns")
+    # Edited alike: one tier kept, every time shifted.
+    edited = os.path.join(work, "edited")
+    run(tiers, "edit", "--dataset", description, "--select", "words", "--shift", "2s",
+        "-d", edited, "--to", "json")
+    with open(os.path.join(edited, "ep02.json")) as fh:
+        doc = json.load(fh)
+    checks.check([t["name"] for t in doc["tiers"]] == ["words"] and
+                 doc["tiers"][0]["annotations"][0]["start"] == 2,
+                 f"edit --dataset kept the words, shifted by 2 s: {doc['tiers'][0]['annotations'][0]}")
 
     # Agreement pooled over the recordings against scikit-learn on the concatenated frames.
     agree = run(tiers, "agree", "--dataset", description, "--ref-tier", "coder-a",

@@ -241,7 +241,8 @@ int dataset_tiers(const agree_options& o) {
   for (const recording_agreement& r : each)
     reports.push_back(r.report);
   agreement_report pooled = pool_agreements(reports);
-  pooled.reference.file = pooled.candidate.file = d.file;
+  pooled.reference = {d.file, rn};
+  pooled.candidate = {d.file, cn};
   stdout_sink out;
   if (o.json) {
     write_dataset_agreement_json(pooled, each, out);

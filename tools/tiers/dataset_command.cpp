@@ -67,12 +67,16 @@ int write_description(const dataset_options& o) {
   atomic_file out(o.output);
   out.write(text);
   out.commit();
-  const opened_dataset opened = open_dataset(o.output, input_options{});
-  std::size_t complete = 0;
-  for (const recording& r : opened.recordings)
-    complete += r.complete();
+  std::size_t found = 0, complete = 0;
+  try {
+    const opened_dataset opened = open_dataset(o.output, input_options{});
+    found = opened.recordings.size();
+    for (const recording& r : opened.recordings)
+      complete += r.complete();
+  } catch (const usage_error&) {  // nothing found yet: the description is still written
+  }
   std::fprintf(stderr, "tiers: wrote %s: %zu sources, %zu recordings found (%zu complete)\n",
-               o.output.c_str(), d.sources.size(), opened.recordings.size(), complete);
+               o.output.c_str(), d.sources.size(), found, complete);
   return exit_ok;
 }
 
@@ -131,9 +135,7 @@ int run_dataset(const dataset_options& o) {
     out.write(escape_controls(text, true));
   }
   out.flush();
-  return complete == d.recordings.size() && unreadable == 0 && !d.recordings.empty()
-             ? exit_ok
-             : exit_rejected;
+  return complete == d.recordings.size() && unreadable == 0 ? exit_ok : exit_rejected;
 }
 
 }  // namespace tiers::cli

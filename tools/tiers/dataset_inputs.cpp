@@ -63,6 +63,21 @@ input_options reading_of(const dataset_source& s, input_options in) {
 
 }  // namespace
 
+void add_dataset_options(CLI::App& cmd, std::string& dataset, std::string& dir, unsigned& jobs,
+                         std::string& shard, const std::string& done) {
+  cmd.add_option(
+         "--dataset", dataset,
+         "A dataset description: each recording (its files joined) " + done + " alike, into -d")
+      ->type_name("FILE");
+  cmd.add_option("-d,--output-dir", dir,
+                 "With --dataset: write each recording here, as ID.EXT (needs --to)")
+      ->type_name("DIR");
+  cmd.add_option("--jobs", jobs, "With --dataset: recordings at once (default: one per core)")
+      ->type_name("N");
+  cmd.add_option("--shard", shard, "With --dataset: only part K of N of the recordings (by id)")
+      ->type_name("K/N");
+}
+
 std::string opened_dataset::path_of(const std::string& relative) const {
   return root.empty() || root == "." ? relative : (fs::path(root) / relative).string();
 }
@@ -102,6 +117,9 @@ opened_dataset open_dataset(const std::string& path, const input_options& base,
   locate_all(text, problems);
   report_all(std::move(problems));
   d.recordings = take(find_recordings(d.description, d.root, d.file, text));
+  if (d.recordings.empty())
+    throw usage_error(d.file + ": the dataset's patterns find no files (below '" +
+                      (d.root.empty() ? std::string(".") : d.root) + "')");
   if (!shard.empty()) {
     std::vector<std::string> ids;
     for (const recording& r : d.recordings)

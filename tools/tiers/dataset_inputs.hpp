@@ -2,6 +2,7 @@
 // and checked, its recordings found, and each recording's files read and joined.
 #pragma once
 
+#include <CLI/CLI.hpp>
 #include <functional>
 #include <optional>
 #include <string>
@@ -13,6 +14,11 @@
 #include "tiers/info.hpp"
 
 namespace tiers::cli {
+
+/// Adds --dataset, -d/--output-dir, --jobs and --shard to a command that writes a file per
+/// recording of a dataset; `done` says what it does to each, for the help ("merged").
+void add_dataset_options(CLI::App& cmd, std::string& dataset, std::string& dir, unsigned& jobs,
+                         std::string& shard, const std::string& done);
 
 /// A description opened for a run.
 struct opened_dataset {
@@ -28,9 +34,9 @@ struct opened_dataset {
 };
 
 /// Reads and checks the description (its reading options too) and finds its recordings;
-/// prints what is wrong and throws rejected. `base` holds the command's own reading options,
-/// which each source's `read`, `source` and `kind` override. With `shard` (K/N), only that
-/// part of the recordings (by id) is kept.
+/// prints what is wrong and throws rejected, or usage_error when the patterns find nothing. `base`
+/// holds the command's own reading options, which each source's `read`, `source` and `kind`
+/// override. With `shard` (K/N), only that part of the recordings (by id) is kept.
 opened_dataset open_dataset(const std::string& path, const input_options& base,
                             const std::string& shard = {});
 

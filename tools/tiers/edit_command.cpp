@@ -4,6 +4,7 @@
 
 #include <map>
 
+#include "dataset_inputs.hpp"
 #include "tiers/edit.hpp"
 
 namespace tiers::cli {
@@ -13,9 +14,7 @@ void setup_edit(CLI::App& app, int& status) {
   edit_options& o = *options;
   CLI::App* cmd = app.add_subcommand(
       "edit", "Shift, scale, snap and cut times, and select, drop or rename tiers, in order");
-  cmd->add_option("input", o.input.path, "Input file, or - for standard input")
-      ->required()
-      ->type_name("FILE");
+  cmd->add_option("input", o.input.path, "Input file, or - for standard input")->type_name("FILE");
   cmd->add_option("--shift", o.shifts, "Add an offset to every time: 1.5s, -250ms")
       ->allow_extra_args(false)
       ->type_name("OFFSET");
@@ -43,7 +42,9 @@ void setup_edit(CLI::App& app, int& status) {
       ->type_name("OLD=NEW");
   add_input_options(*cmd, o.input);
   o.command = cmd;
-  add_output_options(*cmd, o.output, o.to, o.allow_loss);
+  add_output_options(*cmd, o.output, o.to, o.allow_loss,
+                     "Output file, or - for standard output (with --to)");
+  add_dataset_options(*cmd, o.dataset, o.output_dir, o.jobs, o.shard, "edited");
   cmd->callback([options, &status] { status = run_edit(*options); });
 }
 
@@ -60,13 +61,8 @@ time_ns time_option(const std::string& option, std::string_view text) {
   return negative ? -t.value : t.value;
 }
 
-}  // namespace
-
-int run_edit(const edit_options& o) {
-  const format& to = output_format(o.to, o.output);
-  std::string given_name;
-  document doc = load_document(o.input, &given_name);
-  const std::string file = display_name(o.input.path);
+// Applies the operations in the order given; false (the reasons printed) when one is refused.
+bool edit_document(const edit_options& o, document& doc, const std::string& file) {
   std::map<const CLI::Option*, std::size_t> used;  // how many values of each option are done
   std::vector<std::string> selected;  // consecutive --select options make one selection
   // The library names the problem; the command adds the file and the option it came from.
@@ -92,7 +88,7 @@ int run_edit(const edit_options& o) {
       selected.push_back(o.selects[k]);
       continue;
     }
-    if (flush_selection()) return exit_rejected;
+    if (flush_selection()) return false;
     std::vector<diagnostic> problems;
     if (name == "--shift") {
       problems =
@@ -122,10 +118,37 @@ int run_edit(const edit_options& o) {
         throw usage_error("--rename: expected OLD=NEW, got '" + v + "'");
       problems = rename_tier(doc, v.substr(0, eq), v.substr(eq + 1));
     }
-    if (refused(name, std::move(problems))) return exit_rejected;
+    if (refused(name, std::move(problems))) return false;
   }
-  if (flush_selection()) return exit_rejected;
-  write_output(doc, to, o.output, o.allow_loss, file, {}, given_name);
+  return !flush_selection();
+}
+
+}  // namespace
+
+int run_edit(const edit_options& o) {
+  if (!o.dataset.empty()) {
+    if (!o.input.path.empty() || !o.output.empty() || o.output_dir.empty() || o.to.empty())
+      throw usage_error(
+          "edit --dataset writes a file per recording: give -d DIR and --to, "
+          "and no input or -o");
+    const format& to = format_named(o.to);
+    const opened_dataset d = open_dataset(o.dataset, o.input, o.shard);
+    return for_each_output(d, o.output_dir, to, o.jobs, "editing",
+                           [&](const recording& r, const std::string& output) {
+                             document doc = load_recording(d, r);
+                             if (!edit_document(o, doc, r.id)) throw rejected();
+                             write_output(doc, to, output, o.allow_loss, r.id);
+                           });
+  }
+  if (o.input.path.empty()) throw usage_error("edit: name the input, or --dataset");
+  if (o.output.empty()) throw usage_error("edit: name the output with -o");
+  if (!o.output_dir.empty() || o.jobs || !o.shard.empty())
+    throw usage_error("edit: -d, --jobs and --shard go with --dataset");
+  const format& to = output_format(o.to, o.output);
+  std::string given_name;
+  document doc = load_document(o.input, &given_name);
+  if (!edit_document(o, doc, display_name(o.input.path))) return exit_rejected;
+  write_output(doc, to, o.output, o.allow_loss, display_name(o.input.path), {}, given_name);
   return exit_ok;
 }
 

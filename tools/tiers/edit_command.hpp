@@ -12,6 +12,10 @@ namespace tiers::cli {
 
 struct edit_options {
   input_options input;
+  std::string dataset;     ///< a dataset description: each recording edited alike
+  std::string output_dir;  ///< with --dataset: a file per recording
+  unsigned jobs = 0;
+  std::string shard;
   std::string output, to;
   std::vector<std::string> shifts, scales, snaps, cuts, selects, drops, renames;
   bool from_zero = false;

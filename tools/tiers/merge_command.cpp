@@ -18,17 +18,7 @@ void setup_merge(CLI::App& app, int& status) {
       "merge", "Join the tiers of several files of one recording; combine human and machine tiers");
   cmd->add_option("inputs", o.paths, "Files to merge (after the plan's inputs, if any)")
       ->type_name("FILE");
-  cmd->add_option("--dataset", o.dataset,
-                  "A dataset description: merge each recording's files by the plan, into -d")
-      ->type_name("FILE");
-  cmd->add_option("-d,--output-dir", o.output_dir,
-                  "With --dataset: write each recording's merge here, as ID.EXT (needs --to)")
-      ->type_name("DIR");
-  cmd->add_option("--jobs", o.jobs,
-                  "With --dataset: recordings merged at once (default: one per core)")
-      ->type_name("N");
-  cmd->add_option("--shard", o.shard, "With --dataset: merge only part K of N of the recordings")
-      ->type_name("K/N");
+  add_dataset_options(*cmd, o.dataset, o.output_dir, o.jobs, o.shard, "merged by the plan");
   cmd->add_option("--plan", o.plan, "A merge plan (JSON); the options below add to it")
       ->type_name("PLAN");
   cmd->add_option("--clash", o.clash,

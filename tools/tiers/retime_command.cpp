@@ -3,6 +3,7 @@
 
 #include <fmt/format.h>
 
+#include "dataset_inputs.hpp"
 #include "text_table.hpp"
 #include "tiers/io.hpp"
 #include "tiers/profile.hpp"
@@ -15,7 +16,6 @@ void setup_retime(CLI::App& app, int& status) {
   retime_options_cli& o = *options;
   CLI::App* cmd = app.add_subcommand("retime", "Move caption cues onto their words' timings");
   cmd->add_option("captions", o.input.path, "The caption file, or - for standard input")
-      ->required()
       ->type_name("FILE");
   cmd->add_option("--words", o.words, "The word timings: a tier of the file, or FILE[:TIER]")
       ->required()
@@ -38,7 +38,9 @@ void setup_retime(CLI::App& app, int& status) {
       ->type_name("PROFILE");
   cmd->add_flag("--json", o.json, "Print the report as JSON");
   add_input_options(*cmd, o.input);
-  add_output_options(*cmd, o.output, o.to, o.allow_loss);
+  add_output_options(*cmd, o.output, o.to, o.allow_loss,
+                     "Output file, or - for standard output (with --to)");
+  add_dataset_options(*cmd, o.dataset, o.output_dir, o.jobs, o.shard, "re-timed");
   cmd->callback([options, &status] { status = run_retime(*options); });
 }
 
@@ -74,9 +76,10 @@ std::string text_report(const retime_result& r, const tier& before) {
              unfixed, format_seconds(largest));
 }
 
-// Names the tier that is not there and the tiers that are, and the one option that picks it.
-int missing_tier(const std::string& file, const document& doc, const std::string& name,
-                 const char* role, const char* option) {
+// Names the tier that is not there and the tiers that are, and the one option that picks it;
+// throws rejected.
+[[noreturn]] void missing_tier(const std::string& file, const document& doc,
+                               const std::string& name, const char* role, const char* option) {
   diagnostic d;
   d.file = file;
   d.code = "retime.tier";
@@ -85,18 +88,20 @@ int missing_tier(const std::string& file, const document& doc, const std::string
       (doc.tiers.empty() ? std::string("the file has no tiers") : "its tiers: " + tier_names(doc)) +
       "); name " + role + " with " + option;
   report(d);
-  return exit_rejected;
+  throw rejected();
 }
 
-}  // namespace
+struct retimed {
+  retime_result result;
+  tier before;
+};
 
-int run_retime(const retime_options_cli& o) {
-  const format& to = output_format(o.to, o.output);
-  const profile p = o.profile.empty() ? profile{} : take(load_profile(o.profile));
-  std::string given_name;
-  document doc = load_document(o.input, &given_name);
-  const std::string file = display_name(o.input.path);
-
+// Re-times the captions of `doc` in place onto the words (of `doc`, or of `other`, a words
+// file). Throws rejected, the reason printed, when a tier is not there.
+retimed retime_document(const retime_options_cli& o, const profile& p, document& doc,
+                        const std::string& file, const format& to,
+                        const std::optional<words_file>& other,
+                        std::optional<std::string> words_tier) {
   std::string caption_name = !o.captions.empty() ? o.captions : p.captions.value_or("");
   if (caption_name.empty()) {
     if (doc.tiers.empty() ||
@@ -106,8 +111,6 @@ int run_retime(const retime_options_cli& o) {
     caption_name = doc.tiers.front().name;
   }
   tier* captions = find_tier(doc, caption_name);
-  std::optional<std::string> words_tier;
-  std::optional<words_file> other = words_file_of(o.words, o.input, words_tier);
   const document& wdoc = other ? other->doc : doc;
   if (other) words_tier = other->tier;
   const tier* words = nullptr;
@@ -117,13 +120,10 @@ int run_retime(const retime_options_cli& o) {
     words = &wdoc.tiers.front();
   else
     words = find_tier(wdoc, "words");
-  if (!captions)
-    return missing_tier(file, doc, caption_name, "the caption tier", "--captions TIER");
-  if (!words) {
-    const std::string in = other ? display_name(other->path) : file;
-    return missing_tier(in, wdoc, words_tier.value_or("words"), "the word tier",
-                        other ? "--words FILE:TIER" : "--words TIER");
-  }
+  if (!captions) missing_tier(file, doc, caption_name, "the caption tier", "--captions TIER");
+  if (!words)
+    missing_tier(other ? display_name(other->path) : file, wdoc, words_tier.value_or("words"),
+                 "the word tier", other ? "--words FILE:TIER" : "--words TIER");
 
   retime_options ro;
   ro.lead_in = parse_duration_option("--lead-in", o.lead_in);
@@ -136,14 +136,64 @@ int run_retime(const retime_options_cli& o) {
                         : parse_duration_option("--min-duration", o.min_duration);
   ro.window = p.limits.window;
   ro.grid = to.time_grid;
-  const tier before = *captions;
-  retime_result r = retime_captions(before, *words, ro);
-  *captions = r.captions;
-  move_children(doc, caption_name, r);
+  retimed out{retime_captions(*captions, *words, ro), *captions};
+  *captions = out.result.captions;
+  move_children(doc, caption_name, out.result);
+  return out;
+}
+
+// Each recording of a dataset re-timed alike; the reports, recording by recording, on
+// standard output.
+int retime_dataset(const retime_options_cli& o, const profile& p) {
+  if (!o.input.path.empty() || !o.output.empty() || o.output_dir.empty() || o.to.empty())
+    throw usage_error(
+        "retime --dataset writes a file per recording: give -d DIR and --to, "
+        "and no input or -o");
+  const format& to = format_named(o.to);
+  const opened_dataset d = open_dataset(o.dataset, o.input, o.shard);
+  std::vector<std::optional<std::string>> reports(d.recordings.size());
+  const int status = for_each_output(
+      d, o.output_dir, to, o.jobs, "re-timing", [&](const recording& r, const std::string& out) {
+        document doc = load_recording(d, r);
+        const retimed t = retime_document(o, p, doc, r.id, to, std::nullopt, o.words);
+        write_output(doc, to, out, o.allow_loss, r.id);
+        reports[static_cast<std::size_t>(&r - d.recordings.data())] =
+            o.json ? retime_report_json(t.result, t.before)
+                   : r.id + "\n" + text_report(t.result, t.before) + "\n";
+      });
+  std::vector<std::pair<std::string, std::string>> done;
+  std::string text;
+  for (std::size_t k = 0; k < reports.size(); ++k)
+    if (reports[k]) {
+      done.emplace_back(d.recordings[k].id, *reports[k]);
+      text += *reports[k];
+    }
+  stdout_sink sink;
+  sink.write(o.json ? reports_by_recording_json(done) : escape_controls(text, true));
+  sink.flush();
+  return status;
+}
+
+}  // namespace
+
+int run_retime(const retime_options_cli& o) {
+  const profile p = o.profile.empty() ? profile{} : take(load_profile(o.profile));
+  if (!o.dataset.empty()) return retime_dataset(o, p);
+  if (o.input.path.empty()) throw usage_error("retime: name the caption file, or --dataset");
+  if (o.output.empty()) throw usage_error("retime: name the output with -o");
+  if (!o.output_dir.empty() || o.jobs || !o.shard.empty())
+    throw usage_error("retime: -d, --jobs and --shard go with --dataset");
+  const format& to = output_format(o.to, o.output);
+  std::string given_name;
+  document doc = load_document(o.input, &given_name);
+  const std::string file = display_name(o.input.path);
+  std::optional<std::string> words_tier;
+  const std::optional<words_file> other = words_file_of(o.words, o.input, words_tier);
+  const retimed t = retime_document(o, p, doc, file, to, other, words_tier);
   write_output(doc, to, o.output, o.allow_loss, file, {}, given_name);
 
-  const std::string report_text =
-      o.json ? retime_report_json(r, before) : escape_controls(text_report(r, before), true);
+  const std::string report_text = o.json ? retime_report_json(t.result, t.before)
+                                         : escape_controls(text_report(t.result, t.before), true);
   // The report goes to standard output, unless the document does.
   if (o.output == "-")
     std::fputs(report_text.c_str(), stderr);

@@ -11,6 +11,9 @@ namespace tiers::cli {
 
 struct retime_options_cli {
   input_options input;
+  std::string dataset, output_dir;  ///< --dataset: each recording re-timed, into -d
+  unsigned jobs = 0;
+  std::string shard;
   std::string output, to, captions, words, profile;
   std::string lead_in = "0", hold = "0", min_gap, min_duration;
   bool json = false;

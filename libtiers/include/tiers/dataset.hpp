@@ -108,4 +108,9 @@ void write_dataset_listing_json(const dataset_description& d,
                                 const std::vector<std::optional<document_summary>>& summaries,
                                 std::string_view path, byte_sink& out);
 
+/// `{"recordings": [{"id": ID, "report": REPORT}, …]}` from each recording's id and its
+/// report, which is JSON text already (a command's report of one document).
+std::string reports_by_recording_json(
+    const std::vector<std::pair<std::string, std::string>>& reports);
+
 }  // namespace tiers

@@ -59,4 +59,27 @@ void write_dataset_listing_json(const dataset_description& d,
   out.put('\n');
 }
 
+std::string reports_by_recording_json(
+    const std::vector<std::pair<std::string, std::string>>& reports) {
+  std::string text;
+  string_sink out(text);
+  detail::json_writer j(out);
+  j.begin_object(true);
+  j.key("recordings").begin_array(true);
+  for (const auto& [id, report] : reports) {
+    j.begin_object(true);
+    j.string("id", id);
+    std::string_view body = report;
+    while (!body.empty() && (body.back() == '\n' || body.back() == ' '))
+      body.remove_suffix(1);
+    j.key("report").raw(body);
+    j.end_object();
+  }
+  j.end_array();
+  j.end_object();
+  out.put('\n');
+  out.flush();
+  return text;
+}
+
 }  // namespace tiers
