@@ -7,7 +7,8 @@ Invented data: 24 recordings in three folders, as three tools leave them —
   aligner/EP.csv            an aligner's words, times in milliseconds under its own column
                             names (t_begin_ms, t_end_ms, token);
   coding/EP.gestures.csv    two human coders' gestures (tiers coder-a and coder-b), times as
-                            frame numbers at 25 frames a second.
+                            frame numbers at 25 frames a second;
+and a fourth folder for `derive`: detector/EP.csv, a hand detector's per-frame scores.
 The test writes the description with `tiers dataset --source …`, completes it by hand (reading
 options, sources, renames), and asserts:
   - `tiers dataset` lists 24 complete recordings and their tiers;
@@ -17,6 +18,9 @@ options, sources, renames), and asserts:
   - `check --dataset --captions captions --words words` measures in each recording the lag
     planted in it, within 1 ms;
   - `merge --dataset --plan` shifts each recording's captions onto its words;
+  - `derive --dataset` turns a fourth source, a detector's per-frame scores marked as a signal
+    source, into intervals on the frames planted in them;
+  - `report --dataset` writes a page per recording and an index linking them all;
   - `retime --dataset` moves each recording's cues by exactly its lag; `edit --dataset` edits
     every recording alike;
   - `agree --dataset` pools the recordings: its pooled kappa equals scikit-learn's
@@ -32,6 +36,7 @@ written goes to OUTPUT_DIR, for the schema test)
 import json
 import os
 import random
+import re
 import shutil
 import subprocess
 import sys
@@ -45,6 +50,7 @@ WORDS = ["the", "kettle", "sang", "while", "our", "guide", "pointed", "north", "
          "a", "frozen", "lake", "and", "everyone", "laughed", "at", "once"]
 GESTURES = ["beat", "point", "shrug"]
 STEP_NS = 40_000_000  # one frame at 25 frames a second
+PLANTED = [(100, 160), (400, 475), (900, 1000)]  # frames of the detector's hands
 
 
 def lag_ns(k):
@@ -86,6 +92,12 @@ def make_recording(root, k, rng):
         fh.write("coder,start_frame,end_frame,gesture\n")
         for row in sorted(rows, key=lambda r: r[0]):
             fh.write(",".join(map(str, row)) + "\n")
+    # A hand detector's per-frame scores: high inside planted intervals, low elsewhere.
+    with open(os.path.join(root, "detector", ep + ".csv"), "w") as fh:
+        fh.write("frame,hands\n")
+        for f in range(1400):
+            inside = any(a <= f < b for a, b in PLANTED)
+            fh.write(f"{f},{0.9 if inside else 0.1}\n")
     return ep, rows
 
 
@@ -111,7 +123,7 @@ def main():
     shutil.rmtree(work, ignore_errors=True)
     os.makedirs(output, exist_ok=True)
     root = os.path.join(work, "corpus")
-    for folder in ("captions", "aligner", "coding"):
+    for folder in ("captions", "aligner", "coding", "detector"):
         os.makedirs(os.path.join(root, folder))
     rng = random.Random(7)
     recordings = [make_recording(root, k, rng) for k in range(RECORDINGS)]
@@ -136,6 +148,9 @@ def main():
         {"read": {"columns": "tier=coder,start=start_frame,end=end_frame,text=gesture",
                   "time_unit": "frames", "rate": "25"},
          "kind": "interval", "source": {"kind": "human"}})
+    written["sources"].append({"pattern": "detector/{id}.csv", "kind": "signal",
+                               "read": {"rate": "25"},
+                               "source": {"kind": "machine", "agent": "hands", "version": "1"}})
     with open(description, "w") as fh:
         json.dump(written, fh, indent=1)
     shutil.copy(description, os.path.join(output, "dataset.json"))
@@ -226,6 +241,16 @@ def main():
         checks.check(abs(cue["start"] - 0) < 1e-9,
                      f"{ep}: the first cue starts with its first word after the shift: {cue}")
 
+    # Derived: the detector's scores, a signal source, into intervals on the planted frames.
+    derived = os.path.join(work, "derived")
+    run(tiers, "derive", "--dataset", description, "--on", "0.5", "-d", derived, "--to", "json")
+    with open(os.path.join(derived, "ep09.json")) as fh:
+        doc = json.load(fh)
+    spans = [(round(a["start"] * 25), round(a["end"] * 25)) for a in doc["tiers"][0]["annotations"]]
+    checks.check(spans == PLANTED and doc["tiers"][0]["source"] ==
+                 {"kind": "machine", "agent": "hands", "version": "1"},
+                 f"derive --dataset found the planted frames {PLANTED}: {spans}")
+
     # Re-timed: each recording's cues moved onto their words, by its own lag.
     retimed = os.path.join(work, "retimed")
     r = run(tiers, "retime", "--dataset", description, "--captions", "captions", "--words",
@@ -245,6 +270,19 @@ def main():
     checks.check([t["name"] for t in doc["tiers"]] == ["words"] and
                  doc["tiers"][0]["annotations"][0]["start"] == 2,
                  f"edit --dataset kept the words, shifted by 2 s: {doc['tiers'][0]['annotations'][0]}")
+
+    # Reported: a page per recording and an index linking them.
+    pages = os.path.join(work, "report")
+    run(tiers, "report", "--dataset", description, "--captions", "captions", "--words", "words",
+        "--ref-tier", "coder-a", "--cand-tier", "coder-b", "-d", pages)
+    with open(os.path.join(pages, "index.html"), encoding="utf-8") as fh:
+        index = fh.read()
+    links = re.findall(r'<a href="(recordings/[^"]+)">', index)
+    checks.check(links == [f"recordings/ep{k + 1:02d}.html" for k in range(RECORDINGS)] and
+                 "24 recordings" in index,
+                 f"report --dataset's index links every recording's page: {links[:3]}…")
+    checks.check(all(os.path.exists(os.path.join(pages, x)) for x in links),
+                 "every page the index links is there")
 
     # Agreement pooled over the recordings against scikit-learn on the concatenated frames.
     agree = run(tiers, "agree", "--dataset", description, "--ref-tier", "coder-a",

@@ -35,6 +35,14 @@ TEST_CASE("a dataset description reads, and writes back as it reads", "[dataset]
   CHECK(r.value.sources[2].read[0].second == "25");
   CHECK(r.value.sources[2].read[1].second == "true");
   CHECK(r.value.sources[2].kind == tier_kind::interval);
+  CHECK_FALSE(r.value.sources[2].signal);
+  const dataset_result scores = read_dataset(
+      R"({"format": "tiers-dataset", "version": 1, "sources": [{"pattern": "scores/{id}.csv",
+          "kind": "signal", "read": {"rate": "25"}}]})",
+      "d.json");
+  REQUIRE(scores.ok());
+  CHECK(scores.value.sources[0].signal);
+  CHECK(dataset_json(scores.value).find(R"("kind": "signal")") != std::string::npos);
 
   const std::string text = dataset_json(r.value);
   test::save_json_output("dataset-description", text);
@@ -70,7 +78,7 @@ TEST_CASE("a dataset description's mistakes are located", "[dataset]") {
        "dataset.value", 2, 45},
       {"{\"format\": \"tiers-dataset\", \"version\": 1, \"sources\": [\n {\"pattern\": "
        "\"{id}.csv\", \"kind\": \"point\"}]}",
-       "dataset.value", 2, 34},
+       "dataset.value", 2, 34},  // "signal" is the third kind
       {"{\"format\": \"tiers-dataset\", \"version\": 1, \"sources\": [\n {\"pattern\": "
        "\"{id}.csv\"}, {\"pattern\": \"{id}.csv\"}]}",
        "dataset.value", 2, 39},  // one pattern twice

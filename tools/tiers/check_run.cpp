@@ -100,7 +100,10 @@ check_run run_checks(const check_options& o, const profile& p, std::size_t keep_
     return run;
   }
   if (!o.dataset.empty()) {
-    const opened_dataset d = open_dataset(o.dataset, o.input, o.shard);
+    const auto opened =
+        std::make_shared<const opened_dataset>(open_dataset(o.dataset, o.input, o.shard));
+    const opened_dataset& d = *opened;
+    run.dataset = opened;
     std::vector<std::string> ids;
     for (const recording& r : d.recordings)
       ids.push_back(r.id);

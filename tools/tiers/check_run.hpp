@@ -33,12 +33,16 @@ struct check_options {
 /// The profile named by --profile (a built-in name or a file); the defaults for none.
 profile load_check_profile(const std::string& name);
 
+struct opened_dataset;
+
 /// What checking the inputs of `options` found, shared by `check` and `report`.
 struct check_run {
   std::unique_ptr<words_file> words;  ///< --words FILE, which `roles` points into
   check_context roles;
   std::vector<file_report> reports;
   std::vector<std::optional<document>> documents;  ///< the first few files', for drawing
+  /// With --dataset: the description opened, its recordings index for index with `reports`.
+  std::shared_ptr<const opened_dataset> dataset;
 };
 struct report_stream;
 /// Checks the files (or combines the reports) that `options` name against `p`, keeping the

@@ -7,6 +7,7 @@
 #include <filesystem>
 
 #include "batch.hpp"
+#include "tiers/derive.hpp"
 #include "tiers/io.hpp"
 
 namespace tiers::cli {
@@ -96,6 +97,14 @@ opened_dataset open_dataset(const std::string& path, const input_options& base,
     if (given && !s.source) s.source = given->source;
     if (given && !s.kind) s.kind = given->kind;
     try {
+      if (s.signal) {  // read by derive: only its own options apply
+        for (const auto& [name, value] : s.read)
+          if (name == "from" ? !value_named(signal_format_names, value) : name != "rate")
+            throw usage_error("a signal source reads with 'from' (" +
+                              quoted_names(signal_format_names) + ") and 'rate' only");
+        d.reading.push_back(input_options{});
+        continue;
+      }
       input_options in = reading_of(s, base);
       if (in.tier_name.empty()) in.tier_name = tier_name_of(s.pattern);
       in.source.clear();
@@ -148,7 +157,7 @@ recording_parts read_parts(const opened_dataset& d, const recording& r, bool pos
   std::vector<merge_input>& parts = out.parts;
   bool failed = false;
   for (std::size_t k = 0; k < r.files.size(); ++k) {
-    if (r.files[k].empty()) continue;
+    if (r.files[k].empty() || d.description.sources[k].signal) continue;
     const std::string path = d.path_of(r.files[k]);
     const std::string name = display_name(path);
     try {

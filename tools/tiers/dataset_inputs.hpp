@@ -41,7 +41,8 @@ opened_dataset open_dataset(const std::string& path, const input_options& base,
                             const std::string& shard = {});
 
 /// A recording's files read, each with its source's options, its tiers given what the source
-/// says; not joined. `ok` is false after an error in any of them.
+/// says (signal sources left out: they are derive's); not joined. `ok` is false after an error in
+/// any of them.
 struct recording_parts {
   std::vector<merge_input> parts;
   source_map positions;  ///< with `positions`: the parts' tiers, in order

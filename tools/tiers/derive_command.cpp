@@ -5,6 +5,7 @@
 
 #include <fmt/format.h>
 
+#include "dataset_inputs.hpp"
 #include "tiers/derive.hpp"
 #include "tiers/io.hpp"
 
@@ -17,7 +18,6 @@ void setup_derive(CLI::App& app, int& status) {
       app.add_subcommand("derive", "Turn per-frame detector scores into interval tiers");
   cmd->add_option("signal", o.path,
                   "A CSV, TSV or JSON Lines file with a 'frame' or 'time' column and score columns")
-      ->required()
       ->type_name("FILE");
   cmd->add_option("--from", o.from, "Input format: csv, tsv or jsonl; default: by extension")
       ->check(one_of(signal_format_names))
@@ -47,12 +47,84 @@ void setup_derive(CLI::App& app, int& status) {
       ->type_name("NAME");
   cmd->add_option("--agent-version", o.agent_version, "The detector's version")
       ->type_name("VERSION");
-  add_output_options(*cmd, o.output, o.to, o.allow_loss);
+  add_output_options(*cmd, o.output, o.to, o.allow_loss,
+                     "Output file, or - for standard output (with --to)");
+  add_dataset_options(*cmd, o.dataset, o.output_dir, o.jobs, o.shard,
+                      "with its signal sources (\"kind\": \"signal\") derived");
   cmd->callback([options, &status] { status = run_derive(*options); });
 }
 
+namespace {
+
+// The derived tiers of one signal table; `agent` names the detector unless --agent does.
+document derive_file(const derive_options_cli& o, const std::string& path, signal_format from,
+                     signal_options so, derive_options d, const std::string& agent) {
+  if (o.agent.empty()) d.source.agent = agent;
+  const std::string text = read_input(path);
+  signal_result r = read_signal(text, from, so);
+  locate_all(text, r.diagnostics);
+  return derive_tiers(take(std::move(r), display_name(path)), d);
+}
+
+// Each recording's signal sources derived into one document, DIR/ID.EXT: a source's `rate`
+// and `from` apply to its files, its agent (else the name its pattern gives a tier) names the
+// detector, and its `rename` names the derived tiers.
+int derive_dataset(const derive_options_cli& o, const signal_options& so, const derive_options& d) {
+  if (!o.path.empty() || !o.output.empty() || o.output_dir.empty() || o.to.empty())
+    throw usage_error(
+        "derive --dataset writes a file per recording: give -d DIR and --to, "
+        "and no input or -o");
+  const format& to = format_named(o.to);
+  const opened_dataset ds = open_dataset(o.dataset, input_options{}, o.shard);
+  const auto& sources = ds.description.sources;
+  if (std::none_of(sources.begin(), sources.end(),
+                   [](const dataset_source& s) { return s.signal; }))
+    throw usage_error("derive --dataset: " + ds.file +
+                      " has no signal source (\"kind\": \"signal\") to derive");
+  return for_each_output(
+      ds, o.output_dir, to, o.jobs, "deriving", [&](const recording& r, const std::string& output) {
+        std::vector<merge_input> parts;
+        std::vector<diagnostic> problems;
+        for (std::size_t k = 0; k < sources.size(); ++k) {
+          const dataset_source& s = sources[k];
+          if (!s.signal) continue;
+          if (r.files[k].empty()) {
+            for (diagnostic& p : lacking_sources(ds, r))
+              if (p.message.find(quote_name(s.pattern)) != std::string::npos)
+                problems.push_back(std::move(p));
+            continue;
+          }
+          const std::string path = ds.path_of(r.files[k]);
+          signal_options own = so;
+          std::optional<signal_format> from = signal_format_for_path(path);
+          for (const auto& [name, value] : s.read) {
+            if (name == "rate") own.rate = parse_rate_option(value);
+            if (name == "from") from = named(signal_format_names, value);
+          }
+          if (!from)
+            throw usage_error("cannot tell the signal format of '" + path +
+                              "'; give the source \"read\": {\"from\": …}");
+          derive_options each = d;
+          if (s.source && s.source->version) each.source.version = s.source->version;
+          const std::string agent = s.source && s.source->agent        ? *s.source->agent
+                                    : !tier_name_of(s.pattern).empty() ? tier_name_of(s.pattern)
+                                                                       : "detector";
+          document doc = derive_file(o, path, *from, own, each, agent);
+          dataset_source names;
+          names.rename = s.rename;
+          for (diagnostic& p : apply_source(doc, names, display_name(path)))
+            problems.push_back(std::move(p));
+          parts.push_back({display_name(path), std::move(doc)});
+        }
+        report_all(std::move(problems));
+        const document joined = take(join_recording(std::move(parts)), r.id);
+        write_output(joined, to, output, o.allow_loss, r.id);
+      });
+}
+
+}  // namespace
+
 int run_derive(const derive_options_cli& o) {
-  const format& to = output_format(o.to, o.output);
   signal_options so;
   if (!o.rate.empty()) so.rate = parse_rate_option(o.rate);
   for (std::size_t from = 0; !o.scores.empty() && from <= o.scores.size();) {
@@ -80,17 +152,20 @@ int run_derive(const derive_options_cli& o) {
                        : (o.agent.empty() ? std::string("detector") : o.agent);
   if (!o.agent_version.empty()) d.source.version = o.agent_version;
 
+  if (!o.dataset.empty()) return derive_dataset(o, so, d);
+  if (o.path.empty()) throw usage_error("derive: name the signal file, or --dataset");
+  if (o.output.empty()) throw usage_error("derive: name the output with -o");
+  if (!o.output_dir.empty() || o.jobs || !o.shard.empty())
+    throw usage_error("derive: -d, --jobs and --shard go with --dataset");
+  const format& to = output_format(o.to, o.output);
   std::optional<signal_format> from = !o.from.empty() ? named(signal_format_names, o.from)
                                       : o.path == "-" ? signal_format::csv
                                                       : signal_format_for_path(o.path);
   if (!from)
     throw usage_error("cannot tell the signal's format from '" + o.path +
                       "'; name it with --from csv, tsv or jsonl");
-  const std::string text = read_input(o.path);
-  signal_result r = read_signal(text, *from, so);
-  locate_all(text, r.diagnostics);
-  const signal table = take(std::move(r), display_name(o.path));
-  write_output(derive_tiers(table, d), to, o.output, o.allow_loss, display_name(o.path));
+  write_output(derive_file(o, o.path, *from, so, d, d.source.agent.value_or("detector")), to,
+               o.output, o.allow_loss, display_name(o.path));
   return exit_ok;
 }
 

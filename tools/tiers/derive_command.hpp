@@ -18,6 +18,9 @@ struct derive_options_cli {
   std::string confidence = "mean";
   std::string agent, agent_version;
   bool allow_loss = false;
+  std::string dataset, output_dir;  ///< --dataset: each recording's signal sources derived
+  unsigned jobs = 0;
+  std::string shard;
 };
 
 /// Adds the subcommand to `app` with its options; when it is the one given, it runs after

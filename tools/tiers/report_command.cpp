@@ -4,6 +4,7 @@
 
 #include <filesystem>
 
+#include "dataset_inputs.hpp"
 #include "tiers/html_report.hpp"
 #include "tiers/io.hpp"
 
@@ -17,11 +18,11 @@ void setup_report(CLI::App& app, int& status) {
   check_options& c = o.check;
   html_request& h = o.page;
   cmd->add_option("inputs", c.paths, "Files or folders (searched recursively), or - for stdin")
-      ->required()
       ->type_name("PATH");
   cmd->add_option("-o,--output", h.output, "The page to write (.html), or - for stdout")
-      ->required()
       ->type_name("FILE");
+  add_dataset_options(*cmd, c.dataset, o.output_dir, c.jobs, c.shard,
+                      "checked and drawn on a page of its own, with an index page,");
   cmd->add_option("--title", h.title, "The page's title (default: tiers report)")
       ->type_name("TEXT");
   cmd->add_option("--profile", c.profile,
@@ -43,8 +44,6 @@ void setup_report(CLI::App& app, int& status) {
                   "FILE:TIER for one of another file (drawn in every file)")
       ->type_name("TIER|FILE[:TIER]");
   add_comparison_options(*cmd, h.compare);
-  cmd->add_option("--jobs", c.jobs, "Files read and checked at once (default: one per core)")
-      ->type_name("N");
   add_input_options(*cmd, c.input);
   cmd->callback([options, &status] { status = run_report(*options); });
 }
@@ -82,10 +81,62 @@ std::string resolve_compared(const std::string& spec, const char* option, check_
   return copy.name;
 }
 
+// A dataset: checked whole (the dataset rules need every recording), then each recording drawn
+// on a page of its own, DIR/recordings/ID.html, and an index page, DIR/index.html, with the
+// totals and a row per recording linking its page.
+int report_dataset(const report_options& o, const profile& p) {
+  namespace fs = std::filesystem;
+  const html_request& h = o.page;
+  if (o.output_dir.empty() || !h.output.empty() || !o.check.paths.empty())
+    throw usage_error(
+        "report --dataset writes a page per recording and an index: give -d DIR, "
+        "and no files or -o");
+  if (h.ref_tier.find(':') != std::string::npos || h.cand_tier.find(':') != std::string::npos)
+    throw usage_error("report --dataset compares tiers of each recording: name them, not files");
+  const check_run run = run_checks(o.check, p, 0);
+  const opened_dataset& d = *run.dataset;
+  const fs::path pages = fs::path(o.output_dir) / "recordings";
+  std::error_code ec;
+  fs::create_directories(pages, ec);
+  const int status = for_each_recording(d, o.check.jobs, "drawing", [&](const recording& rec) {
+    const std::size_t k = static_cast<std::size_t>(&rec - d.recordings.data());
+    check_run one;
+    one.reports = {run.reports[k]};
+    recording_read r = read_recording(d, rec);
+    one.documents.emplace_back();
+    if (r.ok) one.documents.back() = std::move(r.doc);
+    html_request page = h;
+    page.output = (pages / (rec.id + ".html")).string();
+    page.title = h.title + ": " + rec.id;
+    write_html_page(page, one, p);
+    if (!run.reports[k].shape) throw rejected();  // unreadable: its page lists why
+  });
+  std::vector<report_index_entry> entries;
+  for (const file_report& r : run.reports)
+    entries.push_back({&r, "recordings/" + r.path + ".html"});
+  html_report_options index;
+  index.title = h.title;
+  index.profile = p.name;
+  atomic_file out((fs::path(o.output_dir) / "index.html").string());
+  write_html_index(entries, index, out);
+  out.commit();
+  return status;
+}
+
 }  // namespace
 
 int run_report(const report_options& o) {
   const html_request& h = o.page;
+  if (!o.check.dataset.empty()) {
+    if (h.ref_tier.empty() != h.cand_tier.empty())
+      throw usage_error("report: name both tiers to compare: --ref-tier A --cand-tier B");
+    parse_duration_option("--step", h.compare.step, duration_kind::positive);
+    segment_matching(h.compare);
+    return report_dataset(o, load_check_profile(o.check.profile));
+  }
+  if (o.check.paths.empty()) throw usage_error("report: name the files or folders, or --dataset");
+  if (h.output.empty()) throw usage_error("report: name the page to write with -o");
+  if (!o.output_dir.empty()) throw usage_error("report: -d goes with --dataset");
   if (h.ref_tier.empty() != h.cand_tier.empty())
     throw usage_error("report: name both tiers to compare: --ref-tier A --cand-tier B");
   // Bad durations are usage errors before any file is read.

@@ -16,6 +16,7 @@ namespace tiers::cli {
 struct report_options {
   check_options check;  ///< the files, profile, roles and reading options
   html_request page;
+  std::string output_dir;  ///< with --dataset: a page per recording and an index
 };
 
 /// Adds the subcommand to `app` with its options; when it is the one given, it runs after

@@ -29,7 +29,10 @@ struct dataset_source {
   std::vector<std::pair<std::string, std::string>> rename;
   std::optional<tier_source> source;  ///< who made the file's tiers
   std::optional<tier_kind> kind;      ///< what the file's tiers stand for in time
-  std::size_t offset = no_offset;     ///< where the source is in the description
+  /// `"kind": "signal"`: the files are per-frame score tables (a detector's), which `derive`
+  /// turns into tiers; the other commands leave them out.
+  bool signal = false;
+  std::size_t offset = no_offset;  ///< where the source is in the description
   std::size_t read_offset = no_offset;
 };
 

@@ -36,4 +36,16 @@ struct html_report_options {
 void write_html_report(std::span<const report_file> files, const html_report_options& options,
                        byte_sink& out);
 
+/// A recording's page in a dataset's report, for the index page that links them.
+struct report_index_entry {
+  const file_report* check = nullptr;  ///< the recording's id (as path), problems and lag
+  std::string page;                    ///< the page, relative to the index
+};
+
+/// Writes the index page of a dataset's report: the dataset's totals (recordings, those with
+/// errors and warnings, problems by severity) and a row per recording with its problems and
+/// captions' lag, linking its page. Self-contained like the report's pages.
+void write_html_index(std::span<const report_index_entry> entries,
+                      const html_report_options& options, byte_sink& out);
+
 }  // namespace tiers

@@ -129,8 +129,10 @@ void read_source(const json_node& n, dataset_description& d, std::vector<diagnos
   if (auto k = f.string("kind")) {
     if (auto kind = parse_tier_kind(*k))
       s.kind = *kind;
+    else if (*k == "signal")
+      s.signal = true;
     else
-      f.bad(*f.get("kind"), "'kind' is \"interval\" or \"instant\"");
+      f.bad(*f.get("kind"), "'kind' is \"interval\", \"instant\" or \"signal\"");
   }
   f.finish();
   d.sources.push_back(std::move(s));
@@ -175,6 +177,7 @@ std::string dataset_json(const dataset_description& d) {
     if (!s.rename.empty()) j.key("rename").string_map(s.rename);
     if (s.source) detail::write_json_source(j.key("source"), *s.source);
     if (s.kind) j.string("kind", to_string(*s.kind));
+    if (s.signal) j.string("kind", "signal");
     j.end_object();
   }
   j.end_array();

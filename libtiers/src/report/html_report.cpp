@@ -255,6 +255,17 @@ std::string overview(std::span<const report_file> files) {
   return out + "</tbody></table></section>\n";
 }
 
+// The document up to the page's header: its title, and the style inline.
+void write_head(byte_sink& out, const std::string& title) {
+  out.write(
+      fmt::format("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n"
+                  "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n"
+                  "<meta name=\"generator\" content=\"tiers {}\">\n<title>{}</title>\n<style>\n",
+                  html(version()), html(title)));
+  out.write(asset("report.css"));
+  out.write("</style>\n</head>\n<body>\n<header>\n");
+}
+
 // The data as the content of a script element: `<` is written as \u003c (valid in JSON
 // strings, the only place it can occur), so that no text can close the element early.
 void write_script_data(byte_sink& out, std::string_view json) {
@@ -280,13 +291,7 @@ void write_html_report(std::span<const report_file> files, const html_report_opt
       agreements[k]->figures.candidate = {files[k].check->path, files[k].candidate->name};
     }
 
-  out.write(
-      fmt::format("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n"
-                  "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n"
-                  "<meta name=\"generator\" content=\"tiers {}\">\n<title>{}</title>\n<style>\n",
-                  html(version()), html(o.title)));
-  out.write(asset("report.css"));
-  out.write("</style>\n</head>\n<body>\n<header>\n");
+  write_head(out, o.title);
   out.write(fmt::format("<h1>{}</h1>\n<p class=\"meta\">{} · checked with {} · tiers {}</p>\n",
                         html(o.title), plural(files.size(), "file", "files"),
                         o.profile.empty() ? std::string("the rules' default settings")
@@ -327,6 +332,63 @@ void write_html_report(std::span<const report_file> files, const html_report_opt
   out.write("\n</script>\n<script>\n");
   out.write(asset("report.js"));
   out.write("</script>\n</body>\n</html>\n");
+}
+
+namespace {
+
+// A relative link to a file: every byte but unreserved ones (RFC 3986 §2.3) and `/` written as
+// %XX, so that a recording's id with `#`, `?` or `%` in it still names its page.
+std::string link(std::string_view path) {
+  std::string out;
+  for (const char c : path) {
+    const auto u = static_cast<unsigned char>(c);
+    if ((u >= 'a' && u <= 'z') || (u >= 'A' && u <= 'Z') || (u >= '0' && u <= '9') || c == '-' ||
+        c == '.' || c == '_' || c == '~' || c == '/')
+      out += c;
+    else
+      out += fmt::format("%{:02X}", u);
+  }
+  return out;
+}
+
+}  // namespace
+
+void write_html_index(std::span<const report_index_entry> entries, const html_report_options& o,
+                      byte_sink& out) {
+  std::size_t counts[3] = {0, 0, 0}, with_errors = 0, with_warnings = 0;
+  std::string rows;
+  for (const report_index_entry& e : entries) {
+    const file_report& r = *e.check;
+    const std::size_t errors = r.count(severity::error), warnings = r.count(severity::warning),
+                      notes = r.count(severity::note);
+    counts[0] += errors;
+    counts[1] += warnings;
+    counts[2] += notes;
+    with_errors += errors > 0;
+    with_warnings += warnings > 0;
+    const bool lag = r.lag && r.lag->stats.cues > 0;
+    rows += fmt::format(
+        R"h(<tr><td><a href="{}">{}</a></td><td class="n">{}</td><td class="n">{}</td><td class="n">{}</td><td class="n">{}</td></tr>)h"
+        "\n",
+        attr(link(e.page)), html(r.path), errors, warnings, notes,
+        lag ? seconds(r.lag->stats.median) : std::string("-"));
+  }
+  write_head(out, o.title);
+  out.write(fmt::format(
+      "<h1>{}</h1>\n<p class=\"meta\">{} · checked with {} · tiers {}</p>\n"
+      "<p class=\"meta\">{} with errors, {} with warnings · {}, {}, {}</p>\n</header>\n",
+      html(o.title), plural(entries.size(), "recording", "recordings"),
+      o.profile.empty() ? std::string("the rules' default settings")
+                        : "the profile " + html(o.profile),
+      html(version()), with_errors, with_warnings, plural(counts[0], "error", "errors"),
+      plural(counts[1], "warning", "warnings"), plural(counts[2], "note", "notes")));
+  out.write(
+      R"h(<main>
+<section class="overview" aria-labelledby="overview-title"><h2 id="overview-title">Recordings</h2>
+<table><thead><tr><th scope="col">recording</th><th scope="col" class="n">errors</th><th scope="col" class="n">warnings</th><th scope="col" class="n">notes</th><th scope="col" class="n">lag (median)</th></tr></thead><tbody>
+)h");
+  out.write(rows);
+  out.write("</tbody></table></section>\n</main>\n</body>\n</html>\n");
 }
 
 }  // namespace tiers
