@@ -26,7 +26,8 @@ options, sources, renames), and asserts:
   - `agree --dataset` pools the recordings: its pooled kappa equals scikit-learn's
     cohen_kappa_score on the concatenated frames (an outside reference), and each recording's
     own kappa equals scikit-learn's on its frames;
-  - `check --dataset --shard K/3` for K = 1…3, combined, prints what one run prints;
+  - `check --dataset --shard K/3` and `agree --dataset --shard K/3` for K = 1…3, combined,
+    print what one run prints;
   - a recording that lacks a source is reported (dataset.missing-source, exit status 1) while
     the others are converted, and nothing is written for it.
 
@@ -303,6 +304,18 @@ def main():
                  f"pooled kappa {result['pooled']['kappa']}, scikit-learn {pooled}")
     checks.check(result["pooled"]["frames"]["count"] == len(ref_all),
                  f"pooled frames {result['pooled']['frames']['count']} of {len(ref_all)}")
+
+    # Agreement in three shards, pooled with --combine: what one run prints.
+    parts = []
+    for k in range(1, 4):
+        part = run(tiers, "agree", "--dataset", description, "--ref-tier", "coder-a",
+                   "--cand-tier", "coder-b", "--step", "40ms", "--shard", f"{k}/3", "--json")
+        parts.append(os.path.join(work, f"agree-{k}.json"))
+        with open(parts[-1], "w") as fh:
+            fh.write(part.stdout)
+    combined = run(tiers, "agree", "--combine", *parts, "--json")
+    checks.check(combined.stdout == agree.stdout,
+                 "agree --dataset in three shards, combined, prints what one run prints")
 
     # A recording without its aligner file: reported, the others converted.
     os.remove(os.path.join(root, "aligner", "ep05.csv"))

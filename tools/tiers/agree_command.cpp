@@ -4,7 +4,9 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <cmath>
+#include <map>
 
 #include "dataset_inputs.hpp"
 #include "text_table.hpp"
@@ -19,7 +21,7 @@ void setup_agree(CLI::App& app, int& status) {
   CLI::App* cmd = app.add_subcommand(
       "agree", "How far a candidate tier agrees with a reference, or annotators with each other");
   cmd->add_option("files", o.paths, "REF CAND, or one FILE with both tiers (or with --tiers)")
-      ->expected(1, 2)
+      ->expected(1, -1)
       ->type_name("FILE");
   cmd->add_option("--dataset", o.dataset,
                   "A dataset description: compare the tiers in each recording, and pooled over "
@@ -28,6 +30,13 @@ void setup_agree(CLI::App& app, int& status) {
   cmd->add_option("--jobs", o.jobs,
                   "With --dataset: recordings read at once (default: one per core)")
       ->type_name("N");
+  cmd->add_option("--shard", o.shard,
+                  "With --dataset: only part K of N of the recordings (pool the parts' --json "
+                  "reports with --combine)")
+      ->type_name("K/N");
+  cmd->add_flag("--combine", o.combine,
+                "The files are --json reports of agree --dataset --shard: pool their recordings "
+                "as one run would");
   cmd->add_option("--tier", o.tier, "The tier compared, when both files call it the same")
       ->type_name("NAME");
   cmd->add_option("--ref-tier", o.ref_tier, "The reference tier")->type_name("NAME");
@@ -211,6 +220,43 @@ int many_tiers(const agree_options& o) {
   return exit_ok;
 }
 
+diagnostic agree_problem(const std::string& file, std::string message) {
+  diagnostic d;
+  d.file = file;
+  d.code = "report.value";
+  d.message = std::move(message);
+  return d;
+}
+
+// The pooled report and each recording's, as text or JSON; `reference` and `candidate` name
+// the dataset and the tiers.
+void print_pooled(const agree_options& o, const tier_origin& reference,
+                  const tier_origin& candidate, const std::vector<recording_agreement>& each) {
+  std::vector<agreement_report> reports;
+  for (const recording_agreement& r : each)
+    reports.push_back(r.report);
+  agreement_report pooled = pool_agreements(reports);
+  pooled.reference = reference;
+  pooled.candidate = candidate;
+  stdout_sink out;
+  if (o.json) {
+    write_dataset_agreement_json(pooled, each, out);
+  } else {
+    std::string text = fmt::format("pooled over {} recording{} of {}\n", each.size(),
+                                   each.size() == 1 ? "" : "s", reference.file);
+    text += text_report(pooled, pooled.segments.reference, pooled.segments.candidate);
+    text_table table(
+        {"recording", ">frames", ">kappa", ">precision", ">recall", ">f1", ">segment f1"});
+    for (const recording_agreement& r : each)
+      table.add_row({r.id, std::to_string(r.report.frames.grid.frames()),
+                     num(r.report.frames.kappa), num(r.report.frames.precision),
+                     num(r.report.frames.recall), num(r.report.frames.f1),
+                     num(r.report.segments.f1)});
+    out.write(escape_controls(text + "\n" + table.render(), true));
+  }
+  out.flush();
+}
+
 // Each recording of a dataset compared, then all of them pooled: the confusion matrices summed
 // and every measure taken from the sum, as if the recordings' frames were one long grid.
 int dataset_tiers(const agree_options& o) {
@@ -222,7 +268,7 @@ int dataset_tiers(const agree_options& o) {
   if (!o.paths.empty()) throw usage_error("agree: give either files or --dataset, not both");
   if (!o.tiers.empty())
     throw usage_error("agree --dataset compares two tiers (--ref-tier, --cand-tier)");
-  const opened_dataset d = open_dataset(o.dataset, o.input);
+  const opened_dataset d = open_dataset(o.dataset, o.input, o.shard);
   std::vector<std::optional<recording_agreement>> found(d.recordings.size());
   const int status = for_each_recording(d, o.jobs, "comparing", [&](const recording& rec) {
     const loaded l{rec.id, load_recording(d, rec)};
@@ -237,37 +283,53 @@ int dataset_tiers(const agree_options& o) {
   std::vector<recording_agreement> each;
   for (std::optional<recording_agreement>& f : found)
     if (f) each.push_back(std::move(*f));
-  std::vector<agreement_report> reports;
-  for (const recording_agreement& r : each)
-    reports.push_back(r.report);
-  agreement_report pooled = pool_agreements(reports);
-  pooled.reference = {d.file, rn};
-  pooled.candidate = {d.file, cn};
-  stdout_sink out;
-  if (o.json) {
-    write_dataset_agreement_json(pooled, each, out);
-  } else {
-    std::string text = fmt::format("pooled over {} recording{} of {}\n", each.size(),
-                                   each.size() == 1 ? "" : "s", d.file);
-    text += text_report(pooled, pooled.segments.reference, pooled.segments.candidate);
-    text_table table(
-        {"recording", ">frames", ">kappa", ">precision", ">recall", ">f1", ">segment f1"});
-    for (const recording_agreement& r : each)
-      table.add_row({r.id, std::to_string(r.report.frames.grid.frames()),
-                     num(r.report.frames.kappa), num(r.report.frames.precision),
-                     num(r.report.frames.recall), num(r.report.frames.f1),
-                     num(r.report.segments.f1)});
-    out.write(escape_controls(text + "\n" + table.render(), true));
-  }
-  out.flush();
+  print_pooled(o, {d.file, rn}, {d.file, cn}, each);
   return status;
+}
+
+// The reports of shards (agree --dataset --shard K/N --json) pooled as one run pools them.
+int combine_reports(const agree_options& o) {
+  if (!o.dataset.empty() || !o.tiers.empty() || !o.shard.empty())
+    throw usage_error("agree --combine pools reports: no --dataset, --tiers or --shard");
+  std::optional<dataset_agreement> all;
+  std::map<std::string, std::string> reported_in;  // recording → report
+  bool failed = false;
+  for (const std::string& path : o.paths) {
+    const std::string file = display_name(path);
+    dataset_agreement part = take(read_dataset_agreement(read_input(path), file));
+    if (!all) all = dataset_agreement{part.reference, part.candidate, {}};
+    if (part.reference.tier != all->reference.tier || part.candidate.tier != all->candidate.tier) {
+      report_all({agree_problem(file, "compares " + quote_name(part.reference.tier) + " with " +
+                                          quote_name(part.candidate.tier) + ", not " +
+                                          quote_name(all->reference.tier) + " with " +
+                                          quote_name(all->candidate.tier))});
+    }
+    for (recording_agreement& r : part.recordings) {
+      const auto [it, fresh] = reported_in.emplace(r.id, file);
+      if (!fresh) {
+        report(agree_problem(file, "reports the recording " + quote_name(r.id) + " that " +
+                                       it->second + " reports already: combine each shard once"));
+        failed = true;
+      }
+      all->recordings.push_back(std::move(r));
+    }
+  }
+  if (failed) throw rejected();
+  std::stable_sort(
+      all->recordings.begin(), all->recordings.end(),
+      [](const recording_agreement& a, const recording_agreement& b) { return a.id < b.id; });
+  print_pooled(o, all->reference, all->candidate, all->recordings);
+  return exit_ok;
 }
 
 }  // namespace
 
 int run_agree(const agree_options& o) {
   reading_options(o.input, "");
+  if (o.combine) return combine_reports(o);
   if (!o.dataset.empty()) return dataset_tiers(o);
+  if (!o.shard.empty()) throw usage_error("agree: --shard goes with --dataset");
+  if (o.paths.size() > 2) throw usage_error("agree: compare REF CAND, or the tiers of one FILE");
   if (o.paths.empty()) throw usage_error("agree: name REF CAND, one FILE, or --dataset");
   if (!o.tiers.empty()) return many_tiers(o);
   return two_tiers(o);

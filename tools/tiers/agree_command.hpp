@@ -17,6 +17,8 @@ struct agree_options {
   std::vector<std::string> paths;
   std::string dataset;  ///< a dataset description: each recording, and all pooled
   unsigned jobs = 0;
+  std::string shard;     ///< with --dataset: part K of N of the recordings
+  bool combine = false;  ///< the files are JSON reports of shards, to pool
   std::string tier, ref_tier, cand_tier, tiers;
   comparison_options compare;
   double min_confidence = 0;

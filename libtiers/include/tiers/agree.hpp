@@ -10,6 +10,7 @@
 #include <string>
 #include <vector>
 
+#include "tiers/diagnostic.hpp"
 #include "tiers/model.hpp"
 #include "tiers/names.hpp"
 #include "tiers/sink.hpp"
@@ -89,8 +90,9 @@ struct frame_agreement {
 frame_agreement compare_frames(const tier& reference, const tier& candidate, const time_grid& grid);
 
 /// Frame agreement over several recordings as one: the confusion matrices summed (labels
-/// joined, sorted, "none" last) and every measure computed from the sum — the same as
-/// comparing the recordings' frames concatenated. The grid is `frames` long from 0.
+/// joined in the order they first appear, "none" last) and every measure computed from the
+/// sum — the same as comparing the recordings' frames concatenated. The grid is as many frames
+/// long as the parts together, from 0.
 frame_agreement pool_frames(const std::vector<frame_agreement>& parts);
 
 /// Cohen's kappa of a square confusion matrix (rows: one rater, columns: the other).
@@ -192,9 +194,19 @@ struct recording_agreement {
   agreement_report report;
 };
 /// `{"pooled": {…}, "recordings": [{"id": …, …}]}`: the pooled report and each recording's,
-/// each with the members of write_agreement_json.
+/// each with the members of write_agreement_json; a recording's segments also list every
+/// match's deviations, so that reports of parts of a dataset can be pooled later.
 void write_dataset_agreement_json(const agreement_report& pooled,
                                   const std::vector<recording_agreement>& recordings,
                                   byte_sink& out);
+
+/// Such a report read back (`report.value`, `report.member`, `json.*` problems located in
+/// `file`): the pooled report's origins, and each recording's report with every measure made
+/// anew from its counts and deviations.
+struct dataset_agreement {
+  tier_origin reference, candidate;
+  std::vector<recording_agreement> recordings;
+};
+result<dataset_agreement> read_dataset_agreement(std::string_view text, const std::string& file);
 
 }  // namespace tiers

@@ -190,11 +190,7 @@ frame_agreement pool_frames(const std::vector<frame_agreement>& parts) {
   std::map<std::string, std::size_t> index;
   for (const frame_agreement& f : parts)
     for (std::size_t i = 0; i + 1 < f.labels.size(); ++i)
-      index.emplace(f.labels[i], 0);
-  for (auto& [label, i] : index) {
-    i = out.labels.size();
-    out.labels.push_back(label);
-  }
+      if (index.emplace(f.labels[i], out.labels.size()).second) out.labels.push_back(f.labels[i]);
   const std::size_t none = out.labels.size();
   out.labels.push_back("none");
   out.confusion.assign(none + 1, std::vector<std::uint64_t>(none + 1, 0));

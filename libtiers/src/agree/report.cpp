@@ -125,7 +125,10 @@ void write_frames(json_writer& j, const frame_agreement& f) {
   j.end_object();
 }
 
-void write_segments(json_writer& j, const segment_options& o, const segment_agreement& s) {
+// With `deviations`, every match's |Δonset| and |Δoffset| too: what pooling recordings' reports
+// written apart (agree --combine) needs for exact quantiles.
+void write_segments(json_writer& j, const segment_options& o, const segment_agreement& s,
+                    bool deviations) {
   j.begin_object();
   j.string("match", name_of(segment_options::criterion_names, o.by));
   if (o.by == segment_options::criterion::overlap)
@@ -151,6 +154,16 @@ void write_segments(json_writer& j, const segment_options& o, const segment_agre
     j.seconds("p90", p90);
     j.end_object();
   }
+  if (deviations) {
+    j.key("deviations").begin_object();
+    for (const bool onset : {true, false}) {
+      j.key(onset ? "onset" : "offset").begin_array();
+      for (const segment_match& m : s.matches)
+        j.seconds(std::abs(onset ? m.onset : m.offset));
+      j.end_array();
+    }
+    j.end_object();
+  }
   j.end_object();
 }
 
@@ -161,7 +174,7 @@ void write_agreement(json_writer& j, const agreement_report& r, const std::strin
   write_origin(j.key("reference"), r.reference);
   write_origin(j.key("candidate"), r.candidate);
   write_frames(j.key("frames"), r.frames);
-  write_segments(j.key("segments"), r.matching, r.segments);
+  write_segments(j.key("segments"), r.matching, r.segments, id != nullptr);
   // The keys fixed by the command-line contract, at the top level.
   j.number("kappa", r.frames.kappa);
   j.number("precision", r.frames.precision);
