@@ -12,9 +12,9 @@ namespace {
 using detail::json_fields;
 using detail::json_node;
 
-class report_reader {
+class agreement_reader {
  public:
-  explicit report_reader(std::vector<diagnostic>& problems) : problems_(problems) {}
+  explicit agreement_reader(std::vector<diagnostic>& problems) : problems_(problems) {}
 
   void pooled(const json_node* n, dataset_agreement& out) {
     if (!n) return;
@@ -125,7 +125,7 @@ result<dataset_agreement> read_dataset_agreement(std::string_view text, const st
       detail::parse_json_object(text, r.diagnostics, 16, "an agreement report", "report");
   if (root) {
     json_fields f(*root, "the report", "report", r.diagnostics);
-    report_reader reader(r.diagnostics);
+    agreement_reader reader(r.diagnostics);
     reader.pooled(f.require("pooled") ? f.object("pooled") : nullptr, r.value);  // made anew
     if (const json_node* list = f.require("recordings") ? f.array("recordings") : nullptr)
       for (const json_node& n : list->items)
