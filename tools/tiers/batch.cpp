@@ -53,15 +53,16 @@ std::vector<input_file> expand_inputs(const std::vector<std::string>& paths) {
 
 namespace {
 
-// Draws "VERB [####....] 12/40 files" over itself, ten times a second, until all are done.
-void show_progress(const std::atomic<std::size_t>& done, std::size_t total, const char* verb) {
+// Draws "VERB [####....] 12/40 UNITS" over itself, ten times a second, until all are done.
+void show_progress(const std::atomic<std::size_t>& done, std::size_t total, const char* verb,
+                   const char* units) {
   using namespace std::chrono_literals;
   for (;;) {
     const std::size_t d = done.load();
     constexpr std::size_t width = 30;
     const std::size_t filled = total ? d * width / total : width;
-    std::fprintf(stderr, "\r%s [%s%s] %zu/%zu files", verb, std::string(filled, '#').c_str(),
-                 std::string(width - filled, '.').c_str(), d, total);
+    std::fprintf(stderr, "\r%s [%s%s] %zu/%zu %s", verb, std::string(filled, '#').c_str(),
+                 std::string(width - filled, '.').c_str(), d, total, units);
     std::fflush(stderr);
     if (d >= total) break;
     std::this_thread::sleep_for(100ms);
@@ -73,7 +74,7 @@ void show_progress(const std::atomic<std::size_t>& done, std::size_t total, cons
 }  // namespace
 
 void run_parallel(std::size_t count, unsigned jobs, const std::function<void(std::size_t)>& work,
-                  const char* verb) {
+                  const char* verb, const char* units) {
   std::atomic<std::size_t> next{0}, done{0};
   auto worker = [&] {
     for (std::size_t k; (k = next.fetch_add(1)) < count; done.fetch_add(1))
@@ -86,7 +87,7 @@ void run_parallel(std::size_t count, unsigned jobs, const std::function<void(std
     pool.emplace_back(worker);
   std::thread progress;
   if (count > 1 && isatty(STDERR_FILENO))
-    progress = std::thread(show_progress, std::cref(done), count, verb);
+    progress = std::thread(show_progress, std::cref(done), count, verb, units);
   worker();
   for (std::thread& t : pool)
     t.join();

@@ -21,9 +21,9 @@ struct input_file {
 std::vector<input_file> expand_inputs(const std::vector<std::string>& paths);
 
 /// Calls `work(k)` for k in [0, count) on `jobs` threads (0: one per core); a progress bar
-/// ("VERB [###…] k/count files") is drawn on standard error while it runs, when that is a
-/// terminal and there is more than one file.
+/// ("VERB [###…] k/count UNITS") is drawn on standard error while it runs, when that is a
+/// terminal and there is more than one.
 void run_parallel(std::size_t count, unsigned jobs, const std::function<void(std::size_t)>& work,
-                  const char* verb);
+                  const char* verb, const char* units = "files");
 
 }  // namespace tiers::cli

@@ -130,7 +130,7 @@ std::vector<file_report> check_files(const std::vector<std::string>& files, cons
         }
         if (stream) pass_on(k);
       },
-      "checking");
+      "checking", dataset ? "recordings" : "files");
   std::vector<file_report> reports = std::move(results);
   if (whole_dataset) check_dataset(reports, p);
   return reports;

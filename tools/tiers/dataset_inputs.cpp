@@ -237,7 +237,7 @@ std::vector<std::optional<document_summary>> summarize_recordings(const opened_d
           if (p.level == severity::error) report(p);
         if (r.ok) out[k] = summarize(r.doc);
       },
-      "reading");
+      "reading", "recordings");
   return out;
 }
 
@@ -260,7 +260,7 @@ int for_each_recording(const opened_dataset& d, unsigned jobs, const char* verb,
         }
         ++failed;
       },
-      verb);
+      verb, "recordings");
   if (failed > 0)
     std::fprintf(stderr, "tiers: %zu of %zu recordings failed (see above)\n", failed.load(),
                  d.recordings.size());
