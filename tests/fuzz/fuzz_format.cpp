@@ -38,9 +38,11 @@ std::uint32_t hex_value(std::string_view digits, bool& ok) {
 
 // The input without the parts that carry no data by design: a table's header row (a column's
 // name reaches the document only through the values under it; a header with no rows is an
-// empty table) and the comment lines of the tiers format.
+// empty table), after a byte order mark and empty lines, and the comment lines of the tiers
+// format.
 std::string data_of(std::string_view in, std::string_view format) {
   if (format == "csv" || format == "tsv") {
+    if (in.starts_with("\xEF\xBB\xBF")) in.remove_prefix(3);  // a byte order mark, then the table
     bool quoted = false;
     std::size_t k = in.find_first_not_of("\r\n");  // empty lines before the header
     for (; k < in.size(); ++k) {
