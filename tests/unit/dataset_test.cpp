@@ -151,6 +151,22 @@ TEST_CASE("recordings are found by their sources, and what each lacks is known",
   CHECK_FALSE(r.value[1].complete());
   CHECK(r.value[2].id == "ep03");
 
+  // A link that stays inside the folder is a file like any other; one that leads out is refused.
+  touch(root.parent_path() / "tiers-dataset-elsewhere" / "secret.csv");
+  fs::create_symlink(root / "aligner/ep03.csv", root / "aligner/ep04.csv");
+  const auto linked = find_recordings(d, root.string(), "d.json");
+  REQUIRE(linked.ok());
+  CHECK(linked.value.size() == 4);
+  fs::create_symlink(root.parent_path() / "tiers-dataset-elsewhere" / "secret.csv",
+                     root / "aligner/ep05.csv");
+  const auto outside = find_recordings(d, root.string(), "d.json");
+  REQUIRE_FALSE(outside.ok());
+  CHECK(outside.diagnostics.front().code == "dataset.outside");
+  CHECK(outside.diagnostics.front().message.find("aligner/ep05.csv") != std::string::npos);
+  fs::remove(root / "aligner/ep05.csv");
+  fs::remove(root / "aligner/ep04.csv");
+  fs::remove_all(root.parent_path() / "tiers-dataset-elsewhere");
+
   touch(root / "coding/ep01.gestures.csv");  // a second file for ep01 of that source
   const auto twice = find_recordings(d, root.string(), "d.json");
   REQUIRE_FALSE(twice.ok());

@@ -82,7 +82,9 @@ std::optional<std::string> match_pattern(std::string_view pattern, std::string_v
 /// The recordings the description finds below `root` (the description's folder), sorted by
 /// id: every file that fits a source's pattern (hidden files and folders left out; links to
 /// folders not followed). Two files of one source for one recording are an error
-/// (`dataset.ambiguous`) naming both, located at the source in `file`, the description.
+/// (`dataset.ambiguous`) naming both, located at the source in `file`, the description; so is
+/// a file that fits but is a link leading outside `root` once every link is followed
+/// (`dataset.outside`), as for a merge plan's inputs.
 result<std::vector<recording>> find_recordings(const dataset_description& d,
                                                const std::string& root, const std::string& file,
                                                std::string_view description_text = {});

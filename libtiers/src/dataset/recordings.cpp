@@ -67,11 +67,15 @@ bool hidden(const fs::path& p) {
 }
 
 // The files below root/folder that could fit `pattern`, relative to root with `/`, sorted.
-std::vector<std::string> candidates(const fs::path& root, const std::string& pattern) {
+// `escaping` gets those that are links leading out of the root (once every link is followed):
+// a description from someone else must not pull in files outside the folder it describes.
+std::vector<std::string> candidates(const fs::path& root, const std::string& pattern,
+                                    std::vector<std::string>& escaping) {
   const std::string folder = fixed_folder(pattern);
   const std::optional<std::size_t> depth = depth_below(pattern, folder.size());
   std::vector<std::string> out;
   std::error_code ec;
+  const fs::path inside = fs::weakly_canonical(root, ec);
   const fs::path start = folder.empty() ? root : root / folder;
   if (!fs::is_directory(start, ec)) return out;
   fs::recursive_directory_iterator it(start, fs::directory_options::skip_permission_denied, ec);
@@ -86,7 +90,14 @@ std::vector<std::string> candidates(const fs::path& root, const std::string& pat
       continue;
     }
     if (!e.is_regular_file(ec)) continue;
-    out.push_back(folder + e.path().lexically_relative(start).generic_string());
+    std::string relative = folder + e.path().lexically_relative(start).generic_string();
+    const fs::path resolved = fs::weakly_canonical(e.path(), ec);
+    const fs::path below = ec ? fs::path() : resolved.lexically_relative(inside);
+    if (below.empty() || *below.begin() == "..") {
+      escaping.push_back(std::move(relative));
+      continue;
+    }
+    out.push_back(std::move(relative));
   }
   std::sort(out.begin(), out.end());
   return out;
@@ -121,7 +132,8 @@ result<std::vector<recording>> find_recordings(const dataset_description& d,
   std::map<std::string, recording> by_id;
   for (std::size_t k = 0; k < d.sources.size(); ++k) {
     const dataset_source& s = d.sources[k];
-    for (const std::string& path : candidates(root.empty() ? "." : root, s.pattern)) {
+    std::vector<std::string> escaping;
+    for (const std::string& path : candidates(root.empty() ? "." : root, s.pattern, escaping)) {
       std::optional<std::string> id = match_pattern(s.pattern, path);
       if (!id) continue;
       recording& rec = by_id[*id];
@@ -140,6 +152,12 @@ result<std::vector<recording>> find_recordings(const dataset_description& d,
       }
       rec.files[k] = path;
     }
+    for (const std::string& path : escaping)
+      if (match_pattern(s.pattern, path))
+        r.diagnostics.push_back(problem_in(
+            file, severity::error, "dataset.outside",
+            quote_name(path) + " is a link that leads outside the description's folder; name "
+                               "files elsewhere on the command line"));
   }
   for (auto& [id, rec] : by_id)
     r.value.push_back(std::move(rec));
