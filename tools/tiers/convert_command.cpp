@@ -215,12 +215,10 @@ int convert_many(const convert_options& o) {
 // Each recording of a dataset into one file, OUT/ID.EXT: its files joined into one document.
 int convert_dataset(const convert_options& o) {
   namespace fs = std::filesystem;
-  if (o.output_dir.empty() || o.to.empty())
-    throw usage_error("convert --dataset writes a file per recording: give -d DIR and --to");
-  if (!o.inputs.empty()) throw usage_error("convert: give either inputs or --dataset, not both");
-  if (o.in_place || o.voices || !o.tiers.empty() || !o.output.empty())
-    throw usage_error("convert --dataset: -o, --in-place, --tier and --voices are for files");
-  const format& to = format_named(o.to);
+  const format& to =
+      per_recording_format("convert", !o.inputs.empty(), o.output, o.output_dir, o.to);
+  if (o.in_place || o.voices || !o.tiers.empty())
+    throw usage_error("convert --dataset: --in-place, --tier and --voices are for files");
   const opened_dataset d = open_dataset(o.dataset, o.input, o.shard);
   return for_each_output(
       d, o.output_dir, to, o.jobs, "converting",

@@ -142,14 +142,26 @@ opened_dataset open_dataset(const std::string& path, const input_options& base,
   return d;
 }
 
+diagnostic lacking_source(const opened_dataset& d, const recording& r, std::size_t k) {
+  return error_at(d.file, "dataset.missing-source",
+                  "the recording " + quote_name(r.id) + " has no file for " +
+                      quote_name(d.description.sources[k].pattern));
+}
+
 std::vector<diagnostic> lacking_sources(const opened_dataset& d, const recording& r) {
   std::vector<diagnostic> out;
   for (std::size_t k = 0; k < r.files.size(); ++k)
-    if (r.files[k].empty())
-      out.push_back(error_at(d.file, "dataset.missing-source",
-                             "the recording " + quote_name(r.id) + " has no file for " +
-                                 quote_name(d.description.sources[k].pattern)));
+    if (r.files[k].empty()) out.push_back(lacking_source(d, r, k));
   return out;
+}
+
+const format& per_recording_format(const char* command, bool named_input, const std::string& output,
+                                   const std::string& dir, const std::string& to) {
+  if (named_input || !output.empty() || dir.empty() || to.empty())
+    throw usage_error(std::string(command) +
+                      " --dataset writes a file per recording: give -d DIR and --to, and no "
+                      "input or -o");
+  return format_named(to);
 }
 
 recording_parts read_parts(const opened_dataset& d, const recording& r, bool positions) {
@@ -202,14 +214,10 @@ recording_parts read_parts(const opened_dataset& d, const recording& r, bool pos
 }
 
 recording_read read_recording(const opened_dataset& d, const recording& r, bool positions) {
-  recording_parts parts = read_parts(d, r, positions);
   recording_read out;
-  out.diagnostics = std::move(parts.diagnostics);
-  if (!parts.ok) return out;
-  out.positions = std::move(parts.positions);
-  out.caption_tier = std::move(parts.caption_tier);
-  out.instant_tiers = parts.instant_tiers;
-  result<document> joined = join_recording(std::move(parts.parts), &out.tier_files);
+  static_cast<recording_parts&>(out) = read_parts(d, r, positions);
+  if (!out.ok) return out;
+  result<document> joined = join_recording(std::move(out.parts), &out.tier_files);
   for (diagnostic& p : joined.diagnostics)
     out.diagnostics.push_back(std::move(p));
   out.ok = joined.ok();

@@ -48,30 +48,33 @@ struct recording_parts {
   source_map positions;  ///< with `positions`: the parts' tiers, in order
   std::vector<diagnostic> diagnostics;
   bool ok = false;
-  std::optional<std::string> caption_tier;
-  bool instant_tiers = true;
-};
-recording_parts read_parts(const opened_dataset& d, const recording& r, bool positions = false);
-
-/// A recording read: each of its files with its source's options, its tiers given what the
-/// source says, all joined (join_recording). `ok` is false after an error; `diagnostics` name
-/// the files they are about. With `positions`, where each tier and annotation was read.
-struct recording_read {
-  document doc;
-  source_map positions;
-  std::vector<std::string> tier_files;  ///< each tier's file, as messages name it
-  std::vector<diagnostic> diagnostics;
-  bool ok = false;
   /// The first tier of its first file of a caption format (WebVTT, TTML): the caption tier
   /// when nothing names one, as for a caption file checked alone.
   std::optional<std::string> caption_tier;
   bool instant_tiers = true;  ///< every file's format tells instant tiers from intervals
 };
+recording_parts read_parts(const opened_dataset& d, const recording& r, bool positions = false);
+
+/// A recording read: its parts (read_parts) joined (join_recording), the parts themselves
+/// moved into `doc`. `ok` is false after an error; `diagnostics` name the files they are about.
+/// With `positions`, where each tier and annotation was read.
+struct recording_read : recording_parts {
+  document doc;
+  std::vector<std::string> tier_files;  ///< each tier's file, as messages name it
+};
 recording_read read_recording(const opened_dataset& d, const recording& r, bool positions = false);
 
-/// An error (`dataset.missing-source`) for each source the recording lacks, naming the
-/// description.
+/// The error (`dataset.missing-source`, naming the description) for source `k`, which the
+/// recording lacks.
+diagnostic lacking_source(const opened_dataset& d, const recording& r, std::size_t k);
+
+/// That error for each source the recording lacks.
 std::vector<diagnostic> lacking_sources(const opened_dataset& d, const recording& r);
+
+/// The output format of a command that writes a file per recording (`command` --dataset):
+/// throws usage_error unless `-d DIR` and `--to` are given and no input (`named_input`) or -o.
+const format& per_recording_format(const char* command, bool named_input, const std::string& output,
+                                   const std::string& dir, const std::string& to);
 
 /// Reads the recording, printing its diagnostics (lacking sources first); throws rejected on
 /// errors. For the commands that need a whole recording to work on.

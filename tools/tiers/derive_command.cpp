@@ -70,11 +70,7 @@ document derive_file(const derive_options_cli& o, const std::string& path, signa
 // and `from` apply to its files, its agent (else the name its pattern gives a tier) names the
 // detector, and its `rename` names the derived tiers.
 int derive_dataset(const derive_options_cli& o, const signal_options& so, const derive_options& d) {
-  if (!o.path.empty() || !o.output.empty() || o.output_dir.empty() || o.to.empty())
-    throw usage_error(
-        "derive --dataset writes a file per recording: give -d DIR and --to, "
-        "and no input or -o");
-  const format& to = format_named(o.to);
+  const format& to = per_recording_format("derive", !o.path.empty(), o.output, o.output_dir, o.to);
   const opened_dataset ds = open_dataset(o.dataset, input_options{}, o.shard);
   const auto& sources = ds.description.sources;
   if (std::none_of(sources.begin(), sources.end(),
@@ -89,9 +85,7 @@ int derive_dataset(const derive_options_cli& o, const signal_options& so, const 
           const dataset_source& s = sources[k];
           if (!s.signal) continue;
           if (r.files[k].empty()) {
-            for (diagnostic& p : lacking_sources(ds, r))
-              if (p.message.find(quote_name(s.pattern)) != std::string::npos)
-                problems.push_back(std::move(p));
+            problems.push_back(lacking_source(ds, r, k));
             continue;
           }
           const std::string path = ds.path_of(r.files[k]);

@@ -127,11 +127,8 @@ bool edit_document(const edit_options& o, document& doc, const std::string& file
 
 int run_edit(const edit_options& o) {
   if (!o.dataset.empty()) {
-    if (!o.input.path.empty() || !o.output.empty() || o.output_dir.empty() || o.to.empty())
-      throw usage_error(
-          "edit --dataset writes a file per recording: give -d DIR and --to, "
-          "and no input or -o");
-    const format& to = format_named(o.to);
+    const format& to =
+        per_recording_format("edit", !o.input.path.empty(), o.output, o.output_dir, o.to);
     const opened_dataset d = open_dataset(o.dataset, o.input, o.shard);
     return for_each_output(d, o.output_dir, to, o.jobs, "editing",
                            [&](const recording& r, const std::string& output) {

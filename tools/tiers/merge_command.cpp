@@ -132,9 +132,7 @@ int merge_dataset(const merge_options& o, const merge_plan& plan) {
     throw usage_error(
         "merge --dataset: the recordings' files are the inputs; the plan and the "
         "command line name none");
-  if (o.output_dir.empty() || o.to.empty() || !o.output.empty())
-    throw usage_error("merge --dataset writes a file per recording: give -d DIR and --to");
-  const format& to = format_named(o.to);
+  const format& to = per_recording_format("merge", !o.paths.empty(), o.output, o.output_dir, o.to);
   const opened_dataset d = open_dataset(o.dataset, o.input, o.shard);
   return for_each_output(
       d, o.output_dir, to, o.jobs, "merging", [&](const recording& r, const std::string& output) {

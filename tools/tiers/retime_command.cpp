@@ -145,11 +145,8 @@ retimed retime_document(const retime_options_cli& o, const profile& p, document&
 // Each recording of a dataset re-timed alike; the reports, recording by recording, on
 // standard output.
 int retime_dataset(const retime_options_cli& o, const profile& p) {
-  if (!o.input.path.empty() || !o.output.empty() || o.output_dir.empty() || o.to.empty())
-    throw usage_error(
-        "retime --dataset writes a file per recording: give -d DIR and --to, "
-        "and no input or -o");
-  const format& to = format_named(o.to);
+  const format& to =
+      per_recording_format("retime", !o.input.path.empty(), o.output, o.output_dir, o.to);
   const opened_dataset d = open_dataset(o.dataset, o.input, o.shard);
   std::vector<std::optional<std::string>> reports(d.recordings.size());
   const int status = for_each_output(
