@@ -102,13 +102,13 @@ def make_recording(root, k, rng):
     return ep, rows
 
 
-def frames_of(rows, coder, count):
-    """The label of each 40 ms frame: the annotation that covers the frame's middle, as
-    docs/agreement.md defines it; annotations here lie on frame boundaries."""
-    labels = ["none"] * count
+def frames_of(rows, coder, first, count):
+    """The label of each 40 ms frame from `first` to `count`: the annotation that covers the
+    frame's middle, as docs/agreement.md defines it; annotations here lie on frame boundaries."""
+    labels = ["none"] * (count - first)
     for c, s, e, label in sorted((r for r in rows if r[0] == coder), key=lambda r: r[1]):
-        for f in range(max(s, 0), min(e, count)):
-            labels[f] = label
+        for f in range(max(s, first), min(e, count)):
+            labels[f - first] = label
     return labels
 
 
@@ -291,8 +291,9 @@ def main():
     result = json.loads(agree.stdout)
     ref_all, cand_all = [], []
     for ep, rows in recordings:
-        count = max(e for _, _, e, _ in rows)
-        a, b = frames_of(rows, "coder-a", count), frames_of(rows, "coder-b", count)
+        # Without the media's duration, the grid spans the union of the two tiers' spans.
+        first, count = min(s for _, s, _, _ in rows), max(e for _, _, e, _ in rows)
+        a, b = frames_of(rows, "coder-a", first, count), frames_of(rows, "coder-b", first, count)
         own = next((x for x in result["recordings"] if x["id"] == ep), {})
         expected = cohen_kappa_score(a, b)  # reference: scikit-learn
         checks.check(abs(own.get("kappa", 2) - expected) < 1e-9,

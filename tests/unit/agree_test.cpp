@@ -92,6 +92,59 @@ TEST_CASE("frames take the label of the annotation over their middle", "[agree]"
   CHECK(f.runs[0] == std::vector<frame_run>{{0, 2, 0}, {3, 4, 1}});
 }
 
+TEST_CASE("a grid of one frame at 30000/1001 stays on the video's frames for an hour", "[agree]") {
+  // NTSC video: frame k starts at k·1001/30000 s (SMPTE ST 12-1's rate, common practice).
+  time_grid g;
+  g.step = 33'366'667;  // rounded; the exact step is 100100000/3 ns
+  g.step_frames = 1;
+  g.rate = {30000, 1001};
+  g.end = 3600 * ns_per_second;
+  CHECK(g.frames() == 107'893);  // ⌈3600 · 30000/1001⌉ = ⌈107892.1…⌉
+  CHECK(g.frame_start(107'892) == 3'599'996'400'000);  // 107892·1001/30000 s, exactly
+  CHECK(g.frame_start(3) == 100'100'000);
+  // A 10 ms grid summed in rounded steps would be 36 µs off after an hour; this one is not: an
+  // annotation from frame 107890 to 107892 labels exactly those two frames.
+  const tier t = tier_of({});
+  tier u = t;
+  annotation a;
+  a.start = g.frame_start(107'890);
+  a.end = g.frame_start(107'892);
+  a.text = "x";
+  u.annotations.push_back(a);
+  const framed_tiers f = frame_labels({&u}, g);
+  CHECK(f.runs[0] == std::vector<frame_run>{{107'890, 107'892, 0}});
+}
+
+TEST_CASE("the grid spans the media, else the union of the tiers' spans", "[agree]") {
+  const tier a = tier_of({seg(2, 3, "x")}), b = tier_of({seg(5, 7, "y"), seg(9, 9, "p")});
+  const time_grid g = grid_over(std::nullopt, {&a, &b}, ns_per_second);
+  CHECK(g.start == 2 * ns_per_second);
+  CHECK(g.end == 9 * ns_per_second + 1);  // an instant at the end still gets its frame
+  CHECK(g.spans == time_grid::basis::tiers);
+  const time_grid m = grid_over(60 * ns_per_second, {&a, &b}, ns_per_second);
+  CHECK(m.start == 0);
+  CHECK(m.end == 60 * ns_per_second);
+  CHECK(m.spans == time_grid::basis::media);
+}
+
+TEST_CASE("a sweep keeps annotations at or above each threshold", "[agree]") {
+  tier ref = tier_of({seg(0, 10, "x")});
+  tier cand = tier_of({seg(0, 4, "x"), seg(6, 8, "x"), seg(12, 14, "x")});
+  cand.annotations[0].confidence = 0.9;
+  cand.annotations[1].confidence = 0.5;
+  cand.annotations[2].confidence = 0.2;
+  const time_grid g = grid_over(std::nullopt, {&ref, &cand}, ns_per_second);
+  const threshold_sweep s =
+      sweep_thresholds({{&ref, &cand, g}}, segment_options{}, std::nullopt, 1.0);
+  REQUIRE(s.points.size() == 3);
+  CHECK(s.points[0].threshold == 0.2);
+  CHECK(s.points[0].precision == Approx(6.0 / 8));
+  CHECK(s.points[1].precision == 1.0);
+  CHECK(s.points[1].recall == Approx(6.0 / 10));
+  CHECK(s.points[2].kept == 1);
+  CHECK(s.frames_threshold == 0.5);  // the lowest threshold at precision 1
+}
+
 TEST_CASE("a later start paints over an earlier one, splitting it", "[agree]") {
   const tier t = tier_of({seg(0, 10, "a"), seg(2, 4, "b"), seg(3, 3, "p"), seg(8, 12, "c")});
   const framed_tiers f = frame_labels({&t}, {0, 12 * ns_per_second, ns_per_second});

@@ -95,6 +95,34 @@ TEST_CASE("pieces shorter than the minimum duration are dropped; split pieces ge
   CHECK(combine_tiers(h, m, step).merged.annotations.size() == 3);
 }
 
+TEST_CASE("what was left out is counted by reason; short disagreements leave the review",
+          "[merge]") {
+  const tier h = tier_of("human", {seg(0, 2, "beat"), seg(10, 12, "beat")});
+  const tier m = tier_of("machine", {seg(1.9, 2.1, "beat", 0.8),     // a 0.1 s piece after 2
+                                     seg(10.5, 11.5, "beat", 0.9),   // wholly under a human beat
+                                     seg(20, 21, "beat", 0.2),       // below the confidence
+                                     seg(30, 30.15, "beat", 0.9)});  // kept whole: 0.15 s
+  combine_step step = step_of();
+  step.min_confidence = 0.5;
+  step.min_duration = 150'000'000;
+  step.review = "review";
+  step.review_min = 200'000'000;
+  const combined_tiers r = combine_tiers(h, m, step);
+  CHECK(r.below_confidence == 1);
+  CHECK(r.covered == 1);
+  CHECK(r.too_short == 1);  // 2–2.1
+  CHECK(r.machine_dropped == 3);
+  CHECK(r.machine_kept == 1);
+  REQUIRE(r.review);
+  // The machine-only spans 2–2.1 (0.1 s) and 30–30.15 (0.15 s) are under 0.2 s and left out;
+  // the human-only spans 0–1.9, 10–10.5 and 11.5–12 remain.
+  CHECK(describe(*r.review) == std::vector<std::string>{"- human: beat; machine: none 0-1.9",
+                                                        "- human: beat; machine: none 10-10.5",
+                                                        "- human: beat; machine: none 11.5-12"});
+  CHECK(r.review_short == 2);
+  CHECK(r.review->attributes.at("merge:review_min") == "0.2s");
+}
+
 TEST_CASE("union keeps both sides where labels differ; intersection keeps agreement", "[merge]") {
   const tier h = tier_of("human", {seg(0, 2, "stroke")});
   const tier m = tier_of("machine", {seg(1, 3, "hold"), seg(1, 3, "stroke")});

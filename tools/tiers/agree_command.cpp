@@ -49,7 +49,21 @@ void setup_agree(CLI::App& app, int& status) {
                   "threshold trades recall for precision")
       ->check(CLI::Range(0.0, 1.0))
       ->type_name("X");
-  cmd->add_flag("--json", o.json, "Print JSON for scripts");
+  cmd->add_option("--empty", o.empty,
+                  "With --tiers: a frame nobody annotated is a missing value to alpha "
+                  "(missing, the default) or a label of its own (label)")
+      ->check(one_of(empty_frames_names))
+      ->type_name("HOW");
+  cmd->add_option("--sweep", o.sweep,
+                  "Scores at every distinct confidence of the candidate (or every STEP from 0 "
+                  "to 1): choose a --min-confidence for merge")
+      ->expected(0, 1)
+      ->type_name("[STEP]");
+  cmd->add_option("--target-precision", o.target_precision,
+                  "With --sweep: name the lowest threshold whose precision reaches P")
+      ->check(CLI::Range(0.0, 1.0))
+      ->type_name("P");
+  add_report_output(*cmd, o.out);
   add_input_options(*cmd, o.input);
   cmd->callback([options, &status] { status = run_agree(*options); });
 }
@@ -94,18 +108,28 @@ tier candidate_in(const agree_options& o, const loaded& l, const std::string& na
   return c;
 }
 
-// The grid: from zero to the media's end when a document knows it, else to the last end.
-time_grid grid_for(const std::vector<const document*>& docs, const std::vector<const tier*>& tiers,
-                   const std::string& step) {
-  time_grid g;
-  g.step = parse_duration_option("--step", step, duration_kind::positive);
-  for (const document* d : docs)
-    if (d->media.duration) g.end = std::max(g.end, *d->media.duration);
-  if (g.end == 0)
-    for (const tier* t : tiers)
-      for (const annotation& a : t->annotations)
-        g.end = std::max({g.end, a.end, a.start + 1});
-  return g;
+// The grid over the whole tiers (before --min-confidence), from the media's duration when a
+// document knows it; a step or collar in frames counts at the first document's rate.
+struct grid_and_matching {
+  time_grid grid;
+  segment_options matching;
+};
+grid_and_matching grid_for(const agree_options& o, const std::vector<const document*>& docs,
+                           const std::vector<const tier*>& tiers) {
+  std::optional<time_ns> media;
+  std::optional<rational> rate;
+  for (const document* d : docs) {
+    if (d->media.duration) media = std::max(media.value_or(0), *d->media.duration);
+    if (!rate) rate = frame_rate_of(*d, o.input.rate);
+  }
+  return {step_grid(o.compare, media, tiers, rate), segment_matching(o.compare, rate)};
+}
+
+std::string step_text(const time_grid& g) {
+  if (g.step_frames > 0)
+    return fmt::format("{} frame{} at {} fps", g.step_frames, g.step_frames == 1 ? "" : "s",
+                       format_rational(g.rate));
+  return format_seconds(g.step) + " s";
 }
 
 std::string num(double v) {
@@ -121,9 +145,10 @@ std::string text_report(const agreement_report& r, std::size_t ref_count, std::s
                       ref_count);
   text += fmt::format("candidate  {}: {} ({} annotations)\n", r.candidate.file, r.candidate.tier,
                       cand_count);
-  text += fmt::format("frames     {} of {} s, {} to {}\n\n", g.frames(), format_seconds(g.step),
-                      format_clock(g.start),
-                      format_clock(g.start + static_cast<time_ns>(g.frames()) * g.step));
+  text +=
+      fmt::format("frames     {} of {}, {} to {} ({})\n\n", g.frames(), step_text(g),
+                  format_clock(g.start), format_clock(g.frame_start(g.frames())),
+                  g.spans == time_grid::basis::media ? "the media's duration" : "the tiers' spans");
   text += fmt::format("frames     kappa {}  (observed {}, by chance {})\n", num(f.kappa),
                       num(f.observed), num(f.expected));
   text += fmt::format("           precision {}  recall {}  f1 {}  (frames with a label)\n\n",
@@ -162,6 +187,52 @@ std::string text_report(const agreement_report& r, std::size_t ref_count, std::s
   return text;
 }
 
+// --sweep's step: nothing for every distinct confidence.
+std::optional<double> sweep_step(const agree_options& o) {
+  if (!o.sweep || o.sweep->empty()) return std::nullopt;
+  char* end = nullptr;
+  const double step = std::strtod(o.sweep->c_str(), &end);
+  if (*end != '\0' || !(step > 0 && step <= 1))
+    throw usage_error("--sweep: '" + *o.sweep + "' is not a step from 0 to 1 such as 0.05");
+  return step;
+}
+
+// The sweep's table: text (with the thresholds that reach the target) or CSV, or its JSON.
+std::string sweep_output(const agree_options& o, const threshold_sweep& sw,
+                         const tier_origin& reference, const tier_origin& candidate) {
+  const report_format f = o.out.chosen("agree", "the sweep's table");
+  if (f == report_format::json) {
+    return written([&](byte_sink& out) { write_sweep_json(sw, reference, candidate, out); });
+  }
+  text_table table({">threshold", ">kept", ">kept share", ">precision", ">recall", ">f1", ">kappa",
+                    ">segment precision", ">segment recall", ">segment f1"});
+  auto cell = [&](double v) {
+    return f == report_format::csv ? (std::isnan(v) ? "" : fmt::format("{}", v)) : num(v);
+  };
+  for (const sweep_point& p : sw.points)
+    table.add_row({fmt::format("{}", p.threshold), std::to_string(p.kept), cell(p.kept_share),
+                   cell(p.precision), cell(p.recall), cell(p.f1), cell(p.kappa),
+                   cell(p.segment_precision), cell(p.segment_recall), cell(p.segment_f1)});
+  if (f == report_format::csv) return table.render_csv();
+  std::string text = fmt::format(
+      "sweep      {} of {} against {} of {}: {} candidate annotations{}\n\n", candidate.tier,
+      candidate.file, reference.tier, reference.file, sw.candidates,
+      sw.unscored ? fmt::format(" ({} without a confidence, kept at every threshold)", sw.unscored)
+                  : "");
+  text += table.render();
+  if (sw.target) {
+    auto says = [&](const char* what, std::optional<double> t) {
+      return t ? fmt::format(
+                     "\n{} precision reaches {} from threshold {} (merge "
+                     "--min-confidence {})",
+                     what, *sw.target, *t, *t)
+               : fmt::format("\n{} precision reaches {} at no threshold", what, *sw.target);
+    };
+    text += says("frame", sw.frames_threshold) + says("segment", sw.segments_threshold) + "\n";
+  }
+  return escape_controls(text, true);
+}
+
 int two_tiers(const agree_options& o) {
   const loaded ref = load(o, o.paths[0]);
   const loaded cand = o.paths.size() > 1 ? load(o, o.paths[1]) : ref;
@@ -170,18 +241,26 @@ int two_tiers(const agree_options& o) {
   if (o.paths.size() == 1 && (rn.empty() || cn.empty() || rn == cn))
     throw usage_error("with one file, name two of its tiers: --ref-tier A --cand-tier B");
   const tier& r = tier_in(ref, rn);
-  const std::size_t cand_count = tier_in(cand, cn).annotations.size();
+  const tier& whole = tier_in(cand, cn);
+  const grid_and_matching g = grid_for(o, {&ref.doc, &cand.doc}, {&r, &whole});
+  if (o.sweep) {
+    const tier_origin ro{ref.file, r.name}, co{cand.file, whole.name};
+    emit(o.out, sweep_output(o,
+                             sweep_thresholds({{&r, &whole, g.grid}}, g.matching, sweep_step(o),
+                                              o.target_precision),
+                             ro, co));
+    return exit_ok;
+  }
   const tier c = candidate_in(o, cand, cn);
-  agreement_report report = compare_tiers(
-      r, c, grid_for({&ref.doc, &cand.doc}, {&r, &c}, o.compare.step), segment_matching(o.compare));
+  agreement_report report = compare_tiers(r, c, g.grid, g.matching);
   report.reference.file = ref.file;
   report.candidate.file = cand.file;
-  stdout_sink out;
-  if (o.json)
-    write_agreement_json(report, out);
-  else
-    out.write(escape_controls(text_report(report, r.annotations.size(), cand_count), true));
-  out.flush();
+  if (o.out.chosen("agree") == report_format::json) {
+    emit(o.out, written([&](byte_sink& out) { write_agreement_json(report, out); }));
+  } else {
+    emit(o.out, escape_controls(text_report(report, r.annotations.size(), whole.annotations.size()),
+                                true));
+  }
   return exit_ok;
 }
 
@@ -195,28 +274,29 @@ int many_tiers(const agree_options& o) {
     from = comma + 1;
   }
   if (tiers.size() < 2) throw usage_error("--tiers needs two tiers or more, e.g. --tiers A,B,C");
-  annotators_report r = compare_annotators(tiers, grid_for({&file.doc}, tiers, o.compare.step));
+  const empty_frames empty = named(empty_frames_names, o.empty);
+  annotators_report r = compare_annotators(tiers, grid_for(o, {&file.doc}, tiers).grid, empty);
   r.file = file.file;
-  stdout_sink out;
-  if (o.json) {
-    write_annotators_json(r, out);
-    out.flush();
+  if (o.out.chosen("agree") == report_format::json) {
+    emit(o.out, written([&](byte_sink& out) { write_annotators_json(r, out); }));
     return exit_ok;
   }
   std::string names;
   for (const std::string& t : r.tiers)
     names += (names.empty() ? "" : ", ") + t;
   std::string text = fmt::format("annotators {} ({})\n", names, r.file);
-  text += fmt::format("frames     {} of {} s, {} with two values or more\n", r.grid.frames(),
-                      format_seconds(r.grid.step), r.pairable);
+  text += fmt::format("frames     {} of {}, {} with two values or more\n", r.grid.frames(),
+                      step_text(r.grid), r.pairable);
   text += fmt::format("alpha      {} nominal", num(r.alpha));
   if (r.alpha_interval) text += fmt::format(", {} interval", num(*r.alpha_interval));
-  text += " (Krippendorff; no annotation counts as a missing value)\n\n";
+  text += empty == empty_frames::missing
+              ? " (Krippendorff; no annotation counts as a missing value: --empty label to "
+                "count it as a label)\n\n"
+              : " (Krippendorff; no annotation counts as a label of its own)\n\n";
   text_table kappas({"pair", ">kappa"});
   for (const auto& p : r.pairwise)
     kappas.add_row({p.a + " / " + p.b, num(p.kappa)});
-  out.write(escape_controls(text + kappas.render(), true));
-  out.flush();
+  emit(o.out, escape_controls(text + kappas.render(), true));
   return exit_ok;
 }
 
@@ -238,9 +318,8 @@ void print_pooled(const agree_options& o, const tier_origin& reference,
   agreement_report pooled = pool_agreements(reports);
   pooled.reference = reference;
   pooled.candidate = candidate;
-  stdout_sink out;
-  if (o.json) {
-    write_dataset_agreement_json(pooled, each, out);
+  if (o.out.chosen("agree") == report_format::json) {
+    emit(o.out, written([&](byte_sink& out) { write_dataset_agreement_json(pooled, each, out); }));
   } else {
     std::string text = fmt::format("pooled over {} recording{} of {}\n", each.size(),
                                    each.size() == 1 ? "" : "s", reference.file);
@@ -252,9 +331,8 @@ void print_pooled(const agree_options& o, const tier_origin& reference,
                      num(r.report.frames.kappa), num(r.report.frames.precision),
                      num(r.report.frames.recall), num(r.report.frames.f1),
                      num(r.report.segments.f1)});
-    out.write(escape_controls(text + "\n" + table.render(), true));
+    emit(o.out, escape_controls(text + "\n" + table.render(), true));
   }
-  out.flush();
 }
 
 // Each recording of a dataset compared, then all of them pooled: the confusion matrices summed
@@ -268,18 +346,42 @@ int dataset_tiers(const agree_options& o) {
   if (!o.paths.empty()) throw usage_error("agree: give either files or --dataset, not both");
   if (!o.tiers.empty())
     throw usage_error("agree --dataset compares two tiers (--ref-tier, --cand-tier)");
+  if (o.sweep && !o.shard.empty())
+    throw usage_error("agree --sweep pools every recording in one run: no --shard");
   const opened_dataset d = open_dataset(o.dataset, o.input, o.shard);
   std::vector<std::optional<recording_agreement>> found(d.recordings.size());
+  // For a sweep, each recording's two tiers and grid, compared at every threshold at the end.
+  struct kept_tiers {
+    tier reference, candidate;
+    grid_and_matching g;
+  };
+  std::vector<std::optional<kept_tiers>> kept(d.recordings.size());
   const int status = for_each_recording(d, o.jobs, "comparing", [&](const recording& rec) {
     const loaded l{rec.id, load_recording(d, rec)};
     const tier& r = tier_in(l, rn);
-    const tier c = candidate_in(o, l, cn);
-    agreement_report report = compare_tiers(r, c, grid_for({&l.doc}, {&r, &c}, o.compare.step),
-                                            segment_matching(o.compare));
-    report.reference.file = report.candidate.file = rec.id;
     const std::size_t k = static_cast<std::size_t>(&rec - d.recordings.data());
+    const grid_and_matching g = grid_for(o, {&l.doc}, {&r, &tier_in(l, cn)});
+    if (o.sweep) {
+      kept[k] = kept_tiers{r, tier_in(l, cn), g};
+      return;
+    }
+    agreement_report report = compare_tiers(r, candidate_in(o, l, cn), g.grid, g.matching);
+    report.reference.file = report.candidate.file = rec.id;
     found[k] = recording_agreement{rec.id, std::move(report)};
   });
+  if (o.sweep) {
+    std::vector<sweep_part> parts;
+    segment_options matching = segment_matching(o.compare);  // a collar in frames: the files'
+    for (const std::optional<kept_tiers>& t : kept)
+      if (t) {
+        if (parts.empty()) matching = t->g.matching;
+        parts.push_back({&t->reference, &t->candidate, t->g.grid});
+      }
+    emit(o.out,
+         sweep_output(o, sweep_thresholds(parts, matching, sweep_step(o), o.target_precision),
+                      {d.file, rn}, {d.file, cn}));
+    return status;
+  }
   std::vector<recording_agreement> each;
   for (std::optional<recording_agreement>& f : found)
     if (f) each.push_back(std::move(*f));
@@ -326,6 +428,13 @@ int combine_reports(const agree_options& o) {
 
 int run_agree(const agree_options& o) {
   reading_options(o.input, "");
+  check_comparison_options(o.compare);
+  if (!o.sweep && o.target_precision)
+    throw usage_error("agree: --target-precision goes with --sweep");
+  if (o.sweep && (o.combine || !o.tiers.empty()))
+    throw usage_error(
+        "agree: --sweep compares a candidate with a reference (no --tiers or --combine)");
+  if (o.sweep) sweep_step(o);
   if (o.combine) return combine_reports(o);
   if (!o.dataset.empty()) return dataset_tiers(o);
   if (!o.shard.empty()) throw usage_error("agree: --shard goes with --dataset");

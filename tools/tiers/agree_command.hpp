@@ -8,6 +8,7 @@
 
 #include "cli_common.hpp"
 #include "comparison.hpp"
+#include "table_output.hpp"
 #include "tiers/agree.hpp"
 
 namespace tiers::cli {
@@ -22,7 +23,10 @@ struct agree_options {
   std::string tier, ref_tier, cand_tier, tiers;
   comparison_options compare;
   double min_confidence = 0;
-  bool json = false;
+  std::string empty = "missing";     ///< --empty: what a frame without annotation is to alpha
+  std::optional<std::string> sweep;  ///< --sweep [STEP]: "" for every distinct confidence
+  std::optional<double> target_precision;
+  report_output out;
 };
 
 /// Adds the subcommand to `app` with its options; when it is the one given, it runs after

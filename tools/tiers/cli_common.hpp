@@ -174,11 +174,34 @@ std::string format_names();
 /// What a duration option may be.
 enum class duration_kind { length, positive, offset };
 
-/// Parses a duration option (`1.5s`, `250ms`, plain seconds): a `length` is zero or more, a
-/// `positive` one more than zero, an `offset` may be negative (`-0.48s`). Frames are not taken
-/// here. Throws usage_error naming `option`.
+/// A duration option as given (`1.5s`, `250ms`, plain seconds, or `2f` frames): a `length`
+/// is zero or more, a `positive` one more than zero, an `offset` may be negative (`-0.48s`).
+/// Frames take their length from a frame rate known only once the document is read.
+struct duration_arg {
+  std::string option, text;
+  duration_value value;
+  bool negative = false;
+  bool in_frames() const { return value.frames.has_value(); }
+  /// Signed frames, for a step in frames; 0 when given in time.
+  std::int64_t frames() const {
+    return value.frames ? (negative ? -*value.frames : *value.frames) : 0;
+  }
+  /// The length in nanoseconds; frames at `rate`, rounded to the nearest nanosecond. Throws
+  /// usage_error for frames without a rate.
+  time_ns at(std::optional<rational> rate) const;
+};
+
+/// Checks a duration option; throws usage_error naming `option`.
+duration_arg parse_duration_arg(const std::string& option, const std::string& text,
+                                duration_kind kind = duration_kind::length);
+
+/// parse_duration_arg(…).at(rate).
 time_ns parse_duration_option(const std::string& option, const std::string& text,
-                              duration_kind kind = duration_kind::length);
+                              duration_kind kind = duration_kind::length,
+                              std::optional<rational> rate = std::nullopt);
+
+/// The frame rate `Nf` durations count in: the document's, else `rate_option`'s (--rate).
+std::optional<rational> frame_rate_of(const document& doc, const std::string& rate_option);
 
 /// Parses a --rate value, or throws usage_error.
 rational parse_rate_option(const std::string& text);

@@ -33,10 +33,18 @@ void setup_derive(CLI::App& app, int& status) {
   cmd->add_option("--smooth", o.smooth, "Median over this many frames first (odd; default 1)")
       ->check(CLI::PositiveNumber)
       ->type_name("N");
-  cmd->add_option("--bridge", o.bridge, "Join intervals separated by a shorter gap")
+  cmd->add_option("--bridge", o.bridge,
+                  "Join intervals separated by a shorter gap (250ms, 1.5s, or frames: 5f)")
       ->type_name("DURATION");
   cmd->add_option("--min-duration", o.min_duration, "Then drop shorter intervals")
       ->type_name("DURATION");
+  cmd->add_option("--tier-name", o.tier_name,
+                  "Name the derived tier (default: the score column's name); with several "
+                  "scores, {score} stands for each one's name: \"{score}-auto\"")
+      ->type_name("NAME");
+  cmd->add_option("--label", o.label,
+                  "The intervals' text (default: the score column's name); {score} as above")
+      ->type_name("TEXT");
   cmd->add_option("--confidence", o.confidence,
                   "Each interval's confidence: the mean score inside it (default) or the max")
       ->check(CLI::IsMember({"mean", "max"}))
@@ -63,7 +71,12 @@ document derive_file(const derive_options_cli& o, const std::string& path, signa
   const std::string text = read_input(path);
   signal_result r = read_signal(text, from, so);
   locate_all(text, r.diagnostics);
-  return derive_tiers(take(std::move(r), display_name(path)), d);
+  const signal s = take(std::move(r), display_name(path));
+  // Frames (`--bridge 5f`) count at the signal's rate.
+  d.bridge = parse_duration_option("--bridge", o.bridge, duration_kind::length, s.rate);
+  d.min_duration =
+      parse_duration_option("--min-duration", o.min_duration, duration_kind::length, s.rate);
+  return derive_tiers(s, d);
 }
 
 // Each recording's signal sources derived into one document, DIR/ID.EXT: a source's `rate`
@@ -138,8 +151,15 @@ int run_derive(const derive_options_cli& o) {
                     *o.off, o.on));
   if (o.smooth % 2 == 0) throw usage_error("--smooth: the median needs an odd number of frames");
   d.smooth = o.smooth;
-  d.bridge = parse_duration_option("--bridge", o.bridge);
-  d.min_duration = parse_duration_option("--min-duration", o.min_duration);
+  parse_duration_arg("--bridge", o.bridge);  // bad values are usage errors before any reading
+  parse_duration_arg("--min-duration", o.min_duration);
+  d.tier_name = o.tier_name;
+  d.label = o.label;
+  const bool one_score = so.columns.size() == 1;
+  if (!one_score && !o.tier_name.empty() && o.tier_name.find("{score}") == std::string::npos)
+    throw usage_error("--tier-name " + o.tier_name +
+                      " would name every score's tier alike: pick one with --scores, or put "
+                      "{score} in the name");
   d.max_confidence = o.confidence == "max";
   d.source.agent = o.agent.empty() && o.path != "-"
                        ? name_from_path(o.path)

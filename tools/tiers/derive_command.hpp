@@ -17,6 +17,7 @@ struct derive_options_cli {
   std::size_t smooth = 1;
   std::string confidence = "mean";
   std::string agent, agent_version;
+  std::string tier_name, label;  ///< `{score}` stands for the score column
   bool allow_loss = false;
   std::string dataset, output_dir;  ///< --dataset: each recording's signal sources derived
   unsigned jobs = 0;

@@ -92,7 +92,8 @@ bool edit_document(const edit_options& o, document& doc, const std::string& file
     std::vector<diagnostic> problems;
     if (name == "--shift") {
       problems =
-          shift_times(doc, parse_duration_option("--shift", o.shifts[k], duration_kind::offset));
+          shift_times(doc, parse_duration_option("--shift", o.shifts[k], duration_kind::offset,
+                                                 frame_rate_of(doc, o.input.rate)));
     } else if (name == "--scale") {
       const std::string& v = o.scales[k];
       const std::size_t colon = v.find(':');

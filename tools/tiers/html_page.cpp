@@ -28,8 +28,8 @@ void write_html_page(const html_request& h, const check_run& run, const profile&
   options.profile = p.name;
   options.max_late = p.limits.max_late;
   options.max_early = p.limits.max_early;
-  options.step = parse_duration_option("--step", h.compare.step, duration_kind::positive);
-  options.matching = segment_matching(h.compare);
+  const duration_arg step = parse_duration_arg("--step", h.compare.step, duration_kind::positive);
+  check_comparison_options(h.compare);
 
   std::vector<report_file> files(run.reports.size());
   for (std::size_t k = 0; k < files.size(); ++k) {
@@ -37,6 +37,14 @@ void write_html_page(const html_request& h, const check_run& run, const profile&
     f.check = &run.reports[k];
     if (k >= run.documents.size() || !run.documents[k]) continue;
     f.doc = &*run.documents[k];
+    // Frames count at the first drawn document's rate; a page has one grid.
+    if (k == 0) {
+      const std::optional<rational> rate = frame_rate_of(*f.doc, h.rate);
+      options.step = step.at(rate);
+      options.step_frames = step.frames();
+      options.rate = rate.value_or(rational{});
+      options.matching = segment_matching(h.compare, rate);
+    }
     if (!h.ref_tier.empty() && !h.cand_tier.empty()) {
       f.reference = named_tier(*f.doc, h.ref_tier, f.check->path);
       f.candidate = named_tier(*f.doc, h.cand_tier, f.check->path);

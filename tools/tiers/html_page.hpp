@@ -15,6 +15,7 @@ struct html_request {
   std::string title = "tiers report";
   std::string ref_tier, cand_tier;  ///< compared as in `tiers agree`, in each file
   comparison_options compare;
+  std::string rate;  ///< --rate: what a step or collar in frames counts at, when a file has none
 };
 
 /// Files drawn at most; the problems of the rest are listed. A page of a few hundred hours of

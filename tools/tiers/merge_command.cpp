@@ -50,6 +50,10 @@ void setup_merge(CLI::App& app, int& status) {
   cmd->add_option("--review", o.review,
                   "Also write a tier marking every span where human and machine disagree")
       ->type_name("NAME");
+  cmd->add_option("--review-min", o.review_min,
+                  "Leave disagreements shorter than this out of the review tier (boundary "
+                  "jitter), e.g. 0.2s or 5f")
+      ->type_name("DURATION");
   cmd->add_flag("--print-plan", o.print_plan,
                 "Print the plan these options and --plan make, and merge nothing");
   add_input_options(*cmd, o.input);
@@ -70,7 +74,13 @@ std::pair<std::string, std::string> split_pair(const std::string& option, const 
   return {text.substr(0, eq), text.substr(eq + 1)};
 }
 
-merge_plan make_plan(const merge_options& o) {
+// The plan the options make. Durations in frames count at `rate` (the inputs' frame rate, else
+// --rate's); before the inputs are read, `rate` is null and such durations are only checked.
+merge_plan make_plan(const merge_options& o, const std::optional<rational>* rate) {
+  auto duration = [&](const char* option, const std::string& text, duration_kind kind) {
+    const duration_arg d = parse_duration_arg(option, text, kind);
+    return rate ? d.at(*rate) : d.in_frames() ? 0 : d.at(std::nullopt);
+  };
   merge_plan plan;
   if (!o.plan.empty()) {
     const std::string text = read_input(o.plan);
@@ -80,15 +90,14 @@ merge_plan make_plan(const merge_options& o) {
   for (const std::string& p : o.paths)
     plan.inputs.push_back(p);
   if (!o.clash.empty()) plan.clash = named(clash_rule_names, o.clash);
-  const time_ns max_offset =
-      o.max_offset.empty()
-          ? 10 * ns_per_second
-          : parse_duration_option("--max-offset", o.max_offset, duration_kind::positive);
+  const time_ns max_offset = o.max_offset.empty()
+                                 ? 10 * ns_per_second
+                                 : duration("--max-offset", o.max_offset, duration_kind::positive);
   for (const std::string& s : o.shifts) {
     auto [tier_name, offset] = split_pair("--shift", s);
     shift_step step;
     step.tier = tier_name;
-    step.by = parse_duration_option("--shift", offset, duration_kind::offset);
+    step.by = duration("--shift", offset, duration_kind::offset);
     plan.shifts.push_back(step);
   }
   for (const std::string& s : o.aligns) {
@@ -116,17 +125,39 @@ merge_plan make_plan(const merge_options& o) {
                           "' is not a number from 0 to 1");
     }
     if (!o.min_duration.empty())
-      c.min_duration = parse_duration_option("--min-duration", o.min_duration);
+      c.min_duration = duration("--min-duration", o.min_duration, duration_kind::length);
     if (!o.review.empty()) c.review = o.review;
+    if (!o.review_min.empty()) {
+      if (o.review.empty()) throw usage_error("--review-min goes with --review");
+      c.review_min = duration("--review-min", o.review_min, duration_kind::length);
+    }
     plan.combine.push_back(c);
   } else if (!o.strategy.empty() || !o.min_confidence.empty() || !o.min_duration.empty() ||
-             !o.review.empty()) {
-    throw usage_error("--strategy, --min-confidence, --min-duration and --review go with --into");
+             !o.review.empty() || !o.review_min.empty()) {
+    throw usage_error(
+        "--strategy, --min-confidence, --min-duration, --review and --review-min go with --into");
   }
   return plan;
 }
 
 // Each recording of a dataset merged by one plan: its files are the merge's inputs.
+// Whether a duration option counts frames, so that the plan depends on the inputs' rate.
+bool counts_frames(const merge_options& o) {
+  std::vector<std::string> given{o.max_offset, o.min_duration, o.review_min};
+  for (const std::string& s : o.shifts)
+    given.push_back(s.substr(s.rfind('=') + 1));
+  return std::any_of(given.begin(), given.end(),
+                     [](const std::string& d) { return !d.empty() && d.back() == 'f'; });
+}
+
+// The frame rate of the first input that has one, else --rate's.
+std::optional<rational> inputs_rate(const merge_options& o,
+                                    const std::vector<merge_input>& inputs) {
+  for (const merge_input& in : inputs)
+    if (in.doc.media.frame_rate) return in.doc.media.frame_rate;
+  return o.input.rate.empty() ? std::nullopt : std::optional(parse_rate_option(o.input.rate));
+}
+
 int merge_dataset(const merge_options& o, const merge_plan& plan) {
   if (!plan.inputs.empty())
     throw usage_error(
@@ -140,7 +171,10 @@ int merge_dataset(const merge_options& o, const merge_plan& plan) {
         std::vector<diagnostic> problems = lacking_sources(d, r);
         problems.insert(problems.end(), parts.diagnostics.begin(), parts.diagnostics.end());
         report_all(std::move(problems));
-        const document merged = take(merge_documents(std::move(parts.parts), plan), r.id);
+        const std::optional<rational> rate = inputs_rate(o, parts.parts);
+        const document merged = take(
+            merge_documents(std::move(parts.parts), counts_frames(o) ? make_plan(o, &rate) : plan),
+            r.id);
         write_output(merged, to, output, o.allow_loss, r.id);
       });
 }
@@ -149,10 +183,12 @@ int merge_dataset(const merge_options& o, const merge_plan& plan) {
 
 int run_merge(const merge_options& o) {
   reading_options(o.input, "");  // bad option values are usage errors before any work
-  const merge_plan plan = make_plan(o);
+  const merge_plan plan = make_plan(o, nullptr);
   if (o.print_plan) {
+    const std::optional<rational> rate =
+        o.input.rate.empty() ? std::nullopt : std::optional(parse_rate_option(o.input.rate));
     stdout_sink out;
-    out.write(plan_json(plan) + "\n");
+    out.write(plan_json(make_plan(o, &rate)) + "\n");
     out.flush();
     return exit_ok;
   }
@@ -178,7 +214,9 @@ int run_merge(const merge_options& o) {
     }
   }
   if (failed) return exit_rejected;
-  const document merged = take(merge_documents(std::move(inputs), plan), "merge");
+  const std::optional<rational> rate = inputs_rate(o, inputs);
+  const document merged = take(
+      merge_documents(std::move(inputs), counts_frames(o) ? make_plan(o, &rate) : plan), "merge");
   write_output(merged, to, o.output, o.allow_loss, "merge");
   return exit_ok;
 }

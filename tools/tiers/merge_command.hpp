@@ -25,7 +25,7 @@ struct merge_options {
   std::vector<std::string> shifts;  ///< TIER=OFFSET
   std::vector<std::string> aligns;  ///< TIER=REFERENCE
   std::string max_offset;
-  std::string into, human, machine, strategy, min_confidence, min_duration, review;
+  std::string into, human, machine, strategy, min_confidence, min_duration, review, review_min;
   bool print_plan = false;
   bool allow_loss = false;
 };

@@ -106,6 +106,8 @@ int report_dataset(const report_options& o, const profile& p) {
     one.documents.emplace_back();
     if (r.ok) one.documents.back() = std::move(r.doc);
     html_request page = h;
+    page.rate = o.check.input.rate;
+    page.rate = o.check.input.rate;
     page.output = (pages / (rec.id + ".html")).string();
     page.title = h.title + ": " + rec.id;
     write_html_page(page, one, p);
@@ -130,8 +132,7 @@ int run_report(const report_options& o) {
   if (!o.check.dataset.empty()) {
     if (h.ref_tier.empty() != h.cand_tier.empty())
       throw usage_error("report: name both tiers to compare: --ref-tier A --cand-tier B");
-    parse_duration_option("--step", h.compare.step, duration_kind::positive);
-    segment_matching(h.compare);
+    check_comparison_options(h.compare);
     return report_dataset(o, load_check_profile(o.check.profile));
   }
   if (o.check.paths.empty()) throw usage_error("report: name the files or folders, or --dataset");
@@ -140,11 +141,11 @@ int run_report(const report_options& o) {
   if (h.ref_tier.empty() != h.cand_tier.empty())
     throw usage_error("report: name both tiers to compare: --ref-tier A --cand-tier B");
   // Bad durations are usage errors before any file is read.
-  parse_duration_option("--step", h.compare.step, duration_kind::positive);
-  segment_matching(h.compare);
+  check_comparison_options(h.compare);
   const profile p = load_check_profile(o.check.profile);
   check_run run = run_checks(o.check, p, html_drawn_files);
   html_request page = h;
+  page.rate = o.check.input.rate;
   if (!page.ref_tier.empty()) {
     page.ref_tier = resolve_compared(h.ref_tier, "--ref-tier", run, o.check.input);
     page.cand_tier = resolve_compared(h.cand_tier, "--cand-tier", run, o.check.input);

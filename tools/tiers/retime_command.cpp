@@ -126,14 +126,15 @@ retimed retime_document(const retime_options_cli& o, const profile& p, document&
                  "the word tier", other ? "--words FILE:TIER" : "--words TIER");
 
   retime_options ro;
-  ro.lead_in = parse_duration_option("--lead-in", o.lead_in);
-  ro.hold = parse_duration_option("--hold", o.hold);
+  const std::optional<rational> rate = frame_rate_of(doc, o.input.rate);
+  ro.lead_in = parse_duration_option("--lead-in", o.lead_in, duration_kind::length, rate);
+  ro.hold = parse_duration_option("--hold", o.hold, duration_kind::length, rate);
   ro.min_gap = o.min_gap.empty()
-                   ? p.limits.min_gap.at(doc.media.frame_rate.value_or(p.limits.frame_rate))
-                   : parse_duration_option("--min-gap", o.min_gap);
-  ro.min_duration = o.min_duration.empty()
-                        ? p.limits.min_duration
-                        : parse_duration_option("--min-duration", o.min_duration);
+                   ? p.limits.min_gap.at(rate.value_or(p.limits.frame_rate))
+                   : parse_duration_option("--min-gap", o.min_gap, duration_kind::length, rate);
+  ro.min_duration = o.min_duration.empty() ? p.limits.min_duration
+                                           : parse_duration_option("--min-duration", o.min_duration,
+                                                                   duration_kind::length, rate);
   ro.window = p.limits.window;
   ro.grid = to.time_grid;
   retimed out{retime_captions(*captions, *words, ro), *captions};

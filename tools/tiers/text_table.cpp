@@ -13,6 +13,12 @@ std::size_t display_width(const std::string& s) {
       s.begin(), s.end(), [](char c) { return (static_cast<unsigned char>(c) & 0xC0) != 0x80; }));
 }
 
+// A column's name in CSV: the title as an identifier (`kept share` → `kept_share`).
+std::string csv_title(std::string title) {
+  std::replace(title.begin(), title.end(), ' ', '_');
+  return title;
+}
+
 }  // namespace
 
 text_table::text_table(std::vector<std::string> titles) {
@@ -25,6 +31,7 @@ text_table::text_table(std::vector<std::string> titles) {
 
 void text_table::add_row(std::vector<std::string> cells) {
   cells.resize(titles_.size());
+  raw_.push_back(cells);
   // Cells hold names from files: escaped before they are measured, so columns still align.
   for (std::string& cell : cells)
     cell = escape_controls(cell);
@@ -52,6 +59,29 @@ std::string text_table::render() const {
   };
   line(titles_);
   for (const auto& row : rows_)
+    line(row);
+  return out;
+}
+
+std::string text_table::render_csv() const {
+  std::string out;
+  auto line = [&](const std::vector<std::string>& cells) {
+    for (std::size_t c = 0; c < cells.size(); ++c) {
+      if (c > 0) out += ',';
+      const std::string v = &cells == &titles_ ? csv_title(cells[c]) : cells[c];
+      if (v.find_first_of(",\"\r\n") == std::string::npos) {
+        out += v;
+        continue;
+      }
+      out += '"';
+      for (char ch : v)
+        out += ch == '"' ? std::string("\"\"") : std::string(1, ch);
+      out += '"';
+    }
+    out += "\r\n";
+  };
+  line(titles_);
+  for (const auto& row : raw_)
     line(row);
   return out;
 }

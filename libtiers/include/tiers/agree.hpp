@@ -14,6 +14,7 @@
 #include "tiers/model.hpp"
 #include "tiers/names.hpp"
 #include "tiers/sink.hpp"
+#include "tiers/time.hpp"
 
 namespace tiers {
 
@@ -21,9 +22,27 @@ namespace tiers {
 struct time_grid {
   time_ns start = 0;
   time_ns end = 0;
-  time_ns step = 10'000'000;  ///< 10 ms
+  time_ns step = 10'000'000;  ///< 10 ms; rounded to the nanosecond when counted in frames
+  /// A step counted in video frames (`--step 1f`): `step_frames` frames at `rate`. Frame k of
+  /// the grid then starts exactly k·step_frames·den/num seconds after `start`, so that a grid
+  /// of 1f at 30000/1001 stays on the video's frames however long it runs.
+  std::int64_t step_frames = 0;
+  rational rate{};
+  /// What the grid spans: the media's duration, or the union of the compared tiers' spans.
+  enum class basis : std::uint8_t { media, tiers };
+  static constexpr enum_name<basis> basis_names[]{{basis::media, "media"}, {basis::tiers, "tiers"}};
+  basis spans = basis::tiers;
+
   std::uint64_t frames() const;
+  /// Where frame k starts (held at the end of the time range).
+  time_ns frame_start(std::uint64_t k) const;
 };
+
+/// The grid a comparison of `tiers` uses: from 0 to the media's duration when it is known
+/// (`media_duration`), else over the union of the tiers' spans — never over what a filter
+/// left of them, so that the frame count does not move with a confidence threshold.
+time_grid grid_over(std::optional<time_ns> media_duration, const std::vector<const tier*>& tiers,
+                    time_ns step, std::int64_t step_frames = 0, rational rate = {});
 
 /// The label of every frame of `grid` in each tier, as indices into `labels` (-1: no label),
 /// kept as runs of frames with one label, so that memory and work follow the annotations, not
@@ -165,13 +184,21 @@ agreement_report compare_tiers(const tier& reference, const tier& candidate, con
 /// the tiers' names and no file.
 agreement_report pool_agreements(const std::vector<agreement_report>& parts);
 
+/// What a frame without an annotation is to Krippendorff's alpha: a missing value (a coder who
+/// said nothing there; such frames count only where two coders or more gave a label), or a
+/// label of its own ("none": saying nothing is a judgement, as in frame-wise kappa).
+enum class empty_frames : std::uint8_t { missing, label };
+inline constexpr enum_name<empty_frames> empty_frames_names[]{{empty_frames::missing, "missing"},
+                                                              {empty_frames::label, "label"}};
+
 /// Agreement among several annotators' tiers on one grid: Krippendorff's alpha (every frame a
-/// unit, no annotation a missing value), nominal, and interval too when every label is a
-/// number; and Cohen's kappa of every pair.
+/// unit; frames without an annotation as `empty` says), nominal, and interval too when every
+/// label is a number and empty frames are missing; and Cohen's kappa of every pair.
 struct annotators_report {
   std::string file;
   std::vector<std::string> tiers;
   time_grid grid;
+  empty_frames empty = empty_frames::missing;
   std::uint64_t pairable = 0;  ///< frames with two values or more
   double alpha = 0;
   std::optional<double> alpha_interval;  ///< when every label is a number
@@ -181,7 +208,8 @@ struct annotators_report {
   };
   std::vector<pair> pairwise;
 };
-annotators_report compare_annotators(const std::vector<const tier*>& tiers, const time_grid& grid);
+annotators_report compare_annotators(const std::vector<const tier*>& tiers, const time_grid& grid,
+                                     empty_frames empty = empty_frames::missing);
 
 /// The reports as JSON (docs/agreement.md): `kappa`, `precision`, `recall`, `f1` and `alpha`
 /// at the top level; undefined measures as null.
@@ -208,5 +236,45 @@ struct dataset_agreement {
   std::vector<recording_agreement> recordings;
 };
 result<dataset_agreement> read_dataset_agreement(std::string_view text, const std::string& file);
+
+/// One recording's tiers for a threshold sweep: the reference, the whole candidate tier and
+/// the grid they are compared on.
+struct sweep_part {
+  const tier* reference = nullptr;
+  const tier* candidate = nullptr;
+  time_grid grid;
+};
+
+/// The scores at one confidence threshold: the candidate annotations whose confidence is at
+/// least `threshold` (and those without one) are kept, the rest left out, as `agree
+/// --min-confidence` and `merge --min-confidence` leave them out.
+struct sweep_point {
+  double threshold = 0;
+  std::uint64_t kept = 0;                               ///< candidate annotations kept
+  double kept_share = 0;                                ///< of all candidate annotations
+  double precision = 0, recall = 0, f1 = 0, kappa = 0;  ///< frame-wise
+  double segment_precision = 0, segment_recall = 0, segment_f1 = 0;  ///< segment-wise
+};
+
+/// Scores over a range of thresholds, pooled over every part (pool_agreements), and the lowest
+/// threshold whose precision reaches a target, when one is asked for.
+struct threshold_sweep {
+  std::uint64_t candidates = 0;     ///< candidate annotations in all parts
+  std::uint64_t unscored = 0;       ///< of them, without a confidence (kept at every threshold)
+  std::vector<sweep_point> points;  ///< by threshold, increasing
+  std::optional<double> target;     ///< the precision asked for
+  std::optional<double> frames_threshold, segments_threshold;  ///< the lowest that reach it
+};
+
+/// Sweeps the thresholds: every distinct confidence of the candidate tiers when `step` is
+/// nothing, else 0, step, 2·step, … up to 1. Each threshold costs one comparison of every part.
+threshold_sweep sweep_thresholds(const std::vector<sweep_part>& parts,
+                                 const segment_options& matching, std::optional<double> step,
+                                 std::optional<double> target_precision);
+
+/// The sweep as JSON (docs/agreement.md): `{"candidates", "unscored", "target", "thresholds":
+/// {"frames", "segments"}, "points": [{"threshold", "kept", "kept_share", "precision", …}]}`.
+void write_sweep_json(const threshold_sweep& s, const tier_origin& reference,
+                      const tier_origin& candidate, byte_sink& out);
 
 }  // namespace tiers

@@ -55,14 +55,20 @@ struct derive_options {
   time_ns bridge = 0;           ///< join intervals whose gap is shorter than this
   time_ns min_duration = 0;     ///< then drop intervals shorter than this
   bool max_confidence = false;  ///< confidence is the maximum score inside, not the mean
+  /// The tiers' names and the intervals' text: `{score}` stands for the score column's name;
+  /// empty: the column's name.
+  std::string tier_name, label;
   tier_source source{source_kind::machine, std::nullopt, std::nullopt};
 };
 
-/// One interval tier per score column, named after it; each annotation's text is the column's
-/// name and its confidence the mean (or maximum) raw score of the rows inside it (when that is
-/// not in [0, 1], it is kept as the attribute `score` instead). Intervals
+/// One interval tier per score column, named after it (or `tier_name`); each annotation's text
+/// is the column's name (or `label`) and its confidence the mean (or maximum) raw score of the rows
+/// inside it (when that is not in [0, 1], it is kept as the attribute `score` instead). Intervals
 /// never span missing rows (nor are they bridged across them). The tiers record the options as
 /// attributes (`derive:on`, …); the media's frame rate is the signal's.
 document derive_tiers(const signal& s, const derive_options& options);
+
+/// `pattern` with every `{score}` replaced by `score`; `score` itself when `pattern` is empty.
+std::string derived_name(const std::string& pattern, const std::string& score);
 
 }  // namespace tiers

@@ -27,8 +27,10 @@ struct html_report_options {
   std::string profile;  ///< the profile's name, shown under the title; empty: the defaults
   time_ns max_late = 3 * ns_per_second;  ///< the lag plot's threshold lines (the profile's)
   time_ns max_early = 1'500'000'000;
-  time_ns step = 10'000'000;  ///< the agreement grid's step
-  segment_options matching;   ///< how agreement matches segments
+  time_ns step = 10'000'000;     ///< the agreement grid's step
+  std::int64_t step_frames = 0;  ///< a step in frames, at `rate` (time_grid)
+  rational rate{};
+  segment_options matching;  ///< how agreement matches segments
 };
 
 /// Writes the page: HTML with its style, script and data inline, needing no network. Text from

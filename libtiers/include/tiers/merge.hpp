@@ -33,6 +33,7 @@ struct combine_step {
   double min_confidence = 0;          ///< machine annotations with a lower confidence are left out
   time_ns min_duration = 0;           ///< trimmed pieces shorter than this are dropped
   std::optional<std::string> review;  ///< a tier marking every span where the sides disagree
+  time_ns review_min = 0;  ///< disagreements shorter than this are left out of the review tier
 };
 
 /// A time correction before combining: a constant, or an offset estimated against a tier.
@@ -99,7 +100,13 @@ struct combined_tiers {
   std::optional<tier> review;       ///< when the step names one
   std::size_t machine_kept = 0;     ///< machine annotations kept whole
   std::size_t machine_trimmed = 0;  ///< machine pieces that were cut at human boundaries
-  std::size_t machine_dropped = 0;  ///< below min_confidence, or left with nothing long enough
+  std::size_t machine_dropped =
+      0;  ///< machine annotations of which nothing is left, for any reason
+  // Why machine annotations, or pieces of them, were left out, each reason counted apart:
+  std::size_t below_confidence = 0;  ///< annotations under min_confidence
+  std::size_t covered = 0;           ///< annotations wholly replaced by the human side's
+  std::size_t too_short = 0;         ///< pieces shorter than min_duration
+  std::size_t review_short = 0;      ///< disagreements shorter than review_min, not in the review
 };
 combined_tiers combine_tiers(const tier& human, const tier& machine, const combine_step& step);
 

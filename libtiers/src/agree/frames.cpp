@@ -24,11 +24,22 @@ double harmonic(double p, double r) {
   return p + r == 0 ? 0 : 2 * p * r / (p + r);
 }
 
-// The first k whose value 2·(k·step) + step, twice the frame's middle, is at least `twice`
-// (wide arithmetic: twice a time may not fit in 64 bits).
-detail::i128 first_frame_from(detail::i128 twice, time_ns step) {
-  const detail::i128 n = twice - step;  // want 2·k·step ≥ n
-  const detail::i128 d = 2 * static_cast<detail::i128>(step);
+// A grid's step as an exact fraction p/q of a nanosecond: a step in frames is
+// n·den·10⁹/num ns, rarely a whole number.
+struct exact_step {
+  detail::i128 p, q;
+};
+exact_step exact(const time_grid& g) {
+  if (g.step_frames > 0)
+    return {static_cast<detail::i128>(g.step_frames) * g.rate.den * 1'000'000'000, g.rate.num};
+  return {g.step, 1};
+}
+
+// The first k whose frame middle, at (k + ½)·p/q after the grid's start, is at or after
+// `since` (ns after the start): (2k + 1)·p ≥ 2·since·q. Wide arithmetic throughout.
+detail::i128 first_frame_from(detail::i128 since, exact_step s) {
+  const detail::i128 n = 2 * since * s.q - s.p;  // want 2·k·p ≥ n
+  const detail::i128 d = 2 * s.p;
   return n <= 0 ? -((-n) / d) : (n + d - 1) / d;
 }
 
@@ -106,9 +117,39 @@ void score_frames(frame_agreement& out) {
 }  // namespace
 
 std::uint64_t time_grid::frames() const {
-  if (step <= 0 || end <= start) return 0;
-  const detail::i128 span = static_cast<detail::i128>(end) - start;
-  return static_cast<std::uint64_t>((span + step - 1) / step);
+  const exact_step s = exact(*this);
+  if (s.p <= 0 || s.q <= 0 || end <= start) return 0;
+  const detail::i128 span = (static_cast<detail::i128>(end) - start) * s.q;
+  return static_cast<std::uint64_t>((span + s.p - 1) / s.p);
+}
+
+time_ns time_grid::frame_start(std::uint64_t k) const {
+  const exact_step s = exact(*this);
+  // Rounded to the nearest nanosecond, as frame_time rounds a frame's start.
+  const detail::i128 at = start + (static_cast<detail::i128>(k) * s.p * 2 + s.q) / (2 * s.q);
+  return static_cast<time_ns>(std::min(at, detail::time_max));
+}
+
+time_grid grid_over(std::optional<time_ns> media_duration, const std::vector<const tier*>& tiers,
+                    time_ns step, std::int64_t step_frames, rational rate) {
+  time_grid g;
+  g.step = step;
+  g.step_frames = step_frames;
+  g.rate = rate;
+  if (media_duration && *media_duration > 0) {
+    g.end = *media_duration;
+    g.spans = time_grid::basis::media;
+    return g;
+  }
+  bool any = false;
+  for (const tier* t : tiers)
+    for (const annotation& a : t->annotations) {
+      g.start = any ? std::min(g.start, a.start) : a.start;
+      g.end = any ? std::max(g.end, a.end) : a.end;
+      if (a.end == a.start) g.end = std::max(g.end, detail::saturating_add(a.start, 1));
+      any = true;
+    }
+  return g;
 }
 
 framed_tiers frame_labels(const std::vector<const tier*>& tiers, const time_grid& grid) {
@@ -116,6 +157,7 @@ framed_tiers frame_labels(const std::vector<const tier*>& tiers, const time_grid
   out.frames = grid.frames();
   std::unordered_map<std::string, std::int32_t> index;
   const auto n = static_cast<detail::i128>(out.frames);
+  const exact_step step = exact(grid);
   for (const tier* t : tiers) {
     std::vector<const annotation*> order;
     for (const annotation& a : t->annotations)
@@ -130,12 +172,12 @@ framed_tiers frame_labels(const std::vector<const tier*>& tiers, const time_grid
       const detail::i128 since = static_cast<detail::i128>(a->start) - grid.start;
       if (a->end == a->start) {
         if (since < 0) continue;
-        from = since / grid.step;
+        from = since * step.q / step.p;
         to = from + 1;
       } else {
-        // Frames whose middle lies in [start, end): compare twice the times, exactly.
-        from = first_frame_from(2 * since, grid.step);
-        to = first_frame_from(2 * (static_cast<detail::i128>(a->end) - grid.start), grid.step);
+        // Frames whose middle lies in [start, end).
+        from = first_frame_from(since, step);
+        to = first_frame_from(static_cast<detail::i128>(a->end) - grid.start, step);
       }
       from = std::max<detail::i128>(from, 0);
       to = std::min(to, n);
@@ -205,8 +247,20 @@ frame_agreement pool_frames(const std::vector<frame_agreement>& parts) {
         frames += f.confusion[i][j];
       }
   }
-  if (!parts.empty()) out.grid.step = parts.front().grid.step;
-  out.grid.end = static_cast<time_ns>(frames) * out.grid.step;
+  if (!parts.empty()) {
+    out.grid.step = parts.front().grid.step;
+    out.grid.step_frames = parts.front().grid.step_frames;
+    out.grid.rate = parts.front().grid.rate;
+  }
+  // The pooled grid is the parts' frames end to end: it spans media only if each part did.
+  out.grid.spans = std::all_of(parts.begin(), parts.end(),
+                               [](const frame_agreement& f) {
+                                 return f.grid.spans == time_grid::basis::media;
+                               }) &&
+                           !parts.empty()
+                       ? time_grid::basis::media
+                       : time_grid::basis::tiers;
+  out.grid.end = out.grid.frame_start(frames);
   score_frames(out);
   return out;
 }

@@ -36,9 +36,11 @@ agreement_report pool_agreements(const std::vector<agreement_report>& parts) {
   return out;
 }
 
-annotators_report compare_annotators(const std::vector<const tier*>& tiers, const time_grid& grid) {
+annotators_report compare_annotators(const std::vector<const tier*>& tiers, const time_grid& grid,
+                                     empty_frames empty) {
   annotators_report r;
   r.grid = grid;
+  r.empty = empty;
   for (const tier* t : tiers)
     r.tiers.push_back(t->name);
   const framed_tiers f = frame_labels(tiers, grid);
@@ -57,17 +59,20 @@ annotators_report compare_annotators(const std::vector<const tier*>& tiers, cons
     auto& n = nominal.emplace_back();
     auto& i = interval.emplace_back();
     for (const std::int32_t v : l) {
-      const bool given = v >= 0;
-      n.push_back(given ? std::optional<double>(v) : std::nullopt);
-      i.push_back(given && all_numeric ? std::optional<double>(numeric[static_cast<std::size_t>(v)])
-                                       : std::nullopt);
+      const bool given = v >= 0 || empty == empty_frames::label;
+      n.push_back(given ? std::optional<double>(v) : std::nullopt);  // "none" is -1
+      i.push_back(v >= 0 && all_numeric
+                      ? std::optional<double>(numeric[static_cast<std::size_t>(v)])
+                      : std::nullopt);
       values += given;
     }
     weights.push_back(to - from);
     if (values >= 2) r.pairable += to - from;
   });
   r.alpha = krippendorff_alpha(nominal, weights, alpha_metric::nominal);
-  if (all_numeric) r.alpha_interval = krippendorff_alpha(interval, weights, alpha_metric::interval);
+  // "No label" has no place on a numeric scale: interval alpha only where it is missing.
+  if (all_numeric && empty == empty_frames::missing)
+    r.alpha_interval = krippendorff_alpha(interval, weights, alpha_metric::interval);
   for (std::size_t i = 0; i < tiers.size(); ++i)
     for (std::size_t j = i + 1; j < tiers.size(); ++j)
       r.pairwise.push_back(
@@ -86,11 +91,22 @@ void write_origin(json_writer& j, const tier_origin& o) {
   j.end_object();
 }
 
+// The grid's members: its step (with the frames it counts, when given in frames), its span and
+// what that span is.
+void write_grid(json_writer& j, const time_grid& g) {
+  j.seconds("step", g.step);
+  if (g.step_frames > 0) {
+    j.count("step_frames", static_cast<std::uint64_t>(g.step_frames));
+    j.string("frame_rate", format_rational(g.rate));
+  }
+  j.seconds("start", g.start);
+  j.seconds("end", g.end);
+  j.string("spans", name_of(time_grid::basis_names, g.spans));
+}
+
 void write_frames(json_writer& j, const frame_agreement& f) {
   j.begin_object(true);
-  j.seconds("step", f.grid.step);
-  j.seconds("start", f.grid.start);
-  j.seconds("end", f.grid.end);
+  write_grid(j, f.grid);
   j.count("count", f.grid.frames());
   j.number("observed", f.observed);
   j.number("expected", f.expected);
@@ -210,8 +226,9 @@ void write_annotators_json(const annotators_report& r, byte_sink& out) {
   j.begin_object(true);
   j.string("file", r.file);
   j.key("tiers").string_array(r.tiers);
-  j.seconds("step", r.grid.step);
+  write_grid(j, r.grid);
   j.count("frames", r.grid.frames());
+  j.string("empty", name_of(empty_frames_names, r.empty));
   j.count("pairable_frames", r.pairable);
   j.number("alpha", r.alpha);
   j.number("alpha_interval", r.alpha_interval.value_or(std::nan("")));
@@ -221,6 +238,46 @@ void write_annotators_json(const annotators_report& r, byte_sink& out) {
     j.string("a", p.a);
     j.string("b", p.b);
     j.number("kappa", p.kappa);
+    j.end_object();
+  }
+  j.end_array();
+  j.end_object();
+  out.put('\n');
+}
+
+void write_sweep_json(const threshold_sweep& s, const tier_origin& reference,
+                      const tier_origin& candidate, byte_sink& out) {
+  json_writer j(out);
+  auto maybe = [&](const char* key, std::optional<double> v) {
+    j.key(key);
+    if (v)
+      j.number(*v);
+    else
+      j.null();
+  };
+  j.begin_object(true);
+  write_origin(j.key("reference"), reference);
+  write_origin(j.key("candidate"), candidate);
+  j.count("candidates", s.candidates);
+  j.count("unscored", s.unscored);
+  maybe("target", s.target);
+  j.key("thresholds").begin_object();
+  maybe("frames", s.frames_threshold);
+  maybe("segments", s.segments_threshold);
+  j.end_object();
+  j.key("points").begin_array(true);
+  for (const sweep_point& p : s.points) {
+    j.begin_object();
+    j.number("threshold", p.threshold);
+    j.count("kept", p.kept);
+    j.number("kept_share", p.kept_share);
+    j.number("precision", p.precision);
+    j.number("recall", p.recall);
+    j.number("f1", p.f1);
+    j.number("kappa", p.kappa);
+    j.number("segment_precision", p.segment_precision);
+    j.number("segment_recall", p.segment_recall);
+    j.number("segment_f1", p.segment_f1);
     j.end_object();
   }
   j.end_array();

@@ -71,6 +71,22 @@ class agreement_reader {
     out.grid.step = seconds(f.get("step"));
     out.grid.start = seconds(f.get("start"));
     out.grid.end = seconds(f.get("end"));
+    if (const json_node* sf = f.get("step_frames"))
+      out.grid.step_frames = static_cast<std::int64_t>(count(*sf));
+    if (auto rate = f.string("frame_rate")) {
+      if (auto r = parse_rational(*rate))
+        out.grid.rate = *r;
+      else
+        bad(*f.get("frame_rate"), "a frame rate such as \"25\" or \"30000/1001\" was expected");
+    }
+    if (out.grid.step_frames > 0 && out.grid.rate.num == 0)
+      bad(n, "a step in frames needs its 'frame_rate'");
+    if (auto spans = f.string("spans")) {
+      if (auto b = value_named(time_grid::basis_names, *spans))
+        out.grid.spans = *b;
+      else
+        bad(*f.get("spans"), "'spans' is \"media\" or \"tiers\"");
+    }
     const json_node* confusion = f.require("confusion") ? f.object("confusion") : nullptr;
     if (!confusion) return;
     json_fields c(*confusion, "the confusion matrix", "report", problems_);

@@ -79,7 +79,8 @@ document derive_tiers(const signal& s, const derive_options& options) {
       joined.push_back(x);
     }
     tier& t = doc.tiers.emplace_back();
-    t.name = s.names[c];
+    t.name = derived_name(options.tier_name, s.names[c]);
+    const std::string label = derived_name(options.label, s.names[c]);
     t.source = options.source;
     t.attributes = {{"derive:on", number_text(on)},
                     {"derive:off", number_text(off)},
@@ -108,11 +109,24 @@ document derive_tiers(const signal& s, const derive_options& options) {
         a.confidence = conf;
       else
         a.attributes["score"] = number_text(conf);
-      a.text = s.names[c];
+      a.text = label;
       t.annotations.push_back(std::move(a));
     }
   }
   return doc;
+}
+
+std::string derived_name(const std::string& pattern, const std::string& score) {
+  if (pattern.empty()) return score;
+  std::string out;
+  for (std::size_t at = 0; at < pattern.size();) {
+    const std::size_t hole = pattern.find("{score}", at);
+    out.append(pattern, at, hole == std::string::npos ? std::string::npos : hole - at);
+    if (hole == std::string::npos) break;
+    out += score;
+    at = hole + 7;
+  }
+  return out;
 }
 
 }  // namespace tiers

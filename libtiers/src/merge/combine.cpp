@@ -56,6 +56,7 @@ std::vector<source_annotation> sources(const tier& human, const tier& machine,
     // No confidence is no evidence against an annotation: it stays.
     if (a.confidence && *a.confidence < step.min_confidence) {
       ++out.machine_dropped;
+      ++out.below_confidence;
       continue;
     }
     all.push_back({&a, false});
@@ -141,10 +142,17 @@ void place_copies(const std::vector<source_annotation>& all,
     const bool whole =
         it != runs.end() && it->second.size() == 1 && it->second[0] == std::pair(a.start, a.end);
     run_list pieces;
-    if (it != runs.end())
+    std::size_t short_pieces = 0;
+    if (it != runs.end()) {
       for (const auto& p : it->second)
-        if (whole || p.second - p.first >= step.min_duration) pieces.push_back(p);
+        if (whole || p.second - p.first >= step.min_duration)
+          pieces.push_back(p);
+        else
+          ++short_pieces;
+    }
     if (!s.human) {
+      out.too_short += short_pieces;
+      if (it == runs.end()) ++out.covered;
       if (whole)
         ++out.machine_kept;
       else if (pieces.empty())
@@ -166,12 +174,17 @@ void place_copies(const std::vector<source_annotation>& all,
 }
 
 // The review tier: one annotation per span where the sides disagree, saying how.
-tier review_tier(const tier& human, const tier& machine, const std::string& name,
-                 const std::vector<disagreement>& review) {
+tier review_tier(const tier& human, const tier& machine, const combine_step& step,
+                 const std::vector<disagreement>& review, std::size_t& left_out) {
   tier r;
-  r.name = name;
+  r.name = *step.review;
   r.attributes = {{"merge:human", human.name}, {"merge:machine", machine.name}};
+  if (step.review_min > 0) r.attributes["merge:review_min"] = format_seconds(step.review_min) + "s";
   for (const disagreement& d : review) {
+    if (d.to - d.from < step.review_min) {
+      ++left_out;
+      continue;
+    }
     annotation a;
     a.start = d.from;
     a.end = d.to;
@@ -200,7 +213,7 @@ combined_tiers combine_tiers(const tier& human, const tier& machine, const combi
   const std::vector<source_annotation> all = sources(human, machine, step, out);
   const sweep_result swept = sweep(all, step.strategy);
   place_copies(all, swept.runs, step, out);
-  if (step.review) out.review = review_tier(human, machine, *step.review, swept.review);
+  if (step.review) out.review = review_tier(human, machine, step, swept.review, out.review_short);
   return out;
 }
 

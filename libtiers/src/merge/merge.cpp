@@ -1,6 +1,7 @@
 // Merging documents of one recording: media and metadata joined, tier names kept apart by
 // the clash rule, shifts applied (constant or estimated), combinations added.
 #include <algorithm>
+#include <charconv>
 #include <filesystem>
 #include <map>
 #include <set>
@@ -13,6 +14,12 @@
 
 namespace tiers {
 namespace {
+
+// A number as written: 0.5, not 0.500000.
+std::string shortest(double v) {
+  char buf[32];
+  return {buf, std::to_chars(buf, buf + sizeof buf, v).ptr};
+}
 
 using detail::quote_name;
 
@@ -207,11 +214,18 @@ class merger {
            quote_name(c.into) + ": " +
                plural(h->annotations.size(), "human annotation", "human annotations") + ", " +
                plural(r.machine_kept, "machine annotation", "machine annotations") + " whole, " +
-               plural(r.machine_trimmed, "trimmed piece", "trimmed pieces") + ", " +
-               std::to_string(r.machine_dropped) + " left out" +
+               plural(r.machine_trimmed, "trimmed piece", "trimmed pieces") +
+               "; left out: " + std::to_string(r.below_confidence) + " below confidence " +
+               shortest(c.min_confidence) + ", " + std::to_string(r.covered) +
+               " covered by human annotations, " + plural(r.too_short, "piece", "pieces") +
+               " shorter than " + format_seconds(c.min_duration) + " s" +
                (r.review
                     ? "; " + plural(r.review->annotations.size(), "disagreement", "disagreements") +
-                          " in " + quote_name(r.review->name)
+                          " in " + quote_name(r.review->name) +
+                          (c.review_min > 0
+                               ? " (" + std::to_string(r.review_short) + " shorter than " +
+                                     format_seconds(c.review_min) + " s left out)"
+                               : "")
                     : ""));
     out_.value.tiers.push_back(std::move(r.merged));
     if (r.review) out_.value.tiers.push_back(std::move(*r.review));

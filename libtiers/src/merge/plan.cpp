@@ -93,6 +93,7 @@ void read_combine(const json_node& n, merge_plan& plan, std::vector<diagnostic>&
   }
   if (auto d = duration_member(f, "min_duration")) c.min_duration = *d;
   c.review = f.string("review");
+  if (auto d = duration_member(f, "review_min")) c.review_min = *d;
   f.finish();
   plan.combine.push_back(std::move(c));
 }
@@ -171,6 +172,7 @@ std::string plan_json(const merge_plan& plan) {
     j.number("min_confidence", c.min_confidence);
     j.string("min_duration", duration_text(c.min_duration));
     if (c.review) j.string("review", *c.review);
+    if (c.review_min > 0) j.string("review_min", duration_text(c.review_min));
     j.end_object();
   }
   j.end_array();

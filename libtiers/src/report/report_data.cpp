@@ -151,24 +151,12 @@ void write_file(json_writer& j, const report_file& f, const agreement_view* agre
   j.end_object();
 }
 
-// Where frame k starts; the last frame may run past the grid's end, so past the model's range.
-time_ns frame_start(const time_grid& grid, std::uint64_t k) {
-  const i128 at = grid.start + static_cast<i128>(k) * grid.step;
-  return static_cast<time_ns>(std::min(at, time_max));
-}
-
 }  // namespace
 
 agreement_view compare_for_report(const document& doc, const tier& reference, const tier& candidate,
                                   const html_report_options& options) {
-  time_grid grid;
-  grid.step = options.step;
-  grid.end = doc.media.duration.value_or(0);
-  for (const tier* t : {&reference, &candidate})
-    for (const annotation& a : t->annotations) {
-      grid.start = std::min(grid.start, a.start);
-      grid.end = std::max({grid.end, a.end, a.start + 1});
-    }
+  const time_grid grid = grid_over(doc.media.duration, {&reference, &candidate}, options.step,
+                                   options.step_frames, options.rate);
   agreement_view view;
   view.figures = compare_tiers(reference, candidate, grid, options.matching);
   const framed_tiers framed = frame_labels({&reference, &candidate}, grid);
@@ -181,7 +169,7 @@ agreement_view compare_for_report(const document& doc, const tier& reference, co
                              : cand < 0    ? verdict::only_reference
                              : ref == cand ? verdict::agree
                                            : verdict::differ;
-        const time_ns start = frame_start(grid, from), end = frame_start(grid, to);
+        const time_ns start = grid.frame_start(from), end = grid.frame_start(to);
         if (!view.stretches.empty() && view.stretches.back().what == what &&
             view.stretches.back().end == start)
           view.stretches.back().end = end;
