@@ -5,14 +5,17 @@
 #include <memory>
 
 #include "cli_common.hpp"
+#include "table_output.hpp"
 
 namespace tiers::cli {
 
 struct info_options {
-  input_options input;
-  std::string dataset;  ///< a dataset description: the inventory of its recordings
+  input_options input;             ///< reading options (path: the one file described)
+  std::vector<std::string> paths;  ///< files or folders
+  std::string dataset;             ///< a dataset description: the inventory of its recordings
   unsigned jobs = 0;
-  bool json = false;
+  bool labels = false;  ///< per tier and label: counts, durations, share, confidence
+  report_output out;
 };
 
 /// Adds the subcommand to `app` with its options; when it is the one given, it runs after

@@ -2,6 +2,8 @@
 #pragma once
 
 #include <cstddef>
+#include <cstdint>
+#include <map>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -66,5 +68,50 @@ struct dataset_inventory {
 /// The inventory as one JSON object (docs/dataset.md): times in exact seconds.
 void write_inventory_json(const dataset_inventory& inventory, std::string_view path,
                           byte_sink& out);
+
+/// One label of one tier over every document added: the first table of a corpus paper.
+struct label_statistics {
+  std::string tier, label;
+  std::string source;  ///< the tier's source kind (`human`, `machine`), empty when unmarked
+  std::uint64_t count = 0;
+  time_ns total = 0;  ///< the annotations' durations summed (instants count 0)
+  double mean = 0;    ///< mean duration, seconds
+  double median = 0;  ///< median duration, seconds (the mean of the middle two for an even count)
+  std::optional<double> share;            ///< of the tier's summed durations; none when those are 0
+  std::optional<double> mean_confidence;  ///< over the annotations that carry a confidence
+  std::uint64_t with_confidence = 0;
+};
+
+/// Label statistics gathered document by document, tier by tier name and source kind (in the
+/// order they are first met: a human and a machine tier of one name stay apart) and label by
+/// label (most frequent first, then by label).
+class label_tally {
+ public:
+  void add(const document& doc);
+  void add(const label_tally& other);  ///< another tally's counts, as if its documents were added
+  std::size_t documents() const { return documents_; }
+  std::vector<label_statistics> table() const;
+
+ private:
+  struct label_data {
+    std::vector<time_ns> durations;
+    double confidence_sum = 0;
+    std::uint64_t with_confidence = 0;
+  };
+  struct tier_data {
+    std::string name, source;
+    std::vector<std::string> order;  ///< labels as first met
+    std::map<std::string, label_data> labels;
+  };
+  std::vector<tier_data> tiers_;
+  std::map<std::string, std::size_t> index_;
+  std::size_t documents_ = 0;
+  tier_data& tier_named(const std::string& name, const std::string& source);
+};
+
+/// The table as JSON (docs/cli.md, "info --labels"): `{"documents", "labels": [{"tier", "source",
+/// "label", "count", "total", "mean", "median", "share", "mean_confidence"}]}`, times in seconds.
+void write_labels_json(const std::vector<label_statistics>& table, std::size_t documents,
+                       byte_sink& out);
 
 }  // namespace tiers
