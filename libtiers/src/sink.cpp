@@ -36,4 +36,20 @@ string_sink::~string_sink() {
   flush();
 }
 
+void write_csv_field(byte_sink& out, std::string_view s, char delimiter) {
+  const bool needs_quotes =
+      s.find_first_of(delimiter == ',' ? std::string_view(",\"\r\n")
+                                       : std::string_view("\t\"\r\n")) != std::string_view::npos;
+  if (!needs_quotes) return out.write(s);
+  out.put('"');
+  std::size_t run = 0;
+  for (std::size_t q = s.find('"'); q != std::string_view::npos; q = s.find('"', q + 1)) {
+    out.write(s.substr(run, q + 1 - run));
+    out.put('"');
+    run = q + 1;
+  }
+  out.write(s.substr(run));
+  out.put('"');
+}
+
 }  // namespace tiers

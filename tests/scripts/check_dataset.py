@@ -10,10 +10,13 @@ fixed vocabulary and gesture phases that partition them. The test asserts:
     figure) and its coverage is reported (1.0: the captions say what the words say);
   - one planted defect in one file makes the exit status 1, with exactly that problem, located
     at that file's line, in JSON and in text;
-  - --max-warnings turns a warning into failure, and -o writes the report whole.
+  - --max-warnings turns a warning into failure, and -o writes the report whole;
+  - --lag-table writes one row per cue of every file, each at the injected lag, CSV (from the
+    streamed text run) and JSON alike.
 
 Usage: check_dataset.py TIERS OUTPUT_DIR
 """
+import csv
 import json
 import os
 import random
@@ -86,6 +89,10 @@ PROFILE = {
 }
 
 
+def report_paths(report):
+    return [f["path"] for f in report["files"]]
+
+
 def run(tiers, *args, cwd=None):
     return subprocess.run([tiers, *args], capture_output=True, text=True, cwd=cwd)
 
@@ -130,6 +137,34 @@ def main():
         if not lag or abs(lag["median"] - LAG) > 0.020 or lag["coverage"] != 1:
             fail(f"{f['path']}: lag {lag}")
     print(f"ok   42 clean files, exit 0; lag medians within 20 ms of {LAG} s, coverage reported")
+
+    # The lag table: every cue of every file, not only those over a limit, each at the lag it
+    # was shown with; the streamed text run (CSV) and the JSON run say the same.
+    table = os.path.join(out, "lag.csv")
+    r = run(tiers, "check", data, "--profile", profile, "--jobs", "2", "--lag-table", table)
+    if r.returncode != 0:
+        fail(f"--lag-table: exit status {r.returncode}: {r.stderr}")
+    with open(table, newline="") as fh:
+        rows = list(csv.DictReader(fh))
+    cues = sum(len(session(k)["tiers"][0]["annotations"]) for k in range(42))
+    if len(rows) != cues:
+        fail(f"lag table: {len(rows)} rows for {cues} cues")
+    bad = [x for x in rows if abs(float(x["lag"]) - LAG) > 1e-9
+           or abs(float(x["start"]) - float(x["word_start"]) - LAG) > 1e-9
+           or x["words"] != x["matched"] or int(x["words"]) < 5]
+    if bad:
+        fail(f"lag table rows off the planted lag: {bad[:3]}")
+    if sorted({x["file"] for x in rows}) != sorted(report_paths(report)):
+        fail("lag table: not every file is in it")
+    as_json = os.path.join(out, "lag.json")
+    r = run(tiers, "check", data, "--profile", profile, "--format", "json", "-o",
+            os.path.join(out, "lag-run.report.json"), "--lag-table", as_json)
+    with open(as_json) as fh:
+        json_rows = json.load(fh)["cues"]
+    if [(x["file"], x["cue"], x["lag"]) for x in json_rows] != \
+            [(x["file"], int(x["cue"]), float(x["lag"])) for x in rows]:
+        fail("the JSON lag table differs from the CSV one")
+    print(f"ok   lag table: {cues} cues of 42 files, each {LAG} s late, CSV and JSON alike")
 
     # One planted defect: a phase label outside the vocabulary, in one file.
     broken = os.path.join(data, "session-020.json")

@@ -9,7 +9,9 @@ Pages made here, each opened in the browser, with a screenshot left in OUTPUT_DI
   `tiers check --html` (with a file that cannot be read: listed, not drawn);
 - a document whose tier names and texts try to close the script element and open a dialog;
 - an invented hour of media (tiers-corpus, ~12,500 annotations in six tiers), whose lanes must
-  hold a bounded number of elements at the whole-file view.
+  hold a bounded number of elements at the whole-file view;
+- a lane whose annotations overlap three deep: drawn in three stacked rows, no bar over
+  another, and a long lane name with its whole text as a tooltip.
 The expected tiers of each file are what `tiers convert --to json` reads from it.
 
 Usage: report_browser.py TIERS TIERS_CORPUS SAMPLES CHECK_CORPUS OUTPUT_DIR
@@ -160,6 +162,42 @@ def run_pages(reference, tiers, corpus, samples, check_corpus, out):
     browse(reference, page, {"files": [{"tiers": tiers_of(tiers, hour), "lag": True,
                                         "agreement": True}], "problems": 1, "bounded": True},
            os.path.join(out, "hour.png"), "an hour of media: opens, drawn, bounded")
+
+    # 7. Overlapping annotations of one lane: stacked in rows, none drawn over another.
+    stacked_doc = {"format": "tiers", "version": 1, "tiers": [
+        {"name": "gestures of the first speaker in the left-hand chair, coded twice",
+         "kind": "interval", "annotations": [
+             {"start": 1, "end": 5, "text": "iconic"}, {"start": 2, "end": 3, "text": "beat"},
+             {"start": 2.5, "end": 6, "text": "deictic"}, {"start": 5.5, "end": 7, "text": "beat"},
+             {"start": 8, "end": 9, "text": "rest"}]}]}
+    stacked_path = os.path.join(out, "stacked.json")
+    with open(stacked_path, "w") as fh:
+        json.dump(stacked_doc, fh)
+    page = os.path.join(out, "stacked.html")
+    r = subprocess.run([tiers, "report", stacked_path, "-o", page], capture_output=True, text=True)
+    check("report of overlapping annotations exits 0", r.returncode == 0, r.stderr)
+    browse(reference, page, {"files": [{"tiers": [stacked_doc["tiers"][0]["name"]], "lag": False,
+                                        "agreement": False}]},
+           os.path.join(out, "stacked.png"), "overlapping annotations: page opens")
+    try:
+        boxes = reference.js(
+            "return Array.from(document.querySelectorAll('.lane[data-index] svg rect.ann'))"
+            ".map((r) => [Number(r.getAttribute('x')), Number(r.getAttribute('width')),"
+            " Number(r.getAttribute('y')), Number(r.getAttribute('height'))]);")
+        rows = reference.js("return document.querySelector('.lane[data-index]').dataset.rows;")
+        title = reference.js("return document.querySelector('.lane[data-index] .name')"
+                             ".getAttribute('title');")
+    except Exception as e:
+        boxes, rows, title = [], None, None
+        print("FAIL", e)
+    check("three rows for annotations that overlap three deep", rows == "3", str(rows))
+    clash = [(a, b) for i, a in enumerate(boxes) for b in boxes[i + 1:]
+             if a[0] < b[0] + b[1] and b[0] < a[0] + a[1]
+             and a[2] < b[2] + b[3] and b[2] < a[2] + a[3]]
+    check("no annotation's bar covers another's", len(boxes) == 5 and not clash,
+          f"{len(boxes)} bars, overlapping: {clash}")
+    check("the long lane name has its whole text as a tooltip",
+          title is not None and title.startswith(stacked_doc["tiers"][0]["name"]), str(title))
 
     print(f"screenshots in {out}")
     if failures:

@@ -4,6 +4,7 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <map>
 #include <mutex>
 #include <optional>
 
@@ -42,6 +43,20 @@ void setup_check(CLI::App& app, int& status) {
   cmd->add_option("--html", o.html,
                   "Also write the report as an HTML page that draws the files' tiers, problems "
                   "and lag (as `tiers report` does)")
+      ->type_name("FILE");
+  cmd->add_option("--min-severity", o.min_severity,
+                  "Text output: list only problems of this severity or worse (error, warning, "
+                  "note); the totals still count all")
+      ->check(CLI::IsMember({"error", "warning", "note"}))
+      ->type_name("LEVEL");
+  cmd->add_option("--limit", o.limit,
+                  "Text output: list at most N problems of each rule in each file, then how "
+                  "many more; the totals still count all")
+      ->check(positive_size())
+      ->type_name("N");
+  cmd->add_option("--lag-table", o.lag_table,
+                  "Write every caption cue's lag behind its words to FILE (.csv or .json): cue "
+                  "id, times, first matched word, lag, words in the cue and matched")
       ->type_name("FILE");
   cmd->add_option("--jobs", o.jobs, "Files checked at once (default: one per core)")
       ->type_name("N");
@@ -198,19 +213,49 @@ bool of_dataset(const problem& p) {
   return p.diag.code == "dataset.inconsistent";
 }
 
-std::string problems_text(const file_report& r, bool dataset) {
+// Which problems a text report lists: --min-severity and --limit (the totals count all).
+struct listing {
+  severity least = severity::note;
+  std::size_t limit = 0;  // per rule and file; 0: no limit
+  explicit listing(const check_options& o)
+      : least(o.min_severity == "error"     ? severity::error
+              : o.min_severity == "warning" ? severity::warning
+                                            : severity::note),
+        limit(o.limit) {}
+};
+
+std::string problems_text(const file_report& r, bool dataset, const listing& l) {
   std::string text;
-  for (const problem& p : r.problems)
-    if (of_dataset(p) == dataset) text += format_problem(p) + "\n";
+  std::map<std::string, std::size_t> listed, more;  // by rule
+  for (const problem& p : r.problems) {
+    if (of_dataset(p) != dataset || p.diag.level < l.least) continue;
+    if (l.limit > 0 && listed[p.diag.code]++ >= l.limit) {
+      ++more[p.diag.code];
+      continue;
+    }
+    text += format_problem(p) + "\n";
+  }
+  for (const auto& [rule, n] : more)
+    text += fmt::format("{}: … and {} more {}\n", r.path, n, rule);
   return text;
 }
 
-std::string problems_text(const std::vector<file_report>& reports) {
+std::string problems_text(const std::vector<file_report>& reports, const listing& l) {
   std::string text;
   for (bool dataset : {false, true})
     for (const file_report& r : reports)
-      text += problems_text(r, dataset);
+      text += problems_text(r, dataset, l);
   return text;
+}
+
+// The lag table, CSV or JSON by the file's extension, written whole or not at all.
+void write_lag_table(const std::string& path, const std::vector<lag_rows>& rows) {
+  atomic_file out(path);
+  if (path.ends_with(".json"))
+    write_lag_table_json(rows, out);
+  else
+    write_lag_table_csv(rows, out);
+  out.commit();
 }
 
 // A text report written file by file as the files are checked, keeping of each only its
@@ -220,23 +265,34 @@ check_summary check_streamed(const check_options& o, const profile& p) {
   text_report out(o);
   std::mutex guard;
   std::vector<std::vector<rule_tally>> tallies;
+  std::vector<std::optional<lag_rows>> lag_table;
   report_stream stream;
   stream.render = [&](std::size_t k, file_report& r) {
-    std::string text = problems_text(r, false);
+    std::optional<lag_rows> rows;
+    if (!o.lag_table.empty() && r.lag) rows = lag_rows{r.path, std::move(r.lag->cues)};
+    std::string text = problems_text(r, false, listing(o));
     std::vector<rule_tally> counts = tally(r);
     std::vector<problem>().swap(r.problems);  // its memory too, which `= {}` would keep
-    if (r.lag) std::vector<lag_report::point>().swap(r.lag->points);  // for drawing only
+    if (r.lag) std::vector<lag_report::cue>().swap(r.lag->cues);  // kept only for a lag table
     const std::lock_guard<std::mutex> lock(guard);
     if (tallies.size() <= k) tallies.resize(k + 1);
     tallies[k] = std::move(counts);
+    if (lag_table.size() <= k) lag_table.resize(k + 1);
+    lag_table[k] = std::move(rows);
     return text;
   };
   stream.write = [&](const std::string& text) { out.problems(text); };
   const check_run run = run_checks(o, p, 0, &stream);
   tallies.resize(run.reports.size());
   for (std::size_t k = 0; k < run.reports.size(); ++k) {
-    out.problems(problems_text(run.reports[k], true));
+    out.problems(problems_text(run.reports[k], true, listing(o)));
     add_tally(tallies[k], run.reports[k]);
+  }
+  if (!o.lag_table.empty()) {
+    std::vector<lag_rows> rows;
+    for (std::optional<lag_rows>& r : lag_table)
+      if (r) rows.push_back(std::move(*r));
+    write_lag_table(o.lag_table, rows);
   }
   out.summary(escape_controls(summary_text(run.reports, tallies) + lag_text(run.reports), true));
   return summarize(tallies);
@@ -250,7 +306,7 @@ void write_report(const check_options& o, const std::vector<file_report>& report
   auto emit = [&](byte_sink& out, bool with_problems) {
     if (o.format == "json") return write_check_json(reports, out, header);
     if (o.format == "sarif") return write_check_sarif(reports, out, used, header);
-    if (with_problems) out.write(problems_text(reports));
+    if (with_problems) out.write(problems_text(reports, listing(o)));
     out.write(
         escape_controls(summary_text(reports, tallies_of(reports)) + lag_text(reports), true));
   };
@@ -260,7 +316,7 @@ void write_report(const check_options& o, const std::vector<file_report>& report
     out.commit();
     return;
   }
-  if (o.format == "text") std::fputs(problems_text(reports).c_str(), stderr);
+  if (o.format == "text") std::fputs(problems_text(reports, listing(o)).c_str(), stderr);
   stdout_sink out;
   emit(out, false);
   out.flush();
@@ -284,6 +340,13 @@ int run_check(const check_options& o) {
   if (o.list_rules) return list_rules(p);
   if (o.paths.empty() && o.dataset.empty())
     throw usage_error("check: name the files or folders to check, or --dataset");
+  if (o.format != "text" && (o.min_severity != "note" || o.limit > 0))
+    throw usage_error("check: --min-severity and --limit shape the text report; " + o.format +
+                      " holds every problem");
+  if (!o.lag_table.empty() && !o.lag_table.ends_with(".csv") && !o.lag_table.ends_with(".json"))
+    throw usage_error("check: --lag-table writes .csv or .json, not '" + o.lag_table + "'");
+  if (!o.lag_table.empty() && o.combine)
+    throw usage_error("check: --lag-table needs the cues, which --combine's reports do not hold");
   if (!o.html.empty() && o.combine)
     throw usage_error("check: --html draws the files, which --combine does not read");
   check_summary s;
@@ -292,6 +355,12 @@ int run_check(const check_options& o) {
   } else {
     const check_run run = run_checks(o, p, o.html.empty() ? 0 : html_drawn_files);
     write_report(o, run.reports, p);
+    if (!o.lag_table.empty()) {
+      std::vector<lag_rows> rows;
+      for (const file_report& r : run.reports)
+        if (r.lag) rows.push_back({r.path, r.lag->cues});
+      write_lag_table(o.lag_table, rows);
+    }
     if (!o.html.empty()) {
       html_request page;
       page.output = o.html;

@@ -83,7 +83,8 @@ file_report check_recording(const opened_dataset& d, const recording& rec, const
     for (diagnostic& x : lacking) {
       if (level == rule_level::off) break;
       x.level = severity_of(level);
-      missing.push_back({std::move(x), {}, {}, {}, {}, {}});
+      problem& m = missing.emplace_back();
+      m.diag = std::move(x);
     }
     report.problems.insert(report.problems.begin(), std::make_move_iterator(missing.begin()),
                            std::make_move_iterator(missing.end()));

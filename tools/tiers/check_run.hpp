@@ -28,6 +28,9 @@ struct check_options {
   bool combine = false;  ///< the inputs are JSON reports of earlier runs, to join into one
   bool list_rules = false;
   bool list_profiles = false;
+  std::string min_severity = "note";  ///< text output: problems below this are not listed
+  std::size_t limit = 0;              ///< text output: at most this many per rule and file; 0: all
+  std::string lag_table;              ///< one row per caption cue, CSV or JSON by extension
 };
 
 /// The profile named by --profile (a built-in name or a file); the defaults for none.

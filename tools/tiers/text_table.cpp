@@ -2,6 +2,7 @@
 #include "text_table.hpp"
 
 #include "tiers/diagnostic.hpp"
+#include "tiers/sink.hpp"
 
 #include <algorithm>
 
@@ -65,24 +66,18 @@ std::string text_table::render() const {
 
 std::string text_table::render_csv() const {
   std::string out;
+  string_sink sink(out);
   auto line = [&](const std::vector<std::string>& cells) {
     for (std::size_t c = 0; c < cells.size(); ++c) {
-      if (c > 0) out += ',';
-      const std::string v = &cells == &titles_ ? csv_title(cells[c]) : cells[c];
-      if (v.find_first_of(",\"\r\n") == std::string::npos) {
-        out += v;
-        continue;
-      }
-      out += '"';
-      for (char ch : v)
-        out += ch == '"' ? std::string("\"\"") : std::string(1, ch);
-      out += '"';
+      if (c > 0) sink.put(',');
+      write_csv_field(sink, &cells == &titles_ ? csv_title(cells[c]) : cells[c]);
     }
-    out += "\r\n";
+    sink.write("\r\n");
   };
   line(titles_);
   for (const auto& row : raw_)
     line(row);
+  sink.flush();
   return out;
 }
 

@@ -17,22 +17,6 @@ bool is_column_name(std::string_view key) {
   return std::find(std::begin(column_names), std::end(column_names), key) != std::end(column_names);
 }
 
-void write_field(byte_sink& out, std::string_view s, char delimiter) {
-  const bool needs_quotes =
-      s.find_first_of(delimiter == ',' ? std::string_view(",\"\r\n")
-                                       : std::string_view("\t\"\r\n")) != std::string_view::npos;
-  if (!needs_quotes) return out.write(s);
-  out.put('"');
-  std::size_t run = 0;
-  for (std::size_t q = s.find('"'); q != std::string_view::npos; q = s.find('"', q + 1)) {
-    out.write(s.substr(run, q + 1 - run));
-    out.put('"');
-    run = q + 1;
-  }
-  out.write(s.substr(run));
-  out.put('"');
-}
-
 void write_table(const document& doc, byte_sink& out, char delimiter, std::string_view eol) {
   bool any_markup = false, any_confidence = false, any_id = false, any_parent = false;
   std::set<std::string, std::less<>> keys;
@@ -60,23 +44,23 @@ void write_table(const document& doc, byte_sink& out, char delimiter, std::strin
   column(any_markup, "markup");
   for (const std::string& k : keys) {
     out.put(delimiter);
-    write_field(out, k, delimiter);
+    write_csv_field(out, k, delimiter);
   }
   out.write(eol);
   auto optional = [&](const optional_text& v) {
     out.put(delimiter);
-    if (v) write_field(out, *v, delimiter);
+    if (v) write_csv_field(out, *v, delimiter);
   };
   for (const tier& t : doc.tiers)
     for (const annotation& a : t.annotations) {
-      write_field(out, t.name, delimiter);
+      write_csv_field(out, t.name, delimiter);
       out.put(delimiter);
       char buf[32];
       out.write(std::string_view(buf, format_seconds_to(a.start, buf)));
       out.put(delimiter);
       out.write(std::string_view(buf, format_seconds_to(a.end, buf)));
       out.put(delimiter);
-      write_field(out, a.text, delimiter);
+      write_csv_field(out, a.text, delimiter);
       if (any_confidence) {
         out.put(delimiter);
         if (a.confidence) write_json_double(out, *a.confidence);
@@ -87,7 +71,7 @@ void write_table(const document& doc, byte_sink& out, char delimiter, std::strin
       for (const std::string& k : keys) {
         out.put(delimiter);
         if (auto it = a.attributes.find(k); it != a.attributes.end())
-          write_field(out, it->second, delimiter);
+          write_csv_field(out, it->second, delimiter);
       }
       out.write(eol);
     }

@@ -21,12 +21,14 @@ namespace tiers {
 struct problem {
   diagnostic diag;                     ///< rule id (code), severity, message, file, line, column
   std::string tier;                    ///< the tier it is about; empty when about the file
+  std::optional<std::string> id;       ///< the annotation's id, when it has one
   std::optional<time_ns> start, end;   ///< the annotation's times, or the span's
   std::optional<double> value, limit;  ///< what was measured and its bound, for threshold rules
 };
 
 /// `FILE:LINE:COLUMN: severity: message [rule]`; without a line, the tier and time come
-/// first in the message (`tier 'captions' at 00:00:03.200: …`).
+/// first in the message (`tier 'captions' at 00:00:03.200: …`); an annotation's id is named
+/// after them (`annotation 'c3': …`).
 std::string format_problem(const problem& p);
 
 /// What a check needs to know beyond the document: which tiers play which role (unset roles
@@ -49,13 +51,30 @@ struct lag_report {
   lag_statistics stats;
   std::size_t tokens = 0;   ///< caption words
   std::size_t matched = 0;  ///< caption words found among the timed words
-  /// Every cue with a lag: its start and its lag, in the caption tier's order. For drawing
-  /// (the HTML report); JSON reports carry only the statistics.
-  struct point {
-    time_ns at, lag;
+  /// Every cue, in the caption tier's order: for the lag table (`check --lag-table`) and for
+  /// drawing (the HTML report); JSON reports carry only the statistics.
+  struct cue {
+    std::size_t position = 0;  ///< 1-based, in the caption tier
+    std::optional<std::string> id;
+    time_ns start = 0, end = 0;
+    std::optional<time_ns> word_start;   ///< the start of its first matched word
+    std::optional<time_ns> lag;          ///< start − word_start
+    std::size_t words = 0, matched = 0;  ///< caption words in the cue, and of them found
   };
-  std::vector<point> points;
+  std::vector<cue> cues;
 };
+
+/// One file's (or recording's) cues, for a lag table.
+struct lag_rows {
+  std::string file;
+  std::vector<lag_report::cue> cues;
+};
+/// The lag table (docs/cli.md, "check --lag-table"): one row per cue of every file, as CSV
+/// (`file,cue,id,start,end,word_start,lag,words,matched`; times in seconds, empty where
+/// unknown) or as JSON (`{"format": "tiers-lag-table", "version": 1, "cues": [{…}]}` with the
+/// same members, unknown ones null; schemas/lag-table.schema.json).
+void write_lag_table_csv(const std::vector<lag_rows>& files, byte_sink& out);
+void write_lag_table_json(const std::vector<lag_rows>& files, byte_sink& out);
 
 /// What a file's tiers look like, kept to compare the files of a dataset.
 struct tier_shape {

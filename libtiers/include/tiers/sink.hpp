@@ -57,4 +57,8 @@ class string_sink final : public byte_sink {
   std::string& out_;
 };
 
+/// Writes one field of a CSV (RFC 4180) or TSV row: quoted, its quotes doubled, only when it
+/// holds the delimiter, a quote or a line break.
+void write_csv_field(byte_sink& out, std::string_view field, char delimiter = ',');
+
 }  // namespace tiers

@@ -65,8 +65,10 @@ problem* checker::emit(std::string_view rule, std::size_t t, std::size_t a, std:
     p.diag.line = at.line;
     p.diag.column = at.column;
     if (a != no_index) {
-      p.start = doc_.tiers[t].annotations[a].start;
-      p.end = doc_.tiers[t].annotations[a].end;
+      const annotation& x = doc_.tiers[t].annotations[a];
+      p.start = x.start;
+      p.end = x.end;
+      if (x.id) p.id = *x.id;
     }
   }
   return &p;
@@ -178,9 +180,19 @@ void checker::check_lag(std::size_t c) {
   report.tokens = al.tokens;
   report.matched = al.matched;
   for (std::size_t k = 0; k < al.cues.size(); ++k) {
-    const std::optional<time_ns>& lag = al.cues[k].lag;
+    const cue_alignment& a = al.cues[k];
+    const annotation& x = captions.annotations[k];
+    lag_report::cue& row = report.cues.emplace_back();
+    row.position = k + 1;
+    if (x.id) row.id = *x.id;
+    row.start = x.start;
+    row.end = x.end;
+    if (a.first_word) row.word_start = words.annotations[*a.first_word].start;
+    row.lag = a.lag;
+    row.words = a.tokens;
+    row.matched = a.matched;
+    const std::optional<time_ns>& lag = a.lag;
     if (!lag) continue;
-    report.points.push_back({captions.annotations[k].start, *lag});
     problem* p = nullptr;
     if (*lag > l.max_late)
       p = emit("lag.late", c, k,
@@ -240,11 +252,12 @@ void checker::run() {
 namespace tiers {
 
 std::string format_problem(const problem& p) {
-  if (p.diag.line > 0 || p.tier.empty()) return format_diagnostic(p.diag);
   diagnostic d = p.diag;
+  if (p.id) d.message = "annotation " + detail::quote_name(*p.id) + ": " + d.message;
+  if (p.diag.line > 0 || p.tier.empty()) return format_diagnostic(d);
   std::string context = "tier " + detail::quote_name(p.tier);
   if (p.start) context += " at " + detail::clock(*p.start);
-  d.message = context + ": " + d.message;
+  d.message = context + (p.id ? ", " : ": ") + d.message;
   return format_diagnostic(d);
 }
 

@@ -78,6 +78,7 @@ class report_reader {
     p.diag.message = f.string("message").value_or("");
     p.diag.file = r.path;
     p.tier = f.string("tier").value_or("");
+    p.id = f.string("id");
     p.start = seconds(f, "start");
     p.end = seconds(f, "end");
     if (f.get("line")) p.diag.line = count(f, "line");

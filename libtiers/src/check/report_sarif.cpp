@@ -147,8 +147,9 @@ void write_result(json_writer& j, const problem& p) {
   }
   j.end_object();
   j.end_array();
-  if (p.start || p.value) {
+  if (p.start || p.value || p.id) {
     j.key("properties").begin_object();
+    if (p.id) j.string("id", *p.id);
     if (p.start) j.seconds("start", *p.start);
     if (p.end) j.seconds("end", *p.end);
     if (p.value) j.number("value", *p.value);

@@ -127,11 +127,11 @@ std::string timeline(const report_file& f, const agreement_view* agreement) {
   }
   if (f.check->lag)
     out += fmt::format(
-        R"h(<div class="lane lag"><div class="name"><strong>caption lag</strong><span>{} after {}, s</span></div>)h"
+        R"h(<div class="lane lag"><div class="name" title="caption lag: {} after {}, s"><strong>caption lag</strong><span>{} after {}, s</span></div>)h"
         R"h(<svg height="110" role="img" aria-label="The lag of each cue of {} behind the words of {}, over time"></svg></div>)h"
         "\n",
-        html(f.check->lag->captions), html(f.check->lag->words), attr(f.check->lag->captions),
-        attr(f.check->lag->words));
+        attr(f.check->lag->captions), attr(f.check->lag->words), html(f.check->lag->captions),
+        html(f.check->lag->words), attr(f.check->lag->captions), attr(f.check->lag->words));
   if (agreement)
     out += fmt::format(
         R"h(<div class="lane agreement"><div class="name" title="{} vs {}"><strong>agreement</strong><span>{} vs {}</span></div>)h"
@@ -188,11 +188,21 @@ std::string problem_table(const report_file& f) {
       R"h(<h3>Problems ({})</h3>)h"
       "\n"
       R"h(<div class="problems"><table><caption class="hidden">Problems in {}; choose a row to show it on the lanes</caption>)h"
-      R"h(<thead><tr><th scope="col">severity</th><th scope="col">rule</th><th scope="col">tier</th>)h"
+      R"h(<thead><tr><th scope="col">severity</th><th scope="col">rule</th><th scope="col">tier</th><th scope="col">id</th>)h"
       R"h(<th scope="col">time</th><th scope="col">message</th><th scope="col">where</th></tr></thead><tbody>)h"
       "\n",
       r.problems.size(), html(r.path));
-  for (const problem& p : r.problems) {
+  // Errors first, then warnings, then notes; by time within each (about the file first).
+  std::vector<const problem*> order;
+  for (const problem& p : r.problems)
+    order.push_back(&p);
+  std::stable_sort(order.begin(), order.end(), [](const problem* a, const problem* b) {
+    if (a->diag.level != b->diag.level) return a->diag.level < b->diag.level;
+    constexpr time_ns none = std::numeric_limits<time_ns>::min();
+    return a->start.value_or(none) < b->start.value_or(none);
+  });
+  for (const problem* q : order) {
+    const problem& p = *q;
     const std::string_view level = to_string(p.diag.level);
     std::string row = "<tr";
     if (p.start && f.doc)
@@ -204,11 +214,11 @@ std::string problem_table(const report_file& f) {
       where = fmt::format("{}:{}:{}", p.diag.file.empty() ? r.path : p.diag.file, p.diag.line,
                           p.diag.column);
     row += fmt::format(
-        R"h(><td><span class="sev {}">{}</span></td><td><code>{}</code></td><td>{}</td>)h"
+        R"h(><td><span class="sev {}">{}</span></td><td><code>{}</code></td><td>{}</td><td>{}</td>)h"
         R"h(<td class="time">{}</td><td>{}</td><td class="where">{}</td></tr>)h"
         "\n",
-        level, level, html(p.diag.code), html(p.tier), problem_time(p), html(p.diag.message),
-        html(where));
+        level, level, html(p.diag.code), html(p.tier), html(p.id.value_or("")), problem_time(p),
+        html(p.diag.message), html(where));
     out += row;
   }
   return out + "</tbody></table></div>\n";

@@ -8,6 +8,9 @@
   const steps = [0.01, 0.02, 0.05, 0.1, 0.2, 0.5, 1, 2, 5, 10, 15, 30, 60, 120, 300, 600, 900,
                  1800, 3600, 7200, 21600, 43200, 86400];
   const LANE = 30, LAG = 110, STRIP = 22;
+  // Annotations of one lane that overlap go in stacked rows of this height, at most MAX_ROWS
+  // (more overlap is drawn on the last row).
+  const ROW = 14, MAX_ROWS = 8;
   const colours = {human: [61, 90, 128], machine: [122, 92, 153]};  // as in report.css
   const pad = (n, w) => String(n).padStart(w, "0");
   function clock(t, decimals) {
@@ -46,6 +49,27 @@
       // Annotations that end before they start (time.reversed) are drawn apart, over the span
       // between their two times, so that the problem can be seen; they are few.
       t.reversed = t.annotations.filter((a) => a[1] < a[0]);
+      // Each interval to the first row free at its start (annotations come in start order),
+      // so that overlapping ones sit one above the other rather than on top of each other.
+      t.row = [];
+      const ends = [];
+      for (const a of t.annotations) {
+        let r = 0;
+        if (t.kind !== "instant" && a[1] >= a[0]) {
+          while (r < ends.length && ends[r] > a[0]) ++r;
+          r = Math.min(r, MAX_ROWS - 1);
+          ends[r] = Math.max(ends[r] || -Infinity, a[1]);
+        }
+        t.row.push(r);
+      }
+      t.rows = Math.max(1, ends.length);
+    }
+    for (const lane of lanes) {
+      const t = file.tiers[Number(lane.dataset.index)];
+      if (t.rows > 1) {
+        lane.querySelector("svg").setAttribute("height", String(10 + t.rows * ROW));
+        lane.dataset.rows = String(t.rows);  // read by the tests
+      }
     }
     const problemsBy = new Map();
     for (const p of file.problems) {
@@ -80,11 +104,12 @@
       const span = view.end - view.start, k = w / span;
       const x = (t) => (t - view.start) * k;
       const list = tier.annotations, who = tier.source === "machine" ? "machine" : "human";
+      const rowHeight = tier.rows > 1 ? ROW : LANE - 10, laneHeight = 8 + tier.rows * rowHeight;
       let out = "";
       let run = null;  // annotations narrower than a pixel, drawn as one stretch
       const flush = () => {
         if (!run) return;
-        out += `<rect class="ann ${who} run" x="${run.x0}" y="8" width="${Math.max(1, run.x1 - run.x0)}" height="${LANE - 10}"><title>${run.n} annotations</title></rect>`;
+        out += `<rect class="ann ${who} run" x="${run.x0}" y="8" width="${Math.max(1, run.x1 - run.x0)}" height="${laneHeight - 8}"><title>${run.n} annotations</title></rect>`;
         run = null;
       };
       for (let i = firstFrom(list, view.start - tier.longest); i < list.length; ++i) {
@@ -94,7 +119,7 @@
         const x0 = Math.max(0, x(a[0])), x1 = Math.min(w, x(a[1]));
         const conf = a[3] === null ? "" : ` (confidence ${a[3]})`;
         if (tier.kind === "instant") {
-          out += `<line class="ann instant ${who}" x1="${x0}" x2="${x0}" y1="6" y2="${LANE - 2}"><title>${clock(a[0], 3)} ${esc(a[2])}${conf}</title></line>`;
+          out += `<line class="ann instant ${who}" x1="${x0}" x2="${x0}" y1="6" y2="${laneHeight - 2}"><title>${clock(a[0], 3)} ${esc(a[2])}${conf}</title></line>`;
           continue;
         }
         if (x1 - x0 < 1) {
@@ -105,7 +130,8 @@
         }
         flush();
         const opacity = a[3] === null ? 1 : 0.25 + 0.75 * a[3];
-        out += `<rect class="ann ${who}" x="${x0}" y="8" width="${x1 - x0}" height="${LANE - 10}" fill-opacity="${opacity.toFixed(2)}">`;
+        const y = 8 + tier.row[i] * rowHeight;
+        out += `<rect class="ann ${who}" x="${x0}" y="${y}" width="${x1 - x0}" height="${rowHeight - (tier.rows > 1 ? 2 : 0)}" fill-opacity="${opacity.toFixed(2)}" data-row="${tier.row[i]}">`;
         // Tooltips only where there is room to point at them: fewer nodes when zoomed out.
         if (x1 - x0 >= 3) out += `<title>${clock(a[0], 3)}–${clock(a[1], 3)} ${esc(a[2])}${conf}</title>`;
         out += "</rect>";
@@ -113,14 +139,14 @@
         if (room > 14 && a[2]) {
           const chars = Math.floor(room / 6.4);
           const text = a[2].length > chars ? a[2].slice(0, Math.max(1, chars - 1)) + "…" : a[2];
-          out += `<text class="${labelClass(colours[who], opacity)}" x="${x0 + 3}" y="${LANE - 8}">${esc(text)}</text>`;
+          out += `<text class="${labelClass(colours[who], opacity)}" x="${x0 + 3}" y="${y + rowHeight - (tier.rows > 1 ? 5 : 8)}">${esc(text)}</text>`;
         }
       }
       flush();
       for (const a of tier.reversed) {
         if (a[0] < view.start || a[1] > view.end) continue;
         const x0 = Math.max(0, x(a[1])), x1 = Math.min(w, Math.max(x(a[0]), x0 + 3));
-        out += `<rect class="ann reversed" x="${x0}" y="8" width="${x1 - x0}" height="${LANE - 10}"><title>ends at ${clock(a[1], 3)}, before it starts at ${clock(a[0], 3)}: ${esc(a[2])}</title></rect>`;
+        out += `<rect class="ann reversed" x="${x0}" y="8" width="${x1 - x0}" height="${laneHeight - 8}"><title>ends at ${clock(a[1], 3)}, before it starts at ${clock(a[0], 3)}: ${esc(a[2])}</title></rect>`;
       }
       for (const p of problemsBy.get(tier.name) || []) {
         const lo = Math.min(p.start, p.end), hi = Math.max(p.start, p.end);
@@ -129,7 +155,7 @@
         out += `<rect class="problem ${p.severity}" x="${x0}" y="1" width="${x1 - x0}" height="6"><title>${esc(p.severity + ": " + p.message + " [" + p.rule + "]")}</title></rect>`;
       }
       if (focus && focus.tier === tier.name)
-        out += `<rect class="focus" x="${x(focus.start) - 2}" y="1" width="${Math.max(4, x(focus.end) - x(focus.start)) + 4}" height="${LANE - 2}"/>`;
+        out += `<rect class="focus" x="${x(focus.start) - 2}" y="1" width="${Math.max(4, x(focus.end) - x(focus.start)) + 4}" height="${laneHeight}"/>`;
       svg.innerHTML = out;
     }
 
@@ -156,7 +182,8 @@
           out += over
             ? `<rect class="lagpoint over" x="${x(p[0]) - 3.5}" y="${y(p[1]) - 3.5}" width="7" height="7">`
             : `<circle class="lagpoint" cx="${x(p[0])}" cy="${y(p[1])}" r="2.5">`;
-          out += `<title>cue at ${clock(p[0], 1)}: ${p[1] >= 0 ? "late" : "early"} by ${Math.abs(p[1]).toFixed(2)} s</title>${over ? "</rect>" : "</circle>"}`;
+          const cue = p.length > 2 ? `cue ${p[2]}` : "cue";
+          out += `<title>${esc(cue)} at ${clock(p[0], 1)}: ${p[1] >= 0 ? "late" : "early"} by ${Math.abs(p[1]).toFixed(2)} s</title>${over ? "</rect>" : "</circle>"}`;
         }
       svg.innerHTML = out;
     }

@@ -94,8 +94,8 @@ std::pair<time_ns, time_ns> span_of(const report_file& f, const agreement_view* 
       hi = std::max(hi, std::max(a.start, a.end));
     }
   if (f.check->lag)
-    for (const lag_report::point& p : f.check->lag->points)
-      hi = std::max(hi, p.at);
+    for (const lag_report::cue& c : f.check->lag->cues)
+      hi = std::max(hi, c.start);
   if (agreement && !agreement->stretches.empty())
     hi = std::max(hi, agreement->stretches.back().end);
   return {lo, hi};
@@ -125,8 +125,10 @@ void write_file(json_writer& j, const report_file& f, const agreement_view* agre
     j.seconds("late", o.max_late);
     j.seconds("early", o.max_early);
     j.key("points").begin_array();
-    for (const lag_report::point& p : f.check->lag->points) {
-      begin_span(j, p.at, p.lag);
+    for (const lag_report::cue& c : f.check->lag->cues) {
+      if (!c.lag) continue;
+      begin_span(j, c.start, *c.lag);
+      if (c.id) j.string(*c.id);
       j.end_array();
     }
     j.end_array();
