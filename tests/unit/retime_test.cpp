@@ -142,3 +142,72 @@ TEST_CASE("a cue whose new times would lie beyond the range keeps its times, sai
   CHECK(fits.moves[0].how == cue_move::basis::words);
   CHECK(fits.captions.annotations[0].end == top - 400 * ms);
 }
+
+TEST_CASE("a cue too fast to read grows after, then before it, else is reported", "[retime]") {
+  tier words, cues;
+  // 40 characters spoken in 1 s: at 20 characters a second (caption.cps's default, common
+  // practice for adult viewers) the cue needs 2 s on screen.
+  const char* said[] = {"gardeners", "share", "their", "tools", "happily"};
+  for (int k = 0; k < 5; ++k)
+    words.annotations.push_back(
+        ann(10'000 * ms + k * 200 * ms, 10'200 * ms + k * 200 * ms, said[k]));
+  cues.annotations.push_back(ann(12'000 * ms, 13'000 * ms, "Gardeners share their tools happily."));
+  retime_options o;
+  o.min_gap = 80 * ms;
+  o.min_duration = 500 * ms;
+  o.max_cps = 20;
+  retime_result r = retime_captions(cues, words, o);
+  // 36 characters: 1.8 s; the words span 1 s, so the cue grows by 0.8 s into the free time after.
+  CHECK(r.captions.annotations[0].start == 10'000 * ms);
+  CHECK(r.captions.annotations[0].end == 11'800 * ms);
+  CHECK(r.moves[0].adjusted == "lengthened by 0.8 s to be read at the reading speed (caption.cps)");
+  CHECK(r.moves[0].unfixed.empty());
+
+  // Cues right before and right after leave it no room: what is still missing is reported.
+  words.annotations.push_back(ann(11'100 * ms, 11'500 * ms, "yes"));
+  cues.annotations.push_back(ann(13'100 * ms, 13'500 * ms, "Yes."));
+  words.annotations.insert(words.annotations.begin(), ann(9'500 * ms, 9'900 * ms, "well"));
+  cues.annotations.insert(cues.annotations.begin(), ann(11'500 * ms, 11'900 * ms, "Well."));
+  r = retime_captions(cues, words, o);
+  REQUIRE(r.moves.size() == 3);
+  CHECK(r.moves[1].unfixed.find("too fast to read (caption.cps)") == 0);
+  o.max_cps = 0;  // no reading speed: only the minimum duration applies
+  r = retime_captions(cues, words, o);
+  CHECK(r.moves[1].unfixed.empty());
+}
+
+TEST_CASE("a cue that ends before it starts is left as it was and reported", "[retime]") {
+  tier words, cues;
+  words.annotations.push_back(ann(1000 * ms, 1400 * ms, "one"));
+  words.annotations.push_back(ann(3000 * ms, 3400 * ms, "two"));
+  cues.annotations.push_back(ann(3500 * ms, 4400 * ms, "One"));
+  cues.annotations.push_back(ann(6000 * ms, 5200 * ms, "Two"));  // reversed
+  retime_options o;
+  o.grid = {1000, 1};  // a millisecond grid: the reversed cue's times stay even so
+  const retime_result r = retime_captions(cues, words, o);
+  REQUIRE(r.moves.size() == 2);
+  const cue_move& m = r.moves[1];
+  CHECK(m.how == cue_move::basis::reversed);
+  CHECK(m.unfixed.find("ends before it starts") != std::string::npos);
+  CHECK(r.captions.annotations[1].start == 6000 * ms);
+  CHECK(r.captions.annotations[1].end == 5200 * ms);
+  CHECK(count_moves(r).reversed == 1);
+  // The other cue still moves onto its word, and borrows nothing from the reversed one.
+  CHECK(r.captions.annotations[0].start == 1000 * ms);
+}
+
+TEST_CASE("the output records how it was re-timed", "[retime]") {
+  tier words, cues;
+  words.annotations.push_back(ann(1000 * ms, 1400 * ms, "one"));
+  cues.annotations.push_back(ann(3500 * ms, 4400 * ms, "One"));
+  retime_options o;
+  o.lead_in = 120 * ms;
+  const retime_result r = retime_captions(cues, words, o);
+  document doc;
+  record_retime(doc, "captions", "words", o, r);
+  CHECK(doc.metadata.at("retime:lead-in") == "0.12s");
+  CHECK(doc.metadata.at("retime:words") == "words");
+  CHECK(doc.metadata.at("retime:max-cps") == "20");
+  CHECK(doc.metadata.at("retime:cues") ==
+        "1 by words, 0 by neighbours, 0 unchanged, 0 reversed; 0 unfixed");
+}

@@ -34,6 +34,11 @@ void setup_retime(CLI::App& app, int& status) {
   cmd->add_option("--min-duration", o.min_duration,
                   "Least duration of a cue (default: the profile's, else 5/6 s)")
       ->type_name("DURATION");
+  cmd->add_option("--max-cps", o.max_cps,
+                  "Lengthen cues to be read at most this many characters a second (default: "
+                  "the profile's caption.cps, else 20; 0: no limit)")
+      ->check(CLI::NonNegativeNumber)
+      ->type_name("X");
   cmd->add_option("--profile", o.profile, "Take the caption rules from this check profile")
       ->type_name("PROFILE");
   cmd->add_flag("--json", o.json, "Print the report as JSON");
@@ -54,12 +59,8 @@ std::string signed_seconds(time_ns t) {
 
 std::string text_report(const retime_result& r, const tier& before) {
   text_table table({">cue", "id", ">was", ">now", ">moved", "basis", ">words", "notes"});
-  std::size_t by_words = 0, by_neighbours = 0, unfixed = 0;
   time_ns largest = 0;
   for (const cue_move& m : r.moves) {
-    by_words += m.how == cue_move::basis::words;
-    by_neighbours += m.how == cue_move::basis::neighbours;
-    unfixed += !m.unfixed.empty();
     largest = std::max(largest, std::abs(m.new_start - m.old_start));
     std::string notes = m.adjusted;
     if (!m.unfixed.empty()) notes += (notes.empty() ? "" : "; ") + ("NOT FIXED: " + m.unfixed);
@@ -68,12 +69,14 @@ std::string text_report(const retime_result& r, const tier& before) {
                    signed_seconds(m.new_start - m.old_start) + " s", std::string(to_string(m.how)),
                    std::to_string(m.words), notes});
   }
+  const retime_counts c = count_moves(r);
   return table.render() +
          fmt::format(
              "\n{} cues: {} onto their words, {} by their neighbours' shift, {} left as "
-             "they were; {} not fixed; the largest move {} s\n",
-             r.moves.size(), by_words, by_neighbours, r.moves.size() - by_words - by_neighbours,
-             unfixed, format_seconds(largest));
+             "they were{}; {} not fixed; the largest move {} s\n",
+             r.moves.size(), c.by_words, c.by_neighbours, c.unchanged,
+             c.reversed ? fmt::format(", {} ending before they start", c.reversed) : "", c.unfixed,
+             format_seconds(largest));
 }
 
 // Names the tier that is not there and the tiers that are, and the one option that picks it;
@@ -135,9 +138,35 @@ retimed retime_document(const retime_options_cli& o, const profile& p, document&
   ro.min_duration = o.min_duration.empty() ? p.limits.min_duration
                                            : parse_duration_option("--min-duration", o.min_duration,
                                                                    duration_kind::length, rate);
+  ro.max_cps = o.max_cps                                   ? *o.max_cps
+               : p.level("caption.cps") == rule_level::off ? 0
+                                                           : p.limits.max_cps;
   ro.window = p.limits.window;
   ro.grid = to.time_grid;
   retimed out{retime_captions(*captions, *words, ro), *captions};
+  // A cue that ends before it starts is a problem of the input, said where it is.
+  for (const cue_move& m : out.result.moves)
+    if (m.how == cue_move::basis::reversed) {
+      diagnostic d;
+      d.level = severity::warning;
+      d.file = file;
+      d.code = "retime.reversed";
+      const optional_text& id = out.before.annotations[m.cue].id;
+      d.message = "cue " + (id ? quote_name(*id) : std::to_string(m.cue + 1)) + " ends at " +
+                  format_clock(m.old_end) + ", before it starts at " + format_clock(m.old_start) +
+                  ": left as it was, not re-timed";
+      report(d);
+    }
+  // The output says how it was made, where its format can carry that.
+  if (to.carries.has(feature::metadata))
+    record_retime(doc, caption_name,
+                  other ? display_name(other->path) + ":" + words->name : words->name, ro,
+                  out.result);
+  else
+    std::fprintf(stderr,
+                 "tiers: note: %s cannot carry document metadata: how the captions were "
+                 "re-timed is in the report only\n",
+                 std::string(to.name).c_str());
   *captions = out.result.captions;
   move_children(doc, caption_name, out.result);
   return out;

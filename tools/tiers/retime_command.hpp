@@ -3,6 +3,7 @@
 
 #include <CLI/CLI.hpp>
 #include <memory>
+#include <optional>
 #include <string>
 
 #include "cli_common.hpp"
@@ -16,6 +17,7 @@ struct retime_options_cli {
   std::string shard;
   std::string output, to, captions, words, profile;
   std::string lead_in = "0", hold = "0", min_gap, min_duration;
+  std::optional<double> max_cps;  ///< the reading speed to meet; default: the profile's
   bool json = false;
   bool allow_loss = false;
 };

@@ -3,9 +3,11 @@
 #include "tiers/retime.hpp"
 
 #include <algorithm>
+#include <cmath>
 #include <numeric>
 
 #include "detail/exact.hpp"
+#include "tiers/text.hpp"
 
 namespace tiers {
 namespace {
@@ -18,7 +20,20 @@ using detail::rounding;
 struct working {
   cue_move move;
   i128 old_start = 0, new_start = 0, new_end = 0;
+  i128 least = 0;         // the least duration, in steps: the minimum, or longer to be read in time
+  bool by_speed = false;  // the reading speed sets `least`, not the minimum duration
 };
+
+// The characters a reader reads, as caption.cps counts them: grapheme clusters, line by line.
+std::size_t reading_characters(std::string_view text) {
+  std::size_t chars = 0;
+  for (std::size_t from = 0; from <= text.size();) {
+    const std::size_t end = std::min(text.find('\n', from), text.size());
+    chars += count_graphemes(text.substr(from, end - from));
+    from = end + 1;
+  }
+  return chars;
+}
 
 time_ns saturated(i128 v) {
   return static_cast<time_ns>(std::clamp(v, -detail::time_max - 1, detail::time_max));
@@ -65,7 +80,23 @@ struct retimer {
       w.new_end = steps(cues[k].end);
       const cue_alignment& a = al.cues[k];
       m.words = a.matched;
-      if (a.first_word && a.last_word) {
+      w.least = shortest;
+      if (options.max_cps > 0) {
+        // At most max_cps characters a second: at least chars / max_cps seconds, rounded up.
+        const double ns = std::ceil(static_cast<double>(reading_characters(cues[k].text)) * 1e9 /
+                                    options.max_cps);
+        const i128 needed = steps(static_cast<i128>(ns), rounding::up);
+        if (needed > w.least) {
+          w.least = needed;
+          w.by_speed = true;
+        }
+      }
+      if (cues[k].end < cues[k].start) {
+        m.how = cue_move::basis::reversed;
+        m.unfixed =
+            "it ends before it starts (time.reversed): left as it was; its times need "
+            "fixing first";
+      } else if (a.first_word && a.last_word) {
         m.how = cue_move::basis::words;
         w.new_start =
             steps(static_cast<i128>(words.annotations[*a.first_word].start) - options.lead_in);
@@ -108,7 +139,7 @@ struct retimer {
   void lengthen(std::vector<working>& moves) const {
     for (std::size_t i = 0; i < moves.size(); ++i) {
       working& m = moves[i];
-      const i128 need = shortest - (m.new_end - m.new_start);
+      const i128 need = m.least - (m.new_end - m.new_start);
       if (need <= 0) continue;
       const i128 room_after =
           i + 1 < moves.size() ? moves[i + 1].new_start - gap - m.new_end : need;
@@ -118,11 +149,15 @@ struct retimer {
       m.new_end += later;
       m.new_start -= earlier;
       if (later + earlier > 0)
-        note(m.move.adjusted,
-             "lengthened by " + seconds_text(later + earlier) + " to the minimum duration");
+        note(m.move.adjusted, "lengthened by " + seconds_text(later + earlier) +
+                                  (m.by_speed ? " to be read at the reading speed (caption.cps)"
+                                              : " to the minimum duration"));
       if (later + earlier < need)
-        note(m.move.unfixed,
-             "shorter than " + seconds_text(shortest) + ": its neighbours leave no more room");
+        note(m.move.unfixed, m.by_speed ? "too fast to read (caption.cps): it needs " +
+                                              seconds_text(m.least) +
+                                              ", and its neighbours leave no more room"
+                                        : "shorter than " + seconds_text(shortest) +
+                                              ": its neighbours leave no more room");
     }
   }
 
@@ -134,8 +169,8 @@ struct retimer {
       working& b = moves[i + 1];
       const i128 need = a.new_end + gap - b.new_start;
       if (need <= 0) continue;
-      const i128 slack_a = std::max<i128>(0, a.new_end - a.new_start - shortest);
-      const i128 slack_b = std::max<i128>(0, b.new_end - b.new_start - shortest);
+      const i128 slack_a = std::max<i128>(0, a.new_end - a.new_start - a.least);
+      const i128 slack_b = std::max<i128>(0, b.new_end - b.new_start - b.least);
       i128 from_a = std::min(need / 2, slack_a);
       i128 from_b = std::min(need - from_a, slack_b);
       from_a = std::min(need - from_b, slack_a);
@@ -163,7 +198,9 @@ struct retimer {
       m.old_start = a.start;
       m.old_end = a.end;
       const i128 start = nanoseconds(w.new_start), end = nanoseconds(w.new_end);
-      if (start < -detail::time_max - 1 || end > detail::time_max) {
+      if (m.how == cue_move::basis::reversed) {
+        // Its times stay exactly as they were, off the grid or not.
+      } else if (start < -detail::time_max - 1 || end > detail::time_max) {
         // A sum of times beyond the model's range (time.range): the cue keeps its times.
         m.how = cue_move::basis::unchanged;
         m.adjusted.clear();
@@ -188,11 +225,22 @@ retime_result retime_captions(const tier& captions, const tier& words,
                               const retime_options& options) {
   const retimer r(options);
   std::vector<working> moves = r.onto_words(captions, words);
+  // Reversed cues take no part: no shift is borrowed from them, no rule moves them.
+  std::vector<working> reversed;
+  for (const working& w : moves)
+    if (w.move.how == cue_move::basis::reversed) reversed.push_back(w);
+  std::erase_if(moves, [](const working& w) { return w.move.how == cue_move::basis::reversed; });
   r.borrow_shifts(moves);
   std::stable_sort(moves.begin(), moves.end(),
                    [](const working& a, const working& b) { return a.new_start < b.new_start; });
   r.lengthen(moves);
   r.keep_gaps(moves);
+  // Back among the others, by start, as they were.
+  for (const working& w : reversed)
+    moves.insert(std::upper_bound(
+                     moves.begin(), moves.end(), w,
+                     [](const working& a, const working& b) { return a.new_start < b.new_start; }),
+                 w);
   return r.result(captions, moves);
 }
 
