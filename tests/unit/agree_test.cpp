@@ -145,6 +145,28 @@ TEST_CASE("a sweep keeps annotations at or above each threshold", "[agree]") {
   CHECK(s.frames_threshold == 0.5);  // the lowest threshold at precision 1
 }
 
+TEST_CASE("a sweep over several recordings pools them at each threshold", "[agree]") {
+  tier ref_a = tier_of({seg(0, 10, "x")}), ref_b = tier_of({seg(0, 4, "x")});
+  tier cand_a = tier_of({seg(0, 4, "x"), seg(12, 14, "x")});
+  tier cand_b = tier_of({seg(0, 4, "x")});
+  cand_a.annotations[0].confidence = 0.9;
+  cand_a.annotations[1].confidence = 0.2;
+  cand_b.annotations[0].confidence = 0.6;
+  const time_grid ga = grid_over(std::nullopt, {&ref_a, &cand_a}, ns_per_second);
+  const time_grid gb = grid_over(std::nullopt, {&ref_b, &cand_b}, ns_per_second);
+  const threshold_sweep s = sweep_thresholds({{&ref_a, &cand_a, ga}, {&ref_b, &cand_b, gb}},
+                                             segment_options{}, std::nullopt, std::nullopt);
+  REQUIRE(s.points.size() == 3);  // 0.2, 0.6, 0.9 from both recordings
+  CHECK(s.candidates == 3);
+  // At 0.2 everything: 8 agreed frames of 10 candidate-labelled, of 14 reference-labelled.
+  CHECK(s.points[0].precision == Approx(8.0 / 10));
+  CHECK(s.points[0].recall == Approx(8.0 / 14));
+  // At 0.9 only recording a's first annotation: 4 of 4, of 14.
+  CHECK(s.points[2].precision == 1.0);
+  CHECK(s.points[2].recall == Approx(4.0 / 14));
+  CHECK(s.points[2].kept_share == Approx(1.0 / 3));
+}
+
 TEST_CASE("a later start paints over an earlier one, splitting it", "[agree]") {
   const tier t = tier_of({seg(0, 10, "a"), seg(2, 4, "b"), seg(3, 3, "p"), seg(8, 12, "c")});
   const framed_tiers f = frame_labels({&t}, {0, 12 * ns_per_second, ns_per_second});

@@ -14,7 +14,8 @@ void add_comparison_options(CLI::App& cmd, comparison_options& o) {
                  "by overlap (at least --min-overlap of their union)")
       ->check(one_of(segment_options::criterion_names))
       ->type_name("HOW");
-  cmd.add_option("--collar", o.collar, "Boundary tolerance for --match boundaries (200ms)")
+  cmd.add_option("--collar", o.collar,
+                 "Boundary tolerance for --match boundaries (200ms, or frames: 5f)")
       ->type_name("DURATION");
   cmd.add_option("--min-overlap", o.min_overlap, "Least overlap ratio for --match overlap (0.5)")
       ->check(CLI::Range(0.0, 1.0))

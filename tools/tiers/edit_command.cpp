@@ -15,7 +15,8 @@ void setup_edit(CLI::App& app, int& status) {
   CLI::App* cmd = app.add_subcommand(
       "edit", "Shift, scale, snap and cut times, and select, drop or rename tiers, in order");
   cmd->add_option("input", o.input.path, "Input file, or - for standard input")->type_name("FILE");
-  cmd->add_option("--shift", o.shifts, "Add an offset to every time: 1.5s, -250ms")
+  cmd->add_option("--shift", o.shifts,
+                  "Add an offset to every time: 1.5s, -250ms, or video frames: -2f")
       ->allow_extra_args(false)
       ->type_name("OFFSET");
   cmd->add_option("--scale", o.scales,

@@ -26,7 +26,8 @@ void setup_merge(CLI::App& app, int& status) {
                   "prefix-source (AGENT:NAME)")
       ->check(one_of(clash_rule_names))
       ->type_name("RULE");
-  cmd->add_option("--shift", o.shifts, "Shift a tier by an offset, e.g. detector=-0.48s")
+  cmd->add_option("--shift", o.shifts,
+                  "Shift a tier by an offset, e.g. detector=-0.48s (or frames: detector=-12f)")
       ->allow_extra_args(false)
       ->type_name("TIER=OFFSET");
   cmd->add_option("--align", o.aligns,
@@ -45,7 +46,8 @@ void setup_merge(CLI::App& app, int& status) {
   cmd->add_option("--min-confidence", o.min_confidence,
                   "Leave out machine annotations below this confidence (0-1)")
       ->type_name("X");
-  cmd->add_option("--min-duration", o.min_duration, "Drop trimmed machine pieces shorter than this")
+  cmd->add_option("--min-duration", o.min_duration,
+                  "Drop trimmed machine pieces shorter than this (0.2s, or frames: 5f)")
       ->type_name("DURATION");
   cmd->add_option("--review", o.review,
                   "Also write a tier marking every span where human and machine disagree")

@@ -24,7 +24,8 @@ void setup_retime(CLI::App& app, int& status) {
                   "The caption tier (default: the file's only tier, "
                   "or the profile's)")
       ->type_name("TIER");
-  cmd->add_option("--lead-in", o.lead_in, "A cue starts this long before its first word (0)")
+  cmd->add_option("--lead-in", o.lead_in,
+                  "A cue starts this long before its first word (0; 0.1s, or frames: 3f)")
       ->type_name("DURATION");
   cmd->add_option("--hold", o.hold, "and ends this long after its last word (0)")
       ->type_name("DURATION");
