@@ -219,7 +219,10 @@ std::string sweep_output(const agree_options& o, const threshold_sweep& sw,
       candidate.file, reference.tier, reference.file, sw.candidates,
       sw.unscored ? fmt::format(" ({} without a confidence, kept at every threshold)", sw.unscored)
                   : "");
-  text += table.render();
+  if (sw.points.empty())
+    text += "no annotation of the candidate has a confidence: there is no threshold to sweep\n";
+  else
+    text += table.render();
   if (sw.target) {
     auto says = [&](const char* what, std::optional<double> t) {
       return t ? fmt::format(
