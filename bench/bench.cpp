@@ -1,10 +1,13 @@
 // tiers-bench: times reading a file, and writing it in a format, inside one process; prints one
 // JSON object with the bytes, annotations, seconds of each phase and the peak resident memory.
 // With --stream, the file is streamed (format::stream) to a handler that counts annotations and
-// keeps nothing: the reader's own speed, without building a document.
+// keeps nothing: the reader's own speed, without building a document. With --cooccur, the
+// document is read and then tier A is counted against tier B (tiers cooccur's counting, one
+// thread): its seconds after reading and the A annotations a second.
 //
 //   tiers-bench FILE [FORMAT OUT]
 //   tiers-bench --stream FILE
+//   tiers-bench --cooccur FILE A B
 #include <sys/resource.h>
 
 #include <chrono>
@@ -55,10 +58,39 @@ int stream(const char* path) {
   return 0;
 }
 
+int cooccur(const char* path, const std::string& a, const std::string& b) {
+  using clock = std::chrono::steady_clock;
+  const std::string text = tiers::read_input(path);
+  const tiers::format* fmt = tiers::format_for_path(path);
+  if (!fmt) return 2;
+  tiers::read_result r = tiers::read_document(text, *fmt, {}, path);
+  const tiers::tier* ta = tiers::find_tier(r.value, a);
+  const tiers::tier* tb = tiers::find_tier(r.value, b);
+  if (!r.ok() || !ta || !tb) {
+    std::fprintf(stderr, "tiers-bench: %s has no tiers %s and %s\n", path, a.c_str(), b.c_str());
+    return 1;
+  }
+  const auto t0 = clock::now();
+  tiers::cooccur_counts counts;
+  counts.add(*ta, *tb, {});
+  const double seconds = std::chrono::duration<double>(clock::now() - t0).count();
+  std::printf("{\"annotations\": %llu, \"pairs\": %zu, \"count_seconds\": %.6f}\n",
+              static_cast<unsigned long long>(counts.n()), counts.pairs().size(), seconds);
+  return 0;
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
   using clock = std::chrono::steady_clock;
+  if (argc == 5 && std::string(argv[1]) == "--cooccur") {
+    try {
+      return cooccur(argv[2], argv[3], argv[4]);
+    } catch (const tiers::error& e) {
+      std::fprintf(stderr, "tiers-bench: %s\n", e.what());
+      return 1;
+    }
+  }
   if (argc == 3 && std::string(argv[1]) == "--stream") {
     try {
       return stream(argv[2]);
@@ -68,7 +100,8 @@ int main(int argc, char** argv) {
     }
   }
   if (argc != 2 && argc != 4) {
-    std::fprintf(stderr, "usage: tiers-bench FILE [FORMAT OUT] | --stream FILE\n");
+    std::fprintf(stderr,
+                 "usage: tiers-bench FILE [FORMAT OUT] | --stream FILE | --cooccur FILE A B\n");
     return 2;
   }
   try {

@@ -89,6 +89,7 @@ def corpus(build, out_dir, size):
 # `check --dataset` against the same files named as a folder: no slower, allowing for the
 # machine's run-to-run noise (the same command varies by up to a third, docs/performance.md).
 DATASET_PACE = 1.1
+COOCCUR_RATE = 5_000_000  # A annotations a second per core, counted after reading (issue 20)
 
 
 def archive(build, out_dir, files):
@@ -207,6 +208,18 @@ def measure_size(t, build, out_dir, size, smallest, here):
                     "--on", "0.6", "--off", "0.4", "--min-duration", "0.2s", "-o",
                     os.path.join(folder, "derived.json")], os.path.join(folder, "corpus.signal.csv")),
     }
+    seconds, rss, code, out, err = measure([bench, "--cooccur", files["json"], "words",
+                                            "gestures"])
+    if code:
+        print(f"cooccur failed: {err[-500:]}")
+    else:
+        r = json.loads(out)
+        rate = r["annotations"] / max(r["count_seconds"], 1e-9)
+        t.add(size, "cooccur", "json", files["json"], r["count_seconds"], rss,
+              r["annotations"], note="words against gestures, counted after reading, one thread")
+        t.target(f"cooccur at {mb} MB: A annotations a second per core after reading",
+                 f"{rate / 1e6:.1f} million", f">= {COOCCUR_RATE / 1e6:.0f} million",
+                 rate >= COOCCUR_RATE)
     for name, (argv, source) in commands.items():
         seconds, rss, code, out, err = measure(argv)
         if code not in (0, 1):

@@ -2,6 +2,7 @@
 #pragma once
 
 #include <cstdint>
+#include <optional>
 #include <string_view>
 #include <vector>
 
@@ -74,6 +75,19 @@ class json_writer {
   void integer(std::string_view k, std::int64_t n) { key(k).integer(n); }
   void seconds(std::string_view k, time_ns t) { key(k).seconds(t); }
   void boolean(std::string_view k, bool b) { key(k).boolean(b); }
+  /// A member that may be unknown: its value, or null.
+  void maybe_number(std::string_view k, const std::optional<double>& v) {
+    if (v)
+      number(k, *v);
+    else
+      key(k).null();
+  }
+  void maybe_seconds(std::string_view k, const std::optional<time_ns>& t) {
+    if (t)
+      seconds(k, *t);
+    else
+      key(k).null();
+  }
 
   /// `{"k": "v", …}` from a map of strings, on one line.
   template <class Map>

@@ -109,16 +109,8 @@ void write_labels_json(const std::vector<label_statistics>& table, std::size_t d
     j.seconds("total", s.total);
     j.number("mean", s.mean);
     j.number("median", s.median);
-    j.key("share");
-    if (s.share)
-      j.number(*s.share);
-    else
-      j.null();
-    j.key("mean_confidence");
-    if (s.mean_confidence)
-      j.number(*s.mean_confidence);
-    else
-      j.null();
+    j.maybe_number("share", s.share);
+    j.maybe_number("mean_confidence", s.mean_confidence);
     j.end_object();
   }
   j.end_array();

@@ -174,6 +174,15 @@ std::string to_nfc(std::string_view text) {
   return normalize(text, false);
 }
 
+std::string fold_case(std::string_view text) {
+  std::string out;
+  if (detail::is_ascii(text))
+    ascii_casefold(text, out);
+  else
+    out = normalize(text, true);
+  return out;
+}
+
 case_counts count_case(std::string_view text) {
   case_counts counts;
   if (detail::is_ascii(text)) {

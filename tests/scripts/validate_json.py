@@ -5,7 +5,8 @@ The validator is python3-jsonschema (Debian): an implementation independent of t
 writer bug and a schema bug cannot hide each other. The kind is the document's `format` member:
 `tiers` (schemas/tiers.schema.json), `tiers-profile` (profile.schema.json), `tiers-check`
 (check.schema.json), `tiers-merge-plan` (merge-plan.schema.json), `tiers-dataset`
-(dataset.schema.json), `tiers-lag-table` (lag-table.schema.json), all Draft 2020-12. SARIF logs (`"version": "2.1.0"` with `runs`) are
+(dataset.schema.json), `tiers-lag-table` (lag-table.schema.json), `tiers-cooccur-counts` (cooccur-counts.schema.json),
+all Draft 2020-12. SARIF logs (`"version": "2.1.0"` with `runs`) are
 validated against the OASIS SARIF 2.1.0 schema (Draft 4) when --sarif names it; without it
 they are counted as skipped. A document of another kind fails.
 
@@ -22,7 +23,8 @@ import jsonschema
 
 KINDS = {"tiers": "tiers.schema.json", "tiers-profile": "profile.schema.json",
          "tiers-check": "check.schema.json", "tiers-merge-plan": "merge-plan.schema.json",
-         "tiers-dataset": "dataset.schema.json", "tiers-lag-table": "lag-table.schema.json"}
+         "tiers-dataset": "dataset.schema.json", "tiers-lag-table": "lag-table.schema.json",
+         "tiers-cooccur-counts": "cooccur-counts.schema.json"}
 
 
 def files(paths):

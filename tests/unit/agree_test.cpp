@@ -3,25 +3,14 @@
 #include <catch2/catch.hpp>
 #include <cmath>
 
+#include "support.hpp"
 #include "tiers/agree.hpp"
 
 using namespace tiers;
+using test::seg;
+using test::tier_of;
 
 namespace {
-
-annotation seg(double start, double end, std::string label) {
-  annotation a;
-  a.start = std::llround(start * 1e9);
-  a.end = std::llround(end * 1e9);
-  a.text = std::move(label);
-  return a;
-}
-
-tier tier_of(std::vector<annotation> as) {
-  tier t;
-  t.annotations = std::move(as);
-  return t;
-}
 
 // Two raters' yes/no judgements of n units as one-second annotations, from a 2×2 table.
 std::pair<tier, tier> from_table(int yy, int yn, int ny, int nn) {

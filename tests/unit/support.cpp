@@ -1,6 +1,8 @@
 // Shared unit-test helpers (see support.hpp).
 #include "support.hpp"
 
+#include <cmath>
+
 #include <unistd.h>
 #include <catch2/catch.hpp>
 #include <cstdlib>
@@ -124,6 +126,20 @@ void save_output(std::string_view label, std::string_view text, std::string_view
                            std::to_string(::getpid()) + "-" + std::to_string(++counter) + "." +
                            std::string(extension);
   std::ofstream(path, std::ios::binary) << text;
+}
+
+annotation seg(double start, double end, std::string label) {
+  annotation a;
+  a.start = std::llround(start * 1e9);
+  a.end = std::llround(end * 1e9);
+  a.text = std::move(label);
+  return a;
+}
+
+tier tier_of(std::vector<annotation> annotations) {
+  tier t;
+  t.annotations = std::move(annotations);
+  return t;
 }
 
 }  // namespace tiers::test

@@ -9,6 +9,12 @@
 
 namespace tiers::test {
 
+/// An interval annotation from `start` to `end` seconds (rounded to the nanosecond).
+annotation seg(double start, double end, std::string label);
+
+/// A tier of these annotations, unnamed.
+tier tier_of(std::vector<annotation> annotations);
+
 /// Invented demo data that exercises every field of the model at least once.
 document rich_document();
 

@@ -12,6 +12,7 @@ void setup_info(CLI::App& app, int& status);
 void setup_check(CLI::App& app, int& status);
 void setup_merge(CLI::App& app, int& status);
 void setup_agree(CLI::App& app, int& status);
+void setup_cooccur(CLI::App& app, int& status);
 void setup_derive(CLI::App& app, int& status);
 void setup_retime(CLI::App& app, int& status);
 void setup_edit(CLI::App& app, int& status);
@@ -19,7 +20,7 @@ void setup_report(CLI::App& app, int& status);
 void setup_dataset(CLI::App& app, int& status);
 
 inline constexpr void (*all_commands[])(CLI::App&, int&) = {
-    setup_convert, setup_info,   setup_check, setup_merge,  setup_agree,
+    setup_convert, setup_info,   setup_check, setup_merge,  setup_agree,   setup_cooccur,
     setup_derive,  setup_retime, setup_edit,  setup_report, setup_dataset,
 };
 

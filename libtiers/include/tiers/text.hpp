@@ -33,6 +33,10 @@ bool is_nfc(std::string_view text);
 /// `text` in Normalization Form C.
 std::string to_nfc(std::string_view text);
 
+/// `text` case-folded for comparing labels: Unicode's NFKC_Casefold (ICU), so that "STROKE",
+/// "Stroke" and "stroke" — and compatibility forms of one letter — are one label.
+std::string fold_case(std::string_view text);
+
 /// How many letters of `text` are upper case and how many lower case (Unicode's Uppercase and
 /// Lowercase properties); letters without case count in neither.
 struct case_counts {

@@ -3,6 +3,7 @@
 
 #include "tiers/agree.hpp"
 #include "tiers/check.hpp"
+#include "tiers/cooccur.hpp"
 #include "tiers/dataset.hpp"
 #include "tiers/derive.hpp"
 #include "tiers/diagnostic.hpp"

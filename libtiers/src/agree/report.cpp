@@ -248,22 +248,15 @@ void write_annotators_json(const annotators_report& r, byte_sink& out) {
 void write_sweep_json(const threshold_sweep& s, const tier_origin& reference,
                       const tier_origin& candidate, byte_sink& out) {
   json_writer j(out);
-  auto maybe = [&](const char* key, std::optional<double> v) {
-    j.key(key);
-    if (v)
-      j.number(*v);
-    else
-      j.null();
-  };
   j.begin_object(true);
   write_origin(j.key("reference"), reference);
   write_origin(j.key("candidate"), candidate);
   j.count("candidates", s.candidates);
   j.count("unscored", s.unscored);
-  maybe("target", s.target);
+  j.maybe_number("target", s.target);
   j.key("thresholds").begin_object();
-  maybe("frames", s.frames_threshold);
-  maybe("segments", s.segments_threshold);
+  j.maybe_number("frames", s.frames_threshold);
+  j.maybe_number("segments", s.segments_threshold);
   j.end_object();
   j.key("points").begin_array(true);
   for (const sweep_point& p : s.points) {

@@ -5,6 +5,7 @@
 
 #include <fmt/format.h>
 
+#include "detail/hash.hpp"
 #include "tiers/profile.hpp"
 
 namespace tiers {
@@ -52,17 +53,6 @@ rule_parameter parameter_of(const rule_threshold& t, const check_limits& l) {
   return {};
 }
 
-// FNV-1a, 64 bits (Fowler, Noll and Vo's published parameters): a digest to tell settings
-// apart, not a cryptographic one.
-std::uint64_t fnv1a64(std::string_view text) {
-  std::uint64_t h = 0xcbf29ce484222325ULL;
-  for (char c : text) {
-    h ^= static_cast<unsigned char>(c);
-    h *= 0x100000001b3ULL;
-  }
-  return h;
-}
-
 }  // namespace
 
 std::span<const rule_threshold> rule_thresholds() {
@@ -102,7 +92,7 @@ profile_identity identify(const profile& p) {
     text += std::string(t.overlaps ? " overlaps" : "") + (t.contiguous ? " contiguous" : "") + "\n";
   }
   char hex[17];
-  std::snprintf(hex, sizeof hex, "%016llx", static_cast<unsigned long long>(fnv1a64(text)));
+  std::snprintf(hex, sizeof hex, "%016llx", static_cast<unsigned long long>(detail::fnv1a64(text)));
   return {p.name, std::string("fnv1a64:") + hex};
 }
 

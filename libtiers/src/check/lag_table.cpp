@@ -38,12 +38,6 @@ void write_lag_table_csv(const std::vector<lag_rows>& files, byte_sink& out) {
 
 void write_lag_table_json(const std::vector<lag_rows>& files, byte_sink& out) {
   detail::json_writer j(out);
-  auto maybe = [&](const char* key, const std::optional<time_ns>& t) {
-    if (t)
-      j.seconds(key, *t);
-    else
-      j.key(key).null();
-  };
   j.begin_object(true);
   j.string("format", "tiers-lag-table");
   j.count("version", 1);
@@ -59,8 +53,8 @@ void write_lag_table_json(const std::vector<lag_rows>& files, byte_sink& out) {
         j.key("id").null();
       j.seconds("start", c.start);
       j.seconds("end", c.end);
-      maybe("word_start", c.word_start);
-      maybe("lag", c.lag);
+      j.maybe_seconds("word_start", c.word_start);
+      j.maybe_seconds("lag", c.lag);
       j.count("words", c.words);
       j.count("matched", c.matched);
       j.end_object();

@@ -1,0 +1,104 @@
+// The permutation test of co-occurrence: tier B shifted circularly within each recording.
+#include <string_view>
+#include <unordered_map>
+
+#include "detail/hash.hpp"
+#include "spans.hpp"
+#include "tiers/cooccur.hpp"
+#include "tiers/text.hpp"
+
+namespace tiers {
+namespace {
+
+// SplitMix64 (Steele, Lea and Flood 2014): a well-mixed 64-bit sequence from any seed.
+std::uint64_t splitmix(std::uint64_t& state) {
+  std::uint64_t z = (state += 0x9e3779b97f4a7c15ULL);
+  z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9ULL;
+  z = (z ^ (z >> 27)) * 0x94d049bb133111ebULL;
+  return z ^ (z >> 31);
+}
+
+// A uniform integer in [0, n), without modulo bias worth the name (Lemire's multiply-shift).
+time_ns uniform_below(std::uint64_t& state, time_ns n) {
+  __extension__ typedef unsigned __int128 u128;
+  const u128 x = static_cast<u128>(splitmix(state)) * static_cast<std::uint64_t>(n);
+  return static_cast<time_ns>(x >> 64);
+}
+
+}  // namespace
+
+time_ns latest_end(const tier& a, const tier& b) {
+  time_ns end = 0;
+  for (const tier* t : {&a, &b})
+    for (const annotation& x : t->annotations)
+      end = std::max({end, x.end, x.start});
+  return end;
+}
+
+void permutation_test(std::vector<pair_statistics>& table,
+                      const std::vector<cooccur_recording>& recordings, std::uint32_t permutations,
+                      std::uint64_t seed) {
+  // The pairs of the table, by label ids of their own.
+  std::unordered_map<std::string, std::uint32_t> a_ids, b_ids;
+  std::unordered_map<std::uint64_t, std::size_t> row;  // a·2³² + b → row of the table
+  for (std::size_t k = 0; k < table.size(); ++k) {
+    const auto a = a_ids.try_emplace(table[k].a, static_cast<std::uint32_t>(a_ids.size())).first;
+    const auto b = b_ids.try_emplace(table[k].b, static_cast<std::uint32_t>(b_ids.size())).first;
+    row[(static_cast<std::uint64_t>(a->second) << 32) | b->second] = k;
+  }
+  std::vector<std::uint64_t> shifted(table.size() * permutations, 0);  // [row][permutation]
+  for (const cooccur_recording& r : recordings) {
+    const cooccur_options& o = r.options;
+    auto fold = [&](const std::string& s) { return o.fold_case ? fold_case(s) : s; };
+    std::vector<detail::a_item> as;
+    for (const annotation& x : r.a->annotations) {
+      if (x.end < x.start) continue;
+      const auto it = a_ids.find(fold(x.text));
+      if (it != a_ids.end()) as.push_back({x.start, x.end, it->second});
+    }
+    const std::vector<std::string> wanted = detail::counted_labels(o);
+    const std::vector<detail::b_span> bs =
+        detail::b_spans(*r.b, o.window, [&](const std::string& text, std::uint32_t& id) {
+          const std::string l = fold(text);
+          if (!wanted.empty() && !std::binary_search(wanted.begin(), wanted.end(), l)) return false;
+          const auto it = b_ids.find(l);
+          if (it == b_ids.end()) return false;
+          id = it->second;
+          return true;
+        });
+    if (as.empty() || bs.empty() || r.length <= 0) continue;
+    std::uint64_t state = seed ^ detail::fnv1a64(r.name);
+    std::vector<detail::b_span> moved;
+    for (std::uint32_t p = 0; p < permutations; ++p) {
+      const time_ns offset = uniform_below(state, r.length);
+      moved.clear();
+      for (const detail::b_span& s : bs) {
+        // Shifted by the offset; a span that passes the end goes on from the start.
+        const time_ns from = s.from + offset, to = s.to + offset;
+        if (from >= r.length)
+          moved.push_back({from - r.length, to - r.length, s.label, s.index});
+        else if (to > r.length) {
+          moved.push_back({from, r.length, s.label, s.index});
+          moved.push_back({0, to - r.length, s.label, s.index});
+        } else {
+          moved.push_back({from, to, s.label, s.index});
+        }
+      }
+      detail::each_cooccurrence(
+          as, moved, o.relation, [&](std::size_t k, const std::vector<std::uint32_t>& found) {
+            for (const std::uint32_t y : found) {
+              const auto it = row.find((static_cast<std::uint64_t>(as[k].label) << 32) | y);
+              if (it != row.end()) ++shifted[it->second * permutations + p];
+            }
+          });
+    }
+  }
+  for (std::size_t k = 0; k < table.size(); ++k) {
+    std::uint64_t as_large = 0;
+    for (std::uint32_t p = 0; p < permutations; ++p)
+      as_large += shifted[k * permutations + p] >= table[k].count;
+    table[k].perm_p = static_cast<double>(1 + as_large) / static_cast<double>(permutations + 1);
+  }
+}
+
+}  // namespace tiers

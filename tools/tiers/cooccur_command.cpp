@@ -1,0 +1,346 @@
+// `tiers cooccur IN…|--dataset D --a TIER --b TIER [--relation R] [--window D] …`: counts
+// over every file or recording, then the statistics of every pair.
+#include "cooccur_command.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <atomic>
+#include <cmath>
+#include <map>
+#include <tuple>
+
+#include "batch.hpp"
+#include "dataset_inputs.hpp"
+#include "text_table.hpp"
+#include "tiers/cooccur.hpp"
+#include "tiers/io.hpp"
+
+namespace tiers::cli {
+
+void setup_cooccur(CLI::App& app, int& status) {
+  auto options = std::make_shared<cooccur_options_cli>();
+  cooccur_options_cli& o = *options;
+  CLI::App* cmd = app.add_subcommand(
+      "cooccur", "Which labels of one tier go with which labels of another, over a corpus");
+  cmd->add_option("inputs", o.paths, "Files or folders (searched recursively)")->type_name("PATH");
+  cmd->add_option("--dataset", o.dataset,
+                  "A dataset description: count over every recording (its files joined)")
+      ->type_name("FILE");
+  cmd->add_option("--jobs", o.jobs, "Files or recordings read at once (default: one per core)")
+      ->type_name("N");
+  cmd->add_option("--shard", o.shard,
+                  "Count only part K of N of the (sorted) files or recordings, and write the "
+                  "counts as JSON for --combine")
+      ->type_name("K/N");
+  cmd->add_flag("--combine", o.combine,
+                "The inputs are the counts of --shard runs: add them up into the table one run "
+                "over everything gives");
+  cmd->add_option("--a", o.a, "Tier A: each of its annotations is one observation (e.g. words)")
+      ->type_name("TIER");
+  cmd->add_option("--b", o.b, "Tier B: the labels A's annotations co-occur with (e.g. gestures)")
+      ->type_name("TIER");
+  cmd->add_option("--relation", o.relation,
+                  "When A co-occurs with B: overlap (they share time; default), within (A lies "
+                  "inside B) or starts-in (A starts inside B)")
+      ->check(one_of(cooccur_relation_names))
+      ->type_name("R");
+  cmd->add_option("--window", o.window,
+                  "Widen every B annotation by this on both sides (0.5s, 250ms, or frames: 12f)")
+      ->type_name("DURATION");
+  cmd->add_flag("--fold-case", o.fold_case,
+                "Compare labels case-folded (Unicode): 'Stroke' and 'STROKE' are one label");
+  cmd->add_option("--min-count", o.min_count, "Show pairs that co-occur at least N times (1)")
+      ->type_name("N");
+  cmd->add_option("--b-labels", o.b_labels, "Count only these labels of B")->type_name("A,B,...");
+  cmd->add_option("--sort", o.sort, "Sort by count, g2 (default), fisher, log-odds or pmi")
+      ->check(one_of(cooccur_sort_names))
+      ->type_name("BY");
+  cmd->add_option("--permutations", o.permutations,
+                  "Also test each pair against K circular shifts of tier B within each "
+                  "recording (a null model that keeps time's structure): perm_p")
+      ->type_name("K");
+  cmd->add_option("--seed", o.seed, "The shifts' seed (default 1): the same seed, the same p")
+      ->type_name("S");
+  cmd->add_option("--concordance", o.concordance,
+                  "Also write every co-occurrence of the pairs shown to FILE.csv: the recording, "
+                  "both annotations, A's context and a media fragment link to the moment")
+      ->type_name("FILE");
+  cmd->add_option("--context", o.context,
+                  "The concordance's context: A's annotations before and after (default 3)")
+      ->type_name("K");
+  add_report_output(*cmd, o.out);
+  add_input_options(*cmd, o.input);
+  cmd->callback([options, &status] { status = run_cooccur(*options); });
+}
+
+namespace {
+
+using tiers::quote_name;
+
+const tier& tier_named(const document& doc, const std::string& name, const std::string& file) {
+  if (const tier* t = find_tier(doc, name)) return *t;
+  diagnostic d;
+  d.file = file;
+  d.code = "cooccur.tier";
+  d.message = "no tier " + quote_name(name) + " (its tiers: " + tier_names(doc) + ")";
+  report(d);
+  throw rejected();
+}
+
+cooccur_options library_options(const cooccur_options_cli& o) {
+  cooccur_options l;
+  l.relation = named(cooccur_relation_names, o.relation);
+  l.fold_case = o.fold_case;
+  for (std::size_t from = 0; !o.b_labels.empty() && from <= o.b_labels.size();) {
+    const std::size_t comma = std::min(o.b_labels.find(',', from), o.b_labels.size());
+    l.b_labels.push_back(o.b_labels.substr(from, comma - from));
+    from = comma + 1;
+  }
+  return l;
+}
+
+// What one file or recording gives: its counts, and for the permutation test its two tiers.
+struct counted {
+  cooccur_counts counts;
+  std::optional<tier> a, b;
+  cooccur_recording recording;
+};
+
+// One document's counts; the window in frames counts at its rate.
+counted count_document(const cooccur_options_cli& o, cooccur_options l, const document& doc,
+                       const std::string& name) {
+  l.window = parse_duration_option("--window", o.window, duration_kind::length,
+                                   frame_rate_of(doc, o.input.rate));
+  counted c;
+  const tier& a = tier_named(doc, o.a, name);
+  const tier& b = tier_named(doc, o.b, name);
+  c.counts.add(a, b, l);
+  if (o.permutations > 0 || !o.concordance.empty()) {  // their second look at the tiers
+    c.a = a;
+    c.b = b;
+    c.recording.name = name;
+    c.recording.length = doc.media.duration.value_or(latest_end(a, b));
+    c.recording.media = doc.media.uri.value_or("");
+    c.recording.options = l;
+  }
+  return c;
+}
+
+std::string num(double v, int decimals = 3) {
+  if (std::isnan(v)) return "-";
+  if (std::isinf(v)) return v < 0 ? "-inf" : "inf";
+  return fmt::format("{:.{}f}", v, decimals);
+}
+
+std::string p_text(double p) {
+  return p < 1e-4 ? fmt::format("{:.1e}", p) : fmt::format("{:.4f}", p);
+}
+
+void print_table(const cooccur_options_cli& o, const std::vector<pair_statistics>& table,
+                 const cooccur_counts& counts, const cooccur_options& l, const std::string& a_tier,
+                 const std::string& b_tier, const std::string& what) {
+  const report_format f = o.out.chosen("cooccur", "the table of pairs");
+  if (f == report_format::json) {
+    emit(o.out, written([&](byte_sink& out) {
+           write_cooccur_json(table, counts.n(), a_tier, b_tier, l, out);
+         }));
+    return;
+  }
+  const bool csv = f == report_format::csv;
+  text_table t({"a", "b", ">count", ">a total", ">b total", ">expected", ">ratio", ">g2",
+                ">fisher p", ">fisher p greater", ">p adjusted", ">log odds", ">log odds low",
+                ">log odds high", ">pmi", ">perm p"});
+  auto exact = [&](double v) {
+    return csv ? (std::isfinite(v) ? fmt::format("{}", v) : "") : num(v);
+  };
+  for (const pair_statistics& s : table)
+    t.add_row({s.a, s.b, std::to_string(s.count), std::to_string(s.a_total),
+               std::to_string(s.b_total), exact(s.expected), exact(s.ratio), exact(s.g2),
+               csv ? fmt::format("{}", s.fisher_p) : p_text(s.fisher_p),
+               csv ? fmt::format("{}", s.fisher_p_greater) : p_text(s.fisher_p_greater),
+               csv ? fmt::format("{}", s.p_adjusted) : p_text(s.p_adjusted), exact(s.log_odds),
+               exact(s.log_odds_low), exact(s.log_odds_high), exact(s.pmi),
+               s.perm_p ? (csv ? fmt::format("{}", *s.perm_p) : fmt::format("{:.4f}", *s.perm_p))
+                        : (csv ? "" : "-")});
+  if (csv) {
+    emit(o.out, t.render_csv());
+    return;
+  }
+  std::string text =
+      fmt::format("{}: {} annotations of {} against the labels of {} ({}{}{})\n\n", what,
+                  counts.n(), a_tier, b_tier, name_of(cooccur_relation_names, l.relation),
+                  l.window > 0 ? ", window ±" + format_seconds(l.window) + " s" : std::string(),
+                  l.fold_case ? ", case folded" : "");
+  text += table.empty() ? "no pair co-occurs" +
+                              (o.min_count > 1 ? fmt::format(" {} times or more", o.min_count)
+                                               : std::string()) +
+                              "\n"
+                        : t.render();
+  text += "\np adjusted: Benjamini-Hochberg over the pairs shown; co-occurrence is not causation\n";
+  if (o.permutations > 0)
+    text +=
+        fmt::format("perm p: against {} circular shifts of {} within each recording (seed {})\n",
+                    o.permutations, o.b, o.seed);
+  emit(o.out, escape_controls(text, true));
+}
+
+diagnostic combine_problem(const std::string& file, std::string message) {
+  diagnostic d;
+  d.file = file;
+  d.code = "cooccur.value";
+  d.message = std::move(message);
+  return d;
+}
+
+// The counts of shards added up, and the table one run over everything prints.
+int combine_counts(const cooccur_options_cli& o) {
+  if (!o.dataset.empty() || !o.shard.empty() || o.permutations > 0)
+    throw usage_error("cooccur --combine adds up counts: no --dataset, --shard or --permutations");
+  if (o.paths.empty()) throw usage_error("cooccur --combine: name the counts of the shards");
+  std::optional<cooccur_part> all;
+  std::map<std::string, std::string> counted_in;  // recording → counts file
+  std::vector<diagnostic> problems;
+  for (const std::string& path : o.paths) {
+    const std::string file = display_name(path);
+    cooccur_part part = take(read_cooccur_counts(read_input(path), file));
+    if (!all) {
+      all = part;
+      all->counts = cooccur_counts{};
+      all->recordings.clear();
+    }
+    auto settings = [](const cooccur_part& p) {
+      return std::tuple(p.a_tier, p.b_tier, p.options.relation, p.window, p.options.fold_case,
+                        p.options.b_labels);
+    };
+    if (settings(part) != settings(*all))
+      problems.push_back(combine_problem(file, "was counted with other tiers or settings than " +
+                                                   display_name(o.paths[0]) +
+                                                   ": combine the shards of one run"));
+    for (const std::string& r : part.recordings) {
+      const auto [it, fresh] = counted_in.emplace(r, file);
+      if (!fresh)
+        problems.push_back(combine_problem(file, "counts " + quote_name(r) + ", which " +
+                                                     it->second +
+                                                     " counts already: combine each shard once"));
+    }
+    all->counts.add(part.counts);
+    all->recordings.insert(all->recordings.end(), part.recordings.begin(), part.recordings.end());
+  }
+  report_all(std::move(problems));
+  const std::vector<pair_statistics> table =
+      cooccur_table(all->counts, o.min_count, named(cooccur_sort_names, o.sort));
+  print_table(o, table, all->counts, all->options, all->a_tier, all->b_tier,
+              fmt::format("{} shard{}, {} files or recordings", o.paths.size(),
+                          o.paths.size() == 1 ? "" : "s", all->recordings.size()));
+  return exit_ok;
+}
+
+}  // namespace
+
+int run_cooccur(const cooccur_options_cli& o) {
+  reading_options(o.input, "");
+  parse_duration_arg("--window", o.window);
+  o.out.chosen("cooccur", "the table of pairs");
+  if (o.combine) return combine_counts(o);
+  if (o.a.empty() || o.b.empty()) throw usage_error("cooccur: name the two tiers: --a A --b B");
+  if (!o.shard.empty() && !o.concordance.empty())
+    throw usage_error("cooccur: --concordance goes with a whole run, not --shard");
+  if (!o.shard.empty() && o.permutations > 0)
+    throw usage_error(
+        "cooccur: --permutations needs every recording in one run (it does not combine yet)");
+  if (!o.shard.empty() && !o.out.format.empty() && o.out.format != "json")
+    throw usage_error("cooccur --shard writes counts as JSON, for --combine");
+  const cooccur_options l = library_options(o);
+  std::vector<std::string> names;
+  std::vector<std::optional<counted>> each;
+  int status = exit_ok;
+  std::string what;
+  if (!o.dataset.empty()) {
+    if (!o.paths.empty()) throw usage_error("cooccur: give either files or --dataset, not both");
+    const opened_dataset d = open_dataset(o.dataset, o.input, o.shard);
+    for (const recording& r : d.recordings)
+      names.push_back(r.id);
+    each.resize(d.recordings.size());
+    status = for_each_recording(d, o.jobs, "counting", [&](const recording& r) {
+      each[static_cast<std::size_t>(&r - d.recordings.data())] =
+          count_document(o, l, load_recording(d, r), r.id);
+    });
+    what = fmt::format("{}, {} recording{}", d.file, d.recordings.size(),
+                       d.recordings.size() == 1 ? "" : "s");
+  } else {
+    if (o.paths.empty()) throw usage_error("cooccur: name the files or folders, or --dataset");
+    std::vector<input_file> files = expand_inputs(o.paths);
+    if (!o.shard.empty()) {
+      std::vector<std::string> all_paths;
+      for (const input_file& f : files)
+        all_paths.push_back(f.path);
+      const std::vector<std::size_t> places = shard_places(all_paths, o.shard);
+      std::vector<input_file> part;
+      for (std::size_t k : places)
+        part.push_back(files[k]);
+      files = std::move(part);
+    }
+    for (const input_file& f : files)
+      names.push_back(display_name(f.path));
+    each.resize(files.size());
+    std::atomic<bool> failed = false;
+    run_parallel(
+        files.size(), o.jobs,
+        [&](std::size_t k) {
+          try {
+            input_options in = o.input;
+            in.path = files[k].path;
+            each[k] = count_document(o, l, load_document(in), display_name(files[k].path));
+          } catch (const rejected&) {
+            failed = true;
+          } catch (const error& e) {
+            report(e.diag());
+            failed = true;
+          }
+        },
+        "counting");
+    if (failed) status = exit_rejected;
+    what = fmt::format("{} file{}", files.size(), files.size() == 1 ? "" : "s");
+  }
+  if (each.empty()) throw usage_error("cooccur: the inputs hold no file to count");
+  // Nothing counted (every input failed, and said why): no table to print.
+  if (std::none_of(each.begin(), each.end(), [](const auto& c) { return c.has_value(); }))
+    return exit_rejected;
+  cooccur_counts all;
+  std::vector<cooccur_recording> recordings;
+  for (std::optional<counted>& c : each)
+    if (c) {
+      all.add(c->counts);
+      if (c->a) {
+        c->recording.a = &*c->a;
+        c->recording.b = &*c->b;
+        recordings.push_back(c->recording);
+      }
+    }
+  if (!o.shard.empty()) {
+    cooccur_part part;
+    part.a_tier = o.a;
+    part.b_tier = o.b;
+    part.window = o.window;
+    part.options = l;
+    part.shard = o.shard;
+    for (std::size_t k = 0; k < each.size(); ++k)
+      if (each[k]) part.recordings.push_back(names[k]);
+    part.counts = std::move(all);
+    emit(o.out, written([&](byte_sink& out) { write_cooccur_counts_json(part, out); }));
+    return status;
+  }
+  std::vector<pair_statistics> table =
+      cooccur_table(all, o.min_count, named(cooccur_sort_names, o.sort));
+  if (o.permutations > 0) permutation_test(table, recordings, o.permutations, o.seed);
+  if (!o.concordance.empty()) {
+    atomic_file out(o.concordance);
+    write_concordance_csv(table, recordings, o.context, out);
+    out.commit();
+  }
+  print_table(o, table, all, l, o.a, o.b, what);
+  return status;
+}
+
+}  // namespace tiers::cli
