@@ -19,7 +19,8 @@ during "deictic"). For every pair the command shows (over 200 tables in all):
 The planted pair comes first by G², and its adjusted p is below 1e-6.
 
 Counts of three shards (--shard K/3), combined (--combine), give the single run's table byte for
-byte; a shard given twice is refused.
+byte, the permutation test's too (the shards shifting for the combined table's pairs, --pairs);
+a shard given twice is refused.
 
 The permutation test (--permutations 999, seed 2026) on six invented recordings finds a planted
 association ("there" said in most "point" strokes) at p <= 0.01, gives the same p whatever
@@ -266,6 +267,21 @@ def shards(tiers, folder, out):
     one = run(folder, "--a", "words", "--b", "strokes", "--fold-case", "--json")
     combined = run("--combine", *parts, "--json")
     check(one == combined, "three shards' counts combined give one run's table, byte for byte")
+    # The permutation test in shards: the combined table names the pairs, each shard counts
+    # its recordings' shifts for them, and the sums give one run's p-values.
+    table = os.path.join(out, "combined-table.txt")
+    with open(table, "w") as fh:
+        fh.write(combined)
+    shifted = []
+    for k in (1, 2, 3):
+        part = os.path.join(out, f"part-{k}.shifted.counts.json")
+        run(folder, "--a", "words", "--b", "strokes", "--fold-case", "--shard", f"{k}/3",
+            "--permutations", "199", "--seed", "11", "--pairs", table, "-o", part)
+        shifted.append(part)
+    one = run(folder, "--a", "words", "--b", "strokes", "--fold-case", "--permutations", "199",
+              "--seed", "11", "--json")
+    check(run("--combine", *shifted, "--json") == one and '"perm_p": null' not in one,
+          "shards' permutation counts combined give one run's p-values, byte for byte")
     r = subprocess.run([tiers, "cooccur", "--combine", parts[0], parts[0]], capture_output=True,
                        text=True)
     check(r.returncode == 1 and "combine each shard once" in r.stderr,

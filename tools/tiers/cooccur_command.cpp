@@ -62,6 +62,10 @@ void setup_cooccur(CLI::App& app, int& status) {
       ->type_name("K");
   cmd->add_option("--seed", o.seed, "The shifts' seed (default 1): the same seed, the same p")
       ->type_name("S");
+  cmd->add_option("--pairs", o.pairs,
+                  "With --shard and --permutations: shift for the pairs of this table (what "
+                  "--combine of the plain counts printed with --json)")
+      ->type_name("TABLE.json");
   cmd->add_option("--concordance", o.concordance,
                   "Also write every co-occurrence of the pairs shown to FILE.csv: the recording, "
                   "both annotations, A's context and a media fragment link to the moment")
@@ -196,7 +200,9 @@ diagnostic combine_problem(const std::string& file, std::string message) {
 // The counts of shards added up, and the table one run over everything prints.
 int combine_counts(const cooccur_options_cli& o) {
   if (!o.dataset.empty() || !o.shard.empty() || o.permutations > 0)
-    throw usage_error("cooccur --combine adds up counts: no --dataset, --shard or --permutations");
+    throw usage_error(
+        "cooccur --combine adds up counts (the shards' permutation counts too): no --dataset, "
+        "--shard or --permutations");
   if (o.paths.empty()) throw usage_error("cooccur --combine: name the counts of the shards");
   std::optional<cooccur_part> all;
   std::map<std::string, std::string> counted_in;  // recording → counts file
@@ -204,7 +210,8 @@ int combine_counts(const cooccur_options_cli& o) {
   for (const std::string& path : o.paths) {
     const std::string file = display_name(path);
     cooccur_part part = take(read_cooccur_counts(read_input(path), file));
-    if (!all) {
+    const bool first = !all;
+    if (first) {
       all = part;
       all->counts = cooccur_counts{};
       all->recordings.clear();
@@ -217,6 +224,17 @@ int combine_counts(const cooccur_options_cli& o) {
       problems.push_back(combine_problem(file, "was counted with other tiers or settings than " +
                                                    display_name(o.paths[0]) +
                                                    ": combine the shards of one run"));
+    auto shifts = [](const cooccur_part& p) {
+      return p.shifted
+                 ? std::tuple(true, p.shifted->permutations, p.shifted->seed, p.shifted->pairs)
+                 : std::tuple(false, 0u, std::uint64_t{0}, std::vector<label_pair>{});
+    };
+    if (shifts(part) != shifts(*all))
+      problems.push_back(
+          combine_problem(file, "holds other permutation counts than " + display_name(o.paths[0]) +
+                                    " (shifts, seed or pairs): combine the shards of one run"));
+    else if (part.shifted && !first)
+      all->shifted->add(*part.shifted);
     for (const std::string& r : part.recordings) {
       const auto [it, fresh] = counted_in.emplace(r, file);
       if (!fresh)
@@ -228,8 +246,9 @@ int combine_counts(const cooccur_options_cli& o) {
     all->recordings.insert(all->recordings.end(), part.recordings.begin(), part.recordings.end());
   }
   report_all(std::move(problems));
-  const std::vector<pair_statistics> table =
+  std::vector<pair_statistics> table =
       cooccur_table(all->counts, o.min_count, named(cooccur_sort_names, o.sort));
+  if (all->shifted) set_permutation_p(table, *all->shifted);
   print_table(o, table, all->counts, all->options, all->a_tier, all->b_tier,
               fmt::format("{} shard{}, {} files or recordings", o.paths.size(),
                           o.paths.size() == 1 ? "" : "s", all->recordings.size()));
@@ -246,9 +265,12 @@ int run_cooccur(const cooccur_options_cli& o) {
   if (o.a.empty() || o.b.empty()) throw usage_error("cooccur: name the two tiers: --a A --b B");
   if (!o.shard.empty() && !o.concordance.empty())
     throw usage_error("cooccur: --concordance goes with a whole run, not --shard");
-  if (!o.shard.empty() && o.permutations > 0)
+  if (!o.shard.empty() && o.permutations > 0 && o.pairs.empty())
     throw usage_error(
-        "cooccur: --permutations needs every recording in one run (it does not combine yet)");
+        "cooccur --shard --permutations: name the pairs to shift with --pairs TABLE.json, the "
+        "table --combine printed (with --json) from the shards' plain counts");
+  if (!o.pairs.empty() && (o.shard.empty() || o.permutations == 0))
+    throw usage_error("cooccur: --pairs goes with --shard and --permutations");
   if (!o.shard.empty() && !o.out.format.empty() && o.out.format != "json")
     throw usage_error("cooccur --shard writes counts as JSON, for --combine");
   const cooccur_options l = library_options(o);
@@ -328,6 +350,9 @@ int run_cooccur(const cooccur_options_cli& o) {
     for (std::size_t k = 0; k < each.size(); ++k)
       if (each[k]) part.recordings.push_back(names[k]);
     part.counts = std::move(all);
+    if (o.permutations > 0)
+      part.shifted = count_permutations(take(read_cooccur_pairs(read_input(o.pairs), o.pairs)),
+                                        recordings, o.permutations, o.seed);
     emit(o.out, written([&](byte_sink& out) { write_cooccur_counts_json(part, out); }));
     return status;
   }

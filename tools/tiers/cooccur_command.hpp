@@ -28,6 +28,7 @@ struct cooccur_options_cli {
   std::string sort = "g2";
   std::uint32_t permutations = 0;  ///< the permutation test's shifts; 0: none
   std::uint64_t seed = 1;
+  std::string pairs;  ///< with --shard and --permutations: the pairs to shift (a combined table)
   std::string concordance;  ///< every co-occurrence of the pairs shown, as CSV
   std::size_t context = 3;  ///< A's annotations before and after, in the concordance
   report_output out;

@@ -149,6 +149,29 @@ void permutation_test(std::vector<pair_statistics>& table,
                       const std::vector<cooccur_recording>& recordings, std::uint32_t permutations,
                       std::uint64_t seed);
 
+/// A pair of labels (x of A, y of B).
+using label_pair = std::pair<std::string, std::string>;
+
+/// The permutation test's counts, additive over recordings: for each of `pairs`, its O11 under
+/// each of the `permutations` shifts (`[pair][shift]`), for the recordings given.
+struct permutation_counts {
+  std::uint32_t permutations = 0;
+  std::uint64_t seed = 0;
+  std::vector<label_pair> pairs;
+  std::vector<std::vector<std::uint64_t>> counts;
+  void add(const permutation_counts& other);  ///< the same pairs and shifts, other recordings
+};
+permutation_counts count_permutations(const std::vector<label_pair>& pairs,
+                                      const std::vector<cooccur_recording>& recordings,
+                                      std::uint32_t permutations, std::uint64_t seed);
+
+/// Sets `perm_p` of every pair of `table` that `counts` has.
+void set_permutation_p(std::vector<pair_statistics>& table, const permutation_counts& counts);
+
+/// The pairs of a table that `cooccur --json` printed (its `pairs`' `a` and `b`), for the
+/// permutation counts of shards; problems located in `file`.
+result<std::vector<label_pair>> read_cooccur_pairs(std::string_view text, const std::string& file);
+
 /// Every co-occurrence of the pairs in `table`, so that the evidence can be read, as CSV
 /// (RFC 4180): `file, a, a_start, a_end, a_text, b, b_start, b_end, before, after, link` — the
 /// recording, A's label (as counted) and times and its text, B's label and times, the texts of
@@ -168,12 +191,14 @@ struct cooccur_part {
   std::string shard;                    ///< K/N
   std::vector<std::string> recordings;  ///< the files or recordings counted
   cooccur_counts counts;
+  std::optional<permutation_counts> shifted;  ///< with --permutations and --pairs
 };
 
 /// `{"format": "tiers-cooccur-counts", "version": 1, "shard", "a_tier", "b_tier", "relation",
 /// "window", "fold_case", "b_labels", "recordings", "n", "a": [[label, total]…], "b": […],
-/// "pairs": [[a, b, count]…]}` (schemas/cooccur-counts.schema.json); labels in sorted order, so
-/// that the same counts give the same bytes.
+/// "pairs": [[a, b, count]…], "permutations": {"count", "seed", "pairs": [[a, b, [counts…]]…]}}`
+/// (schemas/cooccur-counts.schema.json; `permutations` only when counted); labels in sorted
+/// order, so that the same counts give the same bytes.
 void write_cooccur_counts_json(const cooccur_part& part, byte_sink& out);
 
 /// Such a document read back; problems (`cooccur.value`, `cooccur.member`, `json.*`) located

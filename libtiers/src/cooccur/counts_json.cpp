@@ -65,6 +65,25 @@ void write_cooccur_counts_json(const cooccur_part& p, byte_sink& out) {
     j.end_array();
   }
   j.end_array();
+  if (p.shifted) {
+    const permutation_counts& s = *p.shifted;
+    j.key("permutations").begin_object(true);
+    j.count("count", s.permutations);
+    j.count("seed", s.seed);
+    j.key("pairs").begin_array(true);
+    for (std::size_t k = 0; k < s.pairs.size(); ++k) {
+      j.begin_array();
+      j.string(s.pairs[k].first);
+      j.string(s.pairs[k].second);
+      j.begin_array();
+      for (const std::uint64_t shifted : s.counts[k])
+        j.count(shifted);
+      j.end_array();
+      j.end_array();
+    }
+    j.end_array();
+    j.end_object();
+  }
   j.end_object();
   out.put('\n');
 }
@@ -138,10 +157,64 @@ result<cooccur_part> read_cooccur_counts(std::string_view text, const std::strin
         }
         p.counts.add_raw(row.items[0].text, row.items[1].text, count(row.items[2]));
       }
+    if (const json_node* perm = f.object("permutations")) {
+      json_fields g(*perm, "the permutation counts", "cooccur", problems);
+      permutation_counts s;
+      for (const char* key : {"count", "seed", "pairs"})
+        g.require(key);
+      if (const json_node* n = g.get("count"))
+        s.permutations = static_cast<std::uint32_t>(count(*n));
+      if (const json_node* n = g.get("seed")) s.seed = count(*n);
+      if (const json_node* list = g.array("pairs"))
+        for (const json_node& row : list->items) {
+          if (row.kind != json_node::type::array || row.items.size() != 3 ||
+              row.items[0].kind != json_node::type::string ||
+              row.items[1].kind != json_node::type::string ||
+              row.items[2].kind != json_node::type::array ||
+              row.items[2].items.size() != s.permutations) {
+            bad(row, "each pair is [a, b, [a count per shift]]");
+            continue;
+          }
+          s.pairs.emplace_back(row.items[0].text, row.items[1].text);
+          s.counts.emplace_back();
+          for (const json_node& c : row.items[2].items)
+            s.counts.back().push_back(count(c));
+        }
+      g.finish();
+      p.shifted = std::move(s);
+    }
     f.finish();
   }
   locate_all(text, problems);
   for (diagnostic& d : problems)
+    d.file = file;
+  return r;
+}
+
+result<std::vector<label_pair>> read_cooccur_pairs(std::string_view text, const std::string& file) {
+  result<std::vector<label_pair>> r;
+  const std::optional<json_node> root =
+      detail::parse_json_object(text, r.diagnostics, 8, "a co-occurrence table", "cooccur");
+  if (root) {
+    const json_node* pairs = root->member("pairs");
+    if (!pairs || pairs->kind != json_node::type::array)
+      r.diagnostics.push_back(detail::make_diagnostic(
+          severity::error, "cooccur.value", root->offset,
+          "a table of pairs was expected, as cooccur --format json prints it"));
+    else
+      for (const json_node& p : pairs->items) {
+        const json_node* a = p.member("a");
+        const json_node* b = p.member("b");
+        if (!a || !b || a->kind != json_node::type::string || b->kind != json_node::type::string) {
+          r.diagnostics.push_back(detail::make_diagnostic(
+              severity::error, "cooccur.value", p.offset, "each pair names its \"a\" and \"b\""));
+          continue;
+        }
+        r.value.emplace_back(a->text, b->text);
+      }
+  }
+  locate_all(text, r.diagnostics);
+  for (diagnostic& d : r.diagnostics)
     d.file = file;
   return r;
 }

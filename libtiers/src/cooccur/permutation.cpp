@@ -1,4 +1,5 @@
 // The permutation test of co-occurrence: tier B shifted circularly within each recording.
+#include <map>
 #include <string_view>
 #include <unordered_map>
 
@@ -35,18 +36,24 @@ time_ns latest_end(const tier& a, const tier& b) {
   return end;
 }
 
-void permutation_test(std::vector<pair_statistics>& table,
-                      const std::vector<cooccur_recording>& recordings, std::uint32_t permutations,
-                      std::uint64_t seed) {
-  // The pairs of the table, by label ids of their own.
+permutation_counts count_permutations(const std::vector<label_pair>& pairs,
+                                      const std::vector<cooccur_recording>& recordings,
+                                      std::uint32_t permutations, std::uint64_t seed) {
+  permutation_counts out;
+  out.permutations = permutations;
+  out.seed = seed;
+  out.pairs = pairs;
+  // The pairs, by label ids of their own.
   std::unordered_map<std::string, std::uint32_t> a_ids, b_ids;
-  std::unordered_map<std::uint64_t, std::size_t> row;  // a·2³² + b → row of the table
-  for (std::size_t k = 0; k < table.size(); ++k) {
-    const auto a = a_ids.try_emplace(table[k].a, static_cast<std::uint32_t>(a_ids.size())).first;
-    const auto b = b_ids.try_emplace(table[k].b, static_cast<std::uint32_t>(b_ids.size())).first;
+  std::unordered_map<std::uint64_t, std::size_t> row;  // a·2³² + b → row
+  for (std::size_t k = 0; k < pairs.size(); ++k) {
+    const auto a =
+        a_ids.try_emplace(pairs[k].first, static_cast<std::uint32_t>(a_ids.size())).first;
+    const auto b =
+        b_ids.try_emplace(pairs[k].second, static_cast<std::uint32_t>(b_ids.size())).first;
     row[(static_cast<std::uint64_t>(a->second) << 32) | b->second] = k;
   }
-  std::vector<std::uint64_t> shifted(table.size() * permutations, 0);  // [row][permutation]
+  std::vector<std::uint64_t> shifted(pairs.size() * permutations, 0);  // [row][permutation]
   for (const cooccur_recording& r : recordings) {
     const cooccur_options& o = r.options;
     auto fold = [&](const std::string& s) { return o.fold_case ? fold_case(s) : s; };
@@ -93,12 +100,40 @@ void permutation_test(std::vector<pair_statistics>& table,
           });
     }
   }
-  for (std::size_t k = 0; k < table.size(); ++k) {
+  out.counts.resize(pairs.size());
+  for (std::size_t k = 0; k < pairs.size(); ++k)
+    out.counts[k].assign(shifted.begin() + static_cast<std::ptrdiff_t>(k * permutations),
+                         shifted.begin() + static_cast<std::ptrdiff_t>((k + 1) * permutations));
+  return out;
+}
+
+void permutation_counts::add(const permutation_counts& other) {
+  for (std::size_t k = 0; k < counts.size() && k < other.counts.size(); ++k)
+    for (std::size_t p = 0; p < counts[k].size() && p < other.counts[k].size(); ++p)
+      counts[k][p] += other.counts[k][p];
+}
+
+void set_permutation_p(std::vector<pair_statistics>& table, const permutation_counts& c) {
+  std::map<label_pair, std::size_t> row;
+  for (std::size_t k = 0; k < c.pairs.size(); ++k)
+    row.emplace(c.pairs[k], k);
+  for (pair_statistics& s : table) {
+    const auto it = row.find({s.a, s.b});
+    if (it == row.end()) continue;
     std::uint64_t as_large = 0;
-    for (std::uint32_t p = 0; p < permutations; ++p)
-      as_large += shifted[k * permutations + p] >= table[k].count;
-    table[k].perm_p = static_cast<double>(1 + as_large) / static_cast<double>(permutations + 1);
+    for (const std::uint64_t shifted : c.counts[it->second])
+      as_large += shifted >= s.count;
+    s.perm_p = static_cast<double>(1 + as_large) / static_cast<double>(c.permutations + 1);
   }
+}
+
+void permutation_test(std::vector<pair_statistics>& table,
+                      const std::vector<cooccur_recording>& recordings, std::uint32_t permutations,
+                      std::uint64_t seed) {
+  std::vector<label_pair> pairs;
+  for (const pair_statistics& s : table)
+    pairs.emplace_back(s.a, s.b);
+  set_permutation_p(table, count_permutations(pairs, recordings, permutations, seed));
 }
 
 }  // namespace tiers
