@@ -59,6 +59,7 @@ void setup_cooccur(CLI::App& app, int& status) {
   cmd->add_option("--permutations", o.permutations,
                   "Also test each pair against K circular shifts of tier B within each "
                   "recording (a null model that keeps time's structure): perm_p")
+      ->check(CLI::Range(1u, 1'000'000u))
       ->type_name("K");
   cmd->add_option("--seed", o.seed, "The shifts' seed (default 1): the same seed, the same p")
       ->type_name("S");
