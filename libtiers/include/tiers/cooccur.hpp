@@ -6,6 +6,7 @@
 #include <cstdint>
 #include <optional>
 #include <string>
+#include <string_view>
 #include <unordered_map>
 #include <vector>
 
@@ -61,11 +62,23 @@ class cooccur_counts {
   void add_n(std::uint64_t count) { n_ += count; }
 
  private:
-  std::uint32_t a_id(const std::string& label);
-  std::uint32_t b_id(const std::string& label);
+  // Labels looked up by view: counting a label already met copies nothing.
+  struct text_hash {
+    using is_transparent = void;
+    std::size_t operator()(std::string_view s) const { return std::hash<std::string_view>{}(s); }
+  };
+  using label_index = std::unordered_map<std::string, std::uint32_t, text_hash, std::equal_to<>>;
+  static std::uint32_t id_in(label_index& index, std::vector<std::string>& labels,
+                             std::vector<std::uint64_t>& totals, std::string_view label);
+  std::uint32_t a_id(std::string_view label) {
+    return id_in(a_index_, a_labels_, a_totals_, label);
+  }
+  std::uint32_t b_id(std::string_view label) {
+    return id_in(b_index_, b_labels_, b_totals_, label);
+  }
   std::uint64_t n_ = 0;
   std::vector<std::string> a_labels_, b_labels_;
-  std::unordered_map<std::string, std::uint32_t> a_index_, b_index_;
+  label_index a_index_, b_index_;
   std::vector<std::uint64_t> a_totals_, b_totals_;
   std::unordered_map<std::uint64_t, std::uint64_t> pairs_;
 };

@@ -28,24 +28,14 @@ std::vector<std::string> counted_labels(const cooccur_options& o) {
 }
 }  // namespace detail
 
-std::uint32_t cooccur_counts::a_id(const std::string& label) {
-  const auto [it, added] =
-      a_index_.try_emplace(label, static_cast<std::uint32_t>(a_labels_.size()));
-  if (added) {
-    a_labels_.push_back(label);
-    a_totals_.push_back(0);
-  }
-  return it->second;
-}
-
-std::uint32_t cooccur_counts::b_id(const std::string& label) {
-  const auto [it, added] =
-      b_index_.try_emplace(label, static_cast<std::uint32_t>(b_labels_.size()));
-  if (added) {
-    b_labels_.push_back(label);
-    b_totals_.push_back(0);
-  }
-  return it->second;
+std::uint32_t cooccur_counts::id_in(label_index& index, std::vector<std::string>& labels,
+                                    std::vector<std::uint64_t>& totals, std::string_view label) {
+  if (const auto it = index.find(label); it != index.end()) return it->second;
+  const auto id = static_cast<std::uint32_t>(labels.size());
+  index.emplace(std::string(label), id);
+  labels.emplace_back(label);
+  totals.push_back(0);
+  return id;
 }
 
 void cooccur_counts::add(const tier& a, const tier& b, const cooccur_options& o) {
@@ -60,7 +50,7 @@ void cooccur_counts::add(const tier& a, const tier& b, const cooccur_options& o)
   std::vector<detail::a_item> as;
   for (const annotation& x : a.annotations)
     if (x.end >= x.start)
-      as.push_back({x.start, x.end, a_id(o.fold_case ? fold_case(x.text) : x.text)});
+      as.push_back({x.start, x.end, o.fold_case ? a_id(fold_case(x.text)) : a_id(x.text)});
   detail::each_cooccurrence(as, bs, o.relation,
                             [&](std::size_t k, const std::vector<std::uint32_t>& found) {
                               ++n_;
