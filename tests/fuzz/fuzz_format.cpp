@@ -43,11 +43,30 @@ std::uint32_t hex_value(std::string_view digits, bool& ok) {
 std::string data_of(std::string_view in, std::string_view format) {
   if (format == "csv" || format == "tsv") {
     if (in.starts_with("\xEF\xBB\xBF")) in.remove_prefix(3);  // a byte order mark, then the table
-    bool quoted = false;
+    // The header ends at the first line break outside quotes. As RFC 4180 reads, a field is
+    // quoted only when its first character is a quote; a quote inside an unquoted field is
+    // literal (the reader takes it so), and "" inside a quoted one is a quote.
+    const char delimiter = format == "csv" ? ',' : '\t';
+    bool quoted = false, field_start = true;
     std::size_t k = in.find_first_not_of("\r\n");  // empty lines before the header
     for (; k < in.size(); ++k) {
-      if (in[k] == '"') quoted = !quoted;
-      if (in[k] == '\n' && !quoted) return std::string(in.substr(k + 1));
+      const char c = in[k];
+      if (quoted) {
+        if (c == '"') {
+          if (k + 1 < in.size() && in[k + 1] == '"')
+            ++k;
+          else
+            quoted = false;
+        }
+        continue;
+      }
+      if (c == '"' && field_start) {
+        quoted = true;
+        field_start = false;
+        continue;
+      }
+      if (c == '\n') return std::string(in.substr(k + 1));
+      field_start = c == delimiter;
     }
     return {};
   }
