@@ -17,6 +17,28 @@ namespace tiers::cli {
 
 namespace fs = std::filesystem;
 
+int for_each_document(const std::vector<input_file>& files, const input_options& base,
+                      unsigned jobs, const char* verb,
+                      const std::function<void(std::size_t, document&&)>& work) {
+  std::atomic<bool> failed = false;
+  run_parallel(
+      files.size(), jobs,
+      [&](std::size_t k) {
+        try {
+          input_options in = base;
+          in.path = files[k].path;
+          work(k, load_document(in));
+        } catch (const rejected&) {
+          failed = true;  // its reasons are printed
+        } catch (const error& e) {
+          report(e.diag());
+          failed = true;
+        }
+      },
+      verb);
+  return failed ? exit_rejected : exit_ok;
+}
+
 std::vector<input_file> expand_inputs(const std::vector<std::string>& paths) {
   std::vector<input_file> out;
   for (const std::string& p : paths) {

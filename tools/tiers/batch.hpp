@@ -6,6 +6,8 @@
 #include <string>
 #include <vector>
 
+#include "cli_common.hpp"
+
 namespace tiers::cli {
 
 /// A file to work on, and its path below the folder it was found in (its name, when it was
@@ -25,5 +27,12 @@ std::vector<input_file> expand_inputs(const std::vector<std::string>& paths);
 /// terminal and there is more than one.
 void run_parallel(std::size_t count, unsigned jobs, const std::function<void(std::size_t)>& work,
                   const char* verb, const char* units = "files");
+
+/// Reads each of `files` with `base`'s reading options on `jobs` threads and calls `work(k,
+/// document)`; a file that cannot be read, or whose work is rejected, is reported and the others
+/// go on. Returns exit status 1 when any failed, else 0.
+int for_each_document(const std::vector<input_file>& files, const input_options& base,
+                      unsigned jobs, const char* verb,
+                      const std::function<void(std::size_t, document&&)>& work);
 
 }  // namespace tiers::cli

@@ -5,7 +5,6 @@
 #include <fmt/format.h>
 
 #include <algorithm>
-#include <atomic>
 #include <cmath>
 #include <map>
 #include <tuple>
@@ -307,23 +306,9 @@ int run_cooccur(const cooccur_options_cli& o) {
     for (const input_file& f : files)
       names.push_back(display_name(f.path));
     each.resize(files.size());
-    std::atomic<bool> failed = false;
-    run_parallel(
-        files.size(), o.jobs,
-        [&](std::size_t k) {
-          try {
-            input_options in = o.input;
-            in.path = files[k].path;
-            each[k] = count_document(o, l, load_document(in), display_name(files[k].path));
-          } catch (const rejected&) {
-            failed = true;
-          } catch (const error& e) {
-            report(e.diag());
-            failed = true;
-          }
-        },
-        "counting");
-    if (failed) status = exit_rejected;
+    status = for_each_document(
+        files, o.input, o.jobs, "counting",
+        [&](std::size_t k, document&& doc) { each[k] = count_document(o, l, doc, names[k]); });
     what = fmt::format("{} file{}", files.size(), files.size() == 1 ? "" : "s");
   }
   if (each.empty()) throw usage_error("cooccur: the inputs hold no file to count");

@@ -3,8 +3,6 @@
 
 #include <fmt/format.h>
 
-#include <atomic>
-
 #include "batch.hpp"
 #include "dataset_inputs.hpp"
 #include "text_table.hpp"
@@ -124,29 +122,17 @@ void print_labels(const info_options& o, const label_tally& tally, const std::st
 int file_labels(const info_options& o) {
   const std::vector<input_file> files = expand_inputs(o.paths);
   std::vector<std::optional<label_tally>> each(files.size());
-  std::atomic<bool> failed = false;
-  run_parallel(
-      files.size(), o.jobs,
-      [&](std::size_t k) {
-        try {
-          input_options in = o.input;
-          in.path = files[k].path;
-          label_tally t;
-          t.add(load_document(in));
-          each[k] = std::move(t);
-        } catch (const rejected&) {
-          failed = true;
-        } catch (const error& e) {
-          report(e.diag());
-          failed = true;
-        }
-      },
-      "reading");
+  const int status =
+      for_each_document(files, o.input, o.jobs, "reading", [&](std::size_t k, document&& doc) {
+        label_tally t;
+        t.add(doc);
+        each[k] = std::move(t);
+      });
   label_tally all;
   for (const std::optional<label_tally>& t : each)
     if (t) all.add(*t);
   print_labels(o, all, fmt::format("{} file{}", all.documents(), all.documents() == 1 ? "" : "s"));
-  return failed ? exit_rejected : exit_ok;
+  return status;
 }
 
 int dataset_labels(const info_options& o) {
