@@ -26,4 +26,11 @@ inline void append_escaped(std::string& out, std::string_view text,
   }
 }
 
+/// `text` escaped for an element's content (`&`, `<`, `>`).
+inline std::string escaped(std::string_view text) {
+  std::string out;
+  append_escaped(out, text);
+  return out;
+}
+
 }  // namespace tiers::detail

@@ -24,7 +24,8 @@ import jsonschema
 KINDS = {"tiers": "tiers.schema.json", "tiers-profile": "profile.schema.json",
          "tiers-check": "check.schema.json", "tiers-merge-plan": "merge-plan.schema.json",
          "tiers-dataset": "dataset.schema.json", "tiers-lag-table": "lag-table.schema.json",
-         "tiers-cooccur-counts": "cooccur-counts.schema.json"}
+         "tiers-cooccur-counts": "cooccur-counts.schema.json",
+         "tiers-estimate": "estimate.schema.json", "tiers-sample-plan": "sample-plan.schema.json"}
 
 
 def files(paths):

@@ -225,12 +225,14 @@ recording_read read_recording(const opened_dataset& d, const recording& r, bool 
   return out;
 }
 
-document load_recording(const opened_dataset& d, const recording& r) {
+document load_recording(const opened_dataset& d, const recording& r,
+                        std::vector<std::string>* tier_files) {
   std::vector<diagnostic> all = lacking_sources(d, r);
   recording_read read = read_recording(d, r);
   for (diagnostic& p : read.diagnostics)
     all.push_back(std::move(p));
   report_all(std::move(all));
+  if (tier_files) *tier_files = std::move(read.tier_files);
   return std::move(read.doc);
 }
 

@@ -77,8 +77,10 @@ const format& per_recording_format(const char* command, bool named_input, const 
                                    const std::string& dir, const std::string& to);
 
 /// Reads the recording, printing its diagnostics (lacking sources first); throws rejected on
-/// errors. For the commands that need a whole recording to work on.
-document load_recording(const opened_dataset& d, const recording& r);
+/// errors. For the commands that need a whole recording to work on. `tier_files`, when given,
+/// gets each tier's file.
+document load_recording(const opened_dataset& d, const recording& r,
+                        std::vector<std::string>* tier_files = nullptr);
 
 /// Each recording read and summarized (on `jobs` threads), index for index; none for one that
 /// could not be read, whose errors are printed. Lacking sources are not errors here.

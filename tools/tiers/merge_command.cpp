@@ -43,8 +43,10 @@ void setup_merge(CLI::App& app, int& status) {
   cmd->add_option("--strategy", o.strategy, "human-first (default), union or intersection")
       ->check(one_of(combine_strategy_names))
       ->type_name("S");
-  cmd->add_option("--min-confidence", o.min_confidence,
-                  "Leave out machine annotations below this confidence (0-1)")
+  cmd->add_option(
+         "--min-confidence", o.min_confidence,
+         "Leave out machine annotations below this confidence (0-1), or from-estimate: the "
+         "threshold tiers estimate --target-precision wrote into the machine tier")
       ->type_name("X");
   cmd->add_option("--min-duration", o.min_duration,
                   "Drop trimmed machine pieces shorter than this (0.2s, or frames: 5f)")
@@ -119,12 +121,14 @@ merge_plan make_plan(const merge_options& o, const std::optional<rational>* rate
     c.human = o.human;
     c.machine = o.machine;
     if (!o.strategy.empty()) c.strategy = named(combine_strategy_names, o.strategy);
-    if (!o.min_confidence.empty()) {
+    if (o.min_confidence == "from-estimate") {
+      c.confidence_from_estimate = true;
+    } else if (!o.min_confidence.empty()) {
       char* end = nullptr;
       c.min_confidence = std::strtod(o.min_confidence.c_str(), &end);
       if (*end != '\0' || !(c.min_confidence >= 0 && c.min_confidence <= 1))
         throw usage_error("--min-confidence: '" + o.min_confidence +
-                          "' is not a number from 0 to 1");
+                          "' is not a number from 0 to 1, or from-estimate");
     }
     if (!o.min_duration.empty())
       c.min_duration = duration("--min-duration", o.min_duration, duration_kind::length);

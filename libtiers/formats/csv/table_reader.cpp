@@ -30,16 +30,8 @@ constexpr std::array<std::string_view, role_count> role_names{
     "tier", "start", "end", "duration", "text", "markup", "confidence", "id", "parent"};
 constexpr std::size_t absent = static_cast<std::size_t>(-1);
 
-std::string_view trim(std::string_view s) {
-  while (!s.empty() && (s.front() == ' ' || s.front() == '\t'))
-    s.remove_prefix(1);
-  while (!s.empty() && (s.back() == ' ' || s.back() == '\t'))
-    s.remove_suffix(1);
-  return s;
-}
-
 parsed_time parse_time_cell(std::string_view text, const read_options& options) {
-  text = trim(text);
+  text = detail::trim_cell(text);
   std::size_t colons = 0;
   bool semicolon = false;
   for (char c : text) {
@@ -200,7 +192,7 @@ class table_reader {
     const table_cell& c = cells_[columns_[role]];
     const parsed_time t = parse_time_cell(c.text, options_);
     if (!t) {
-      if (trim(c.text).empty())
+      if (detail::trim_cell(c.text).empty())
         return fail_at("csv.time", c.offset, "empty " + std::string(role_names[role]) + " time");
       return fail_at(time_code(t.status, "csv.time"), c.offset,
                      std::string(role_names[role]) + " " + quote_name(c.text) + " " +
@@ -240,7 +232,7 @@ class table_reader {
     if (auto c = optional_cell(r_id)) a.id = std::string(c->text);
     if (auto c = optional_cell(r_parent)) a.parent = std::string(c->text);
     if (auto c = optional_cell(r_confidence)) {
-      const std::string_view v = trim(c->text);
+      const std::string_view v = detail::trim_cell(c->text);
       double conf = 0;
       auto [p, ec] = std::from_chars(v.data(), v.data() + v.size(), conf);
       if (ec != std::errc{} || p != v.data() + v.size() || !(conf >= 0.0 && conf <= 1.0))
@@ -279,7 +271,7 @@ class table_reader {
   position_recorder positions_;
   // Once, at the first row: the column that looks like milliseconds and what its value means.
   void warn_milliseconds() {
-    const std::string_view cell = trim(cells_[ms_column_].text);
+    const std::string_view cell = detail::trim_cell(cells_[ms_column_].text);
     const parsed_time as_ms = parse_milliseconds(cell);
     const bool plain = as_ms && cell.find(':') == std::string_view::npos;
     const std::string value =

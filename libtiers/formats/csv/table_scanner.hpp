@@ -11,6 +11,15 @@
 
 namespace tiers::detail {
 
+/// A cell without the spaces and tabs around it (spreadsheets and hand-written tables pad).
+inline std::string_view trim_cell(std::string_view s) {
+  while (!s.empty() && (s.front() == ' ' || s.front() == '\t'))
+    s.remove_prefix(1);
+  while (!s.empty() && (s.back() == ' ' || s.back() == '\t'))
+    s.remove_suffix(1);
+  return s;
+}
+
 struct table_cell {
   std::string_view text;   ///< unquoted content; valid until the next call to `next`
   std::size_t offset = 0;  ///< of the cell's first byte (its opening quote, if quoted)

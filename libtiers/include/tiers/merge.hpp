@@ -30,7 +30,10 @@ inline constexpr enum_name<combine_strategy> combine_strategy_names[]{
 struct combine_step {
   std::string into, human, machine;
   combine_strategy strategy = combine_strategy::human_first;
-  double min_confidence = 0;          ///< machine annotations with a lower confidence are left out
+  double min_confidence = 0;  ///< machine annotations with a lower confidence are left out
+  /// min_confidence is the machine tier's `precision_threshold` attribute, which `tiers
+  /// estimate --target-precision P --annotate` writes (docs/review.md).
+  bool confidence_from_estimate = false;
   time_ns min_duration = 0;           ///< trimmed pieces shorter than this are dropped
   std::optional<std::string> review;  ///< a tier marking every span where the sides disagree
   time_ns review_min = 0;  ///< disagreements shorter than this are left out of the review tier

@@ -18,6 +18,7 @@
 #include "tiers/names.hpp"
 #include "tiers/profile.hpp"
 #include "tiers/retime.hpp"
+#include "tiers/review.hpp"
 #include "tiers/rules.hpp"
 #include "tiers/sink.hpp"
 #include "tiers/text.hpp"

@@ -4,29 +4,12 @@
 #include <unordered_map>
 
 #include "detail/hash.hpp"
+#include "detail/random.hpp"
 #include "spans.hpp"
 #include "tiers/cooccur.hpp"
 #include "tiers/text.hpp"
 
 namespace tiers {
-namespace {
-
-// SplitMix64 (Steele, Lea and Flood 2014): a well-mixed 64-bit sequence from any seed.
-std::uint64_t splitmix(std::uint64_t& state) {
-  std::uint64_t z = (state += 0x9e3779b97f4a7c15ULL);
-  z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9ULL;
-  z = (z ^ (z >> 27)) * 0x94d049bb133111ebULL;
-  return z ^ (z >> 31);
-}
-
-// A uniform integer in [0, n), without modulo bias worth the name (Lemire's multiply-shift).
-time_ns uniform_below(std::uint64_t& state, time_ns n) {
-  __extension__ typedef unsigned __int128 u128;
-  const u128 x = static_cast<u128>(splitmix(state)) * static_cast<std::uint64_t>(n);
-  return static_cast<time_ns>(x >> 64);
-}
-
-}  // namespace
 
 time_ns latest_end(const tier& a, const tier& b) {
   time_ns end = 0;
@@ -77,7 +60,8 @@ permutation_counts count_permutations(const std::vector<label_pair>& pairs,
     std::uint64_t state = seed ^ detail::fnv1a64(r.name);
     std::vector<detail::b_span> moved;
     for (std::uint32_t p = 0; p < permutations; ++p) {
-      const time_ns offset = uniform_below(state, r.length);
+      const time_ns offset =
+          static_cast<time_ns>(detail::uniform_below(state, static_cast<std::uint64_t>(r.length)));
       moved.clear();
       for (const detail::b_span& s : bs) {
         // Shifted by the offset; a span that passes the end goes on from the start.

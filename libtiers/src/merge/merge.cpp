@@ -192,10 +192,11 @@ class merger {
     report(severity::note, "merge.shift", "tier " + quote_name(t->name) + " shifted " + how);
   }
 
-  void combine(const combine_step& c) {
+  void combine(combine_step c) {
     const tier* h = find(c.human, "combine as the human tier");
     const tier* m = find(c.machine, "combine as the machine tier");
     if (!h || !m) return;
+    if (c.confidence_from_estimate && !threshold_from_estimate(*m, c)) return;
     for (const tier* t : {h, m})
       if (t->kind != tier_kind::interval) {
         report(severity::error, "merge.combine",
@@ -229,6 +230,36 @@ class merger {
                     : ""));
     out_.value.tiers.push_back(std::move(r.merged));
     if (r.review) out_.value.tiers.push_back(std::move(*r.review));
+  }
+
+  // The threshold `tiers estimate --target-precision P --annotate` recommended for the tier.
+  bool threshold_from_estimate(const tier& m, combine_step& c) {
+    const auto at = m.attributes.find("precision_threshold");
+    double v = 0;
+    if (at == m.attributes.end()) {
+      const bool estimated = m.attributes.count("precision") > 0;
+      report(severity::error, "merge.combine",
+             quote_name(m.name) +
+                 (estimated ? " has a precision estimate but no threshold"
+                            : " holds no precision estimate") +
+                 ": run tiers estimate SHEET --target-precision P --annotate on it first, or "
+                 "give --min-confidence a number");
+      return false;
+    }
+    const auto [end, ec] =
+        std::from_chars(at->second.data(), at->second.data() + at->second.size(), v);
+    if (ec != std::errc() || end != at->second.data() + at->second.size() || !(v >= 0 && v <= 1)) {
+      report(severity::error, "merge.combine",
+             quote_name(m.name) + "'s precision_threshold '" + at->second +
+                 "' is not a confidence from 0 to 1");
+      return false;
+    }
+    c.min_confidence = v;
+    const auto target = m.attributes.find("precision_target");
+    report(severity::note, "merge.combine",
+           "min confidence " + shortest(v) + " for " + quote_name(m.name) + ", from its estimate" +
+               (target != m.attributes.end() ? " (target precision " + target->second + ")" : ""));
+    return true;
   }
 
   std::vector<merge_input> inputs_;

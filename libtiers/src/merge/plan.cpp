@@ -85,11 +85,15 @@ void read_combine(const json_node& n, merge_plan& plan, std::vector<diagnostic>&
     else
       f.bad(*f.get("strategy"), "'strategy' is " + quoted_names(combine_strategy_names));
   }
-  if (auto m = f.number("min_confidence")) {
-    if (*m >= 0 && *m <= 1)
-      c.min_confidence = *m;
+  if (const json_node* m = f.get("min_confidence");
+      m && m->kind == json_node::type::string && m->text == "from-estimate") {
+    c.confidence_from_estimate = true;
+  } else if (auto number = f.number("min_confidence")) {
+    if (*number >= 0 && *number <= 1)
+      c.min_confidence = *number;
     else
-      f.bad(*f.get("min_confidence"), "'min_confidence' is a number from 0 to 1");
+      f.bad(*f.get("min_confidence"),
+            "'min_confidence' is a number from 0 to 1, or \"from-estimate\"");
   }
   if (auto d = duration_member(f, "min_duration")) c.min_duration = *d;
   c.review = f.string("review");
@@ -169,7 +173,10 @@ std::string plan_json(const merge_plan& plan) {
     j.string("human", c.human);
     j.string("machine", c.machine);
     j.string("strategy", name_of(combine_strategy_names, c.strategy));
-    j.number("min_confidence", c.min_confidence);
+    if (c.confidence_from_estimate)
+      j.string("min_confidence", "from-estimate");
+    else
+      j.number("min_confidence", c.min_confidence);
     j.string("min_duration", duration_text(c.min_duration));
     if (c.review) j.string("review", *c.review);
     if (c.review_min > 0) j.string("review_min", duration_text(c.review_min));

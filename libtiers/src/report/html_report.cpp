@@ -10,6 +10,7 @@
 
 #include "detail/embedded.hpp"
 #include "detail/markup.hpp"
+#include "detail/script_data.hpp"
 #include "report_data.hpp"
 #include "tiers/version.hpp"
 
@@ -19,16 +20,12 @@ namespace {
 using detail::agreement_view;
 
 std::string_view asset(std::string_view name) {
-  for (const detail::embedded_file& f : detail::report_asset_table())
-    if (f.name == name) return f.text;
-  return {};
+  return detail::embedded_text(detail::report_asset_table(), name);
 }
 
 // Text for an element's content.
 std::string html(std::string_view text) {
-  std::string out;
-  detail::append_escaped(out, text);
-  return out;
+  return detail::escaped(text);
 }
 
 // Text for a quoted attribute value.
@@ -276,18 +273,6 @@ void write_head(byte_sink& out, const std::string& title) {
   out.write("</style>\n</head>\n<body>\n<header>\n");
 }
 
-// The data as the content of a script element: `<` is written as \u003c (valid in JSON
-// strings, the only place it can occur), so that no text can close the element early.
-void write_script_data(byte_sink& out, std::string_view json) {
-  std::size_t from = 0;
-  for (std::size_t at = json.find('<'); at != std::string_view::npos; at = json.find('<', from)) {
-    out.write(json.substr(from, at - from));
-    out.write("\\u003c");
-    from = at + 1;
-  }
-  out.write(json.substr(from));
-}
-
 }  // namespace
 
 void write_html_report(std::span<const report_file> files, const html_report_options& o,
@@ -338,7 +323,7 @@ void write_html_report(std::span<const report_file> files, const html_report_opt
     string_sink sink(data);
     detail::write_report_data(files, agreements, o, sink);
   }
-  write_script_data(out, data);
+  detail::write_script_data(out, data);
   out.write("\n</script>\n<script>\n");
   out.write(asset("report.js"));
   out.write("</script>\n</body>\n</html>\n");
