@@ -8,10 +8,12 @@
 //   tiers-bench FILE [FORMAT OUT]
 //   tiers-bench --stream FILE
 //   tiers-bench --cooccur FILE A B
+//   tiers-bench --sample FILE TIER   (tiers sample's draw of 500 in four confidence bands)
 #include <sys/resource.h>
 
 #include <chrono>
 #include <cstdio>
+#include <optional>
 #include <string>
 
 #include "tiers/tiers.hpp"
@@ -58,18 +60,47 @@ int stream(const char* path) {
   return 0;
 }
 
-int cooccur(const char* path, const std::string& a, const std::string& b) {
-  using clock = std::chrono::steady_clock;
+// The document at `path`, read whole; null (said why) when it lacks a tier of `names`.
+std::optional<tiers::document> read_with(const char* path,
+                                         std::initializer_list<std::string> names) {
   const std::string text = tiers::read_input(path);
   const tiers::format* fmt = tiers::format_for_path(path);
-  if (!fmt) return 2;
+  if (!fmt) return std::nullopt;
   tiers::read_result r = tiers::read_document(text, *fmt, {}, path);
-  const tiers::tier* ta = tiers::find_tier(r.value, a);
-  const tiers::tier* tb = tiers::find_tier(r.value, b);
-  if (!r.ok() || !ta || !tb) {
-    std::fprintf(stderr, "tiers-bench: %s has no tiers %s and %s\n", path, a.c_str(), b.c_str());
-    return 1;
-  }
+  for (const std::string& name : names)
+    if (!r.ok() || !tiers::find_tier(r.value, name)) {
+      std::fprintf(stderr, "tiers-bench: %s has no tier %s\n", path, name.c_str());
+      return std::nullopt;
+    }
+  return std::move(r.value);
+}
+
+// `tiers sample`'s draw over one tier after reading: four confidence bands, 500 drawn.
+int sample(const char* path, const std::string& name) {
+  using clock = std::chrono::steady_clock;
+  const std::optional<tiers::document> doc = read_with(path, {name});
+  if (!doc) return 1;
+  const tiers::tier& t = *tiers::find_tier(*doc, name);
+  tiers::sample_options o;
+  o.n = 500;
+  o.by = tiers::stratify_by::confidence;
+  o.bands = {0.5, 0.7, 0.9};
+  const auto t0 = clock::now();
+  tiers::sampler s(o);
+  s.add(path, t, {"media.webm", "media.webm"});
+  const std::size_t drawn = s.draw().size();
+  const double seconds = std::chrono::duration<double>(clock::now() - t0).count();
+  std::printf("{\"annotations\": %zu, \"drawn\": %zu, \"sample_seconds\": %.6f}\n",
+              t.annotations.size(), drawn, seconds);
+  return 0;
+}
+
+int cooccur(const char* path, const std::string& a, const std::string& b) {
+  using clock = std::chrono::steady_clock;
+  const std::optional<tiers::document> doc = read_with(path, {a, b});
+  if (!doc) return 1;
+  const tiers::tier* ta = tiers::find_tier(*doc, a);
+  const tiers::tier* tb = tiers::find_tier(*doc, b);
   const auto t0 = clock::now();
   tiers::cooccur_counts counts;
   counts.add(*ta, *tb, {});
@@ -91,6 +122,14 @@ int main(int argc, char** argv) {
       return 1;
     }
   }
+  if (argc == 4 && std::string(argv[1]) == "--sample") {
+    try {
+      return sample(argv[2], argv[3]);
+    } catch (const tiers::error& e) {
+      std::fprintf(stderr, "tiers-bench: %s\n", e.what());
+      return 1;
+    }
+  }
   if (argc == 3 && std::string(argv[1]) == "--stream") {
     try {
       return stream(argv[2]);
@@ -101,7 +140,8 @@ int main(int argc, char** argv) {
   }
   if (argc != 2 && argc != 4) {
     std::fprintf(stderr,
-                 "usage: tiers-bench FILE [FORMAT OUT] | --stream FILE | --cooccur FILE A B\n");
+                 "usage: tiers-bench FILE [FORMAT OUT] | --stream FILE | --cooccur FILE A B | "
+                 "--sample FILE TIER\n");
     return 2;
   }
   try {

@@ -5,7 +5,9 @@
 #include <fmt/format.h>
 
 #include <cmath>
+#include <map>
 #include <set>
+#include <tuple>
 
 #include "sample_command.hpp"
 #include "text_table.hpp"
@@ -160,6 +162,44 @@ std::string sampled_tier(const std::vector<sample_row>& rows, const std::string&
   throw rejected();
 }
 
+// The sheets' rows, one sample: the parts must agree on their strata's sizes, and no
+// annotation may be reviewed twice (a sample is drawn without replacement).
+std::vector<sample_row> read_sheets(const std::vector<std::string>& paths) {
+  std::vector<sample_row> rows;
+  std::map<std::string, std::pair<std::uint64_t, std::string>> sizes;  // stratum → N_h, file
+  std::map<std::tuple<std::string, std::string, time_ns, time_ns>, std::string> seen;
+  std::vector<diagnostic> problems;
+  auto problem = [&](const std::string& file, std::string message) {
+    diagnostic d;
+    d.file = file;
+    d.code = "review.sheet";
+    d.message = std::move(message);
+    problems.push_back(std::move(d));
+  };
+  for (const std::string& path : paths) {
+    const std::string file = display_name(path);
+    for (sample_row& r : take(read_review_sheet(read_input(path), file))) {
+      const auto [size, fresh] = sizes.try_emplace(r.stratum, r.stratum_size, file);
+      if (!fresh && size->second.first != r.stratum_size && size->second.second != file)
+        problem(file, fmt::format("the stratum {} has size {} here but {} in {}: the parts of "
+                                  "one sample agree on their strata",
+                                  quote_name(r.stratum), r.stratum_size, size->second.first,
+                                  size->second.second));
+      if (!r.file.empty() || r.start != 0 || r.end != 0) {
+        const auto [where, first] =
+            seen.try_emplace(std::tuple(r.file, r.tier, r.start, r.end), file);
+        if (!first)
+          problem(file, fmt::format("sample {} ({} at {} s) is in {} already: an annotation is "
+                                    "reviewed once",
+                                    r.sample_id, r.file, format_seconds(r.start), where->second));
+      }
+      rows.push_back(std::move(r));
+    }
+  }
+  report_all(std::move(problems));
+  return rows;
+}
+
 }  // namespace
 
 int run_estimate(const estimate_options_cli& o) {
@@ -169,12 +209,7 @@ int run_estimate(const estimate_options_cli& o) {
     throw usage_error("estimate: --to and --allow-loss go with --annotate");
   if (!o.annotate.empty() && o.out.output.empty())
     throw usage_error("estimate --annotate: name the annotated file with -o");
-  std::vector<sample_row> rows;
-  for (const std::string& path : o.sheets) {
-    std::vector<sample_row> part = take(read_review_sheet(read_input(path), display_name(path)));
-    rows.insert(rows.end(), std::make_move_iterator(part.begin()),
-                std::make_move_iterator(part.end()));
-  }
+  const std::vector<sample_row> rows = read_sheets(o.sheets);
   estimate_options l;
   l.level = o.level;
   l.target_precision = o.target_precision;

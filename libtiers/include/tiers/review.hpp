@@ -113,6 +113,10 @@ std::string media_fragment(std::string_view uri, time_ns start, time_ns end, tim
 class sampler {
  public:
   explicit sampler(const sample_options& options) : options_(options) {}
+  sampler(sampler&&) = default;  // the strata's name pointers stay with their map's nodes
+  sampler& operator=(sampler&&) = default;
+  sampler(const sampler&) = delete;
+  sampler& operator=(const sampler&) = delete;
 
   /// The tier's annotations of one file; `media` is where its clips are played from.
   void add(const std::string& file, const tier& t, const media_place& media);
@@ -126,17 +130,31 @@ class sampler {
   std::uint64_t population() const;
 
  private:
+  // Only what a candidate needs to be ranked and, once drawn, to become a row: the file's
+  // name, tier and media links are its source's, built once a file.
   struct kept {
     std::uint64_t key;
-    sample_row row;
+    std::uint32_t source;
+    time_ns start, end;
+    std::string label;
+    std::optional<double> confidence;
+  };
+  struct source {
+    std::string file, tier;
+    media_place media;
+    time_ns context;  ///< the options' when the file was added (frames count at its rate)
   };
   struct stratum {
+    const std::string* name = nullptr;  ///< its key's, in strata_
     std::uint64_t size = 0;
     std::vector<kept> smallest;  ///< a max-heap on key, at most options.n
   };
+  bool before(const kept& a, const kept& b) const;
   void keep(stratum& s, kept&& k) const;
+  stratum& stratum_named(std::size_t rank, std::string name);
 
   sample_options options_;
+  std::vector<source> sources_;
   /// By (rank, name): confidence bands in their order, other strata by name.
   std::map<std::pair<std::size_t, std::string>, stratum> strata_;
 };

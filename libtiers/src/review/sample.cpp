@@ -7,6 +7,7 @@
 #include <filesystem>
 #include <map>
 #include <numeric>
+#include <unordered_map>
 
 #include "detail/hash.hpp"
 #include "detail/random.hpp"
@@ -40,39 +41,19 @@ std::string encode_segment(std::string_view segment) {
   return out;
 }
 
-// Where a stratum sorts: confidence bands in their order, the rest by name.
-using stratum_key = std::pair<std::size_t, std::string>;
-
-stratum_key stratum_of(const sample_options& o, const std::string& file, const annotation& a) {
-  switch (o.by) {
-    case stratify_by::confidence: {
-      const auto band = a.confidence
-                            ? static_cast<std::size_t>(
-                                  std::upper_bound(o.bands.begin(), o.bands.end(), *a.confidence) -
-                                  o.bands.begin())
-                            : o.bands.size() + 1;
-      return {band, confidence_band(o.bands, a.confidence)};
-    }
-    case stratify_by::label:
-      return {0, a.text};
-    case stratify_by::file:
-      return {0, file};
-    case stratify_by::none:
-      break;
-  }
-  return {0, "all"};
-}
-
-bool before(std::uint64_t ka, const sample_row& a, std::uint64_t kb, const sample_row& b) {
-  return std::tie(ka, a.file, a.start, a.end) < std::tie(kb, b.file, b.start, b.end);
+// The band of a confidence: 0 for below the first limit, …, bands.size() for the last band,
+// bands.size() + 1 for no confidence at all.
+std::size_t band_of(const std::vector<double>& bands, std::optional<double> confidence) {
+  if (!confidence) return bands.size() + 1;
+  return static_cast<std::size_t>(std::upper_bound(bands.begin(), bands.end(), *confidence) -
+                                  bands.begin());
 }
 
 }  // namespace
 
 std::string confidence_band(const std::vector<double>& bands, std::optional<double> confidence) {
   if (!confidence) return "no confidence";
-  const auto at = static_cast<std::size_t>(
-      std::upper_bound(bands.begin(), bands.end(), *confidence) - bands.begin());
+  const std::size_t at = band_of(bands, confidence);
   const double low = at == 0 ? 0 : bands[at - 1];
   if (at == bands.size()) return fmt::format("[{},1]", low);
   return fmt::format("[{},{})", low, bands[at]);
@@ -171,8 +152,16 @@ std::vector<std::uint64_t> allocate(std::uint64_t n, const std::vector<std::uint
   return out;
 }
 
+// By key; two equal keys (a chance of about one in 2^64 a pair) by file and time, so that the
+// order never depends on the order of reading.
+bool sampler::before(const kept& a, const kept& b) const {
+  if (a.key != b.key) return a.key < b.key;
+  return std::tie(sources_[a.source].file, a.start, a.end) <
+         std::tie(sources_[b.source].file, b.start, b.end);
+}
+
 void sampler::keep(stratum& s, kept&& k) const {
-  auto larger = [](const kept& a, const kept& b) { return before(a.key, a.row, b.key, b.row); };
+  auto larger = [this](const kept& a, const kept& b) { return before(a, b); };
   if (s.smallest.size() < options_.n) {
     s.smallest.push_back(std::move(k));
     std::push_heap(s.smallest.begin(), s.smallest.end(), larger);
@@ -183,42 +172,68 @@ void sampler::keep(stratum& s, kept&& k) const {
   }
 }
 
+sampler::stratum& sampler::stratum_named(std::size_t rank, std::string name) {
+  auto it = strata_.find(std::pair(rank, name));
+  if (it == strata_.end()) it = strata_.emplace(std::pair(rank, std::move(name)), stratum{}).first;
+  it->second.name = &it->first.second;
+  return it->second;
+}
+
 void sampler::add(const std::string& file, const tier& t, const media_place& media) {
+  // The strata met in this file, looked up once each: a band by its index, a label by its text
+  // (a view into the tier, which outlives the call).
+  std::vector<stratum*> bands(options_.bands.size() + 2, nullptr);
+  std::unordered_map<std::string_view, stratum*> labels;
+  stratum* whole = nullptr;
+  auto stratum_of = [&](const annotation& a) -> stratum& {
+    switch (options_.by) {
+      case stratify_by::confidence: {
+        const std::size_t band = band_of(options_.bands, a.confidence);
+        stratum*& s = bands[band];
+        if (!s) s = &stratum_named(band, confidence_band(options_.bands, a.confidence));
+        return *s;
+      }
+      case stratify_by::label: {
+        stratum*& s = labels[a.text];
+        if (!s) s = &stratum_named(0, a.text);
+        return *s;
+      }
+      case stratify_by::file:
+      case stratify_by::none:
+        break;
+    }
+    if (!whole) whole = &stratum_named(0, options_.by == stratify_by::file ? file : "all");
+    return *whole;
+  };
   // The file's own sequence of keys: the k-th annotation's is the k-th number of SplitMix64
   // from a start made of the seed and the file's name.
   std::uint64_t start = options_.seed ^ detail::fnv1a64(file);
   const std::uint64_t base = detail::splitmix(start);
+  const auto from = static_cast<std::uint32_t>(sources_.size());
+  sources_.push_back({file, t.name, media, options_.context});
   for (std::size_t k = 0; k < t.annotations.size(); ++k) {
     const annotation& a = t.annotations[k];
     std::uint64_t state = base + k * 0x9e3779b97f4a7c15ULL;
     const std::uint64_t key = detail::splitmix(state);
-    stratum_key where = stratum_of(options_, file, a);
-    auto it = strata_.find(where);
-    if (it == strata_.end()) it = strata_.emplace(std::move(where), stratum{}).first;
-    stratum& s = it->second;
+    stratum& s = stratum_of(a);
     ++s.size;
     if (options_.n == 0 || (s.smallest.size() == options_.n && key > s.smallest.front().key))
       continue;  // cannot be drawn: spare building its row
-    kept row{key, {}};
-    row.row.file = file;
-    row.row.tier = t.name;
-    row.row.start = a.start;
-    row.row.end = a.end;
-    row.row.label = a.text;
-    row.row.confidence = a.confidence;
-    row.row.stratum = it->first.second;
-    row.row.link = media_fragment(media.from_sheet, a.start, a.end, options_.context);
-    row.row.media = media_fragment(media.from_page, a.start, a.end, options_.context);
-    keep(s, std::move(row));
+    keep(s, {key, from, a.start, a.end, a.text, a.confidence});
   }
 }
 
 void sampler::add(sampler&& other) {
+  const auto offset = static_cast<std::uint32_t>(sources_.size());
+  for (source& f : other.sources_)
+    sources_.push_back(std::move(f));
   for (auto& [where, theirs] : other.strata_) {
-    stratum& s = strata_[where];
+    stratum& s = stratum_named(where.first, where.second);
     s.size += theirs.size;
-    for (kept& k : theirs.smallest)
+    for (kept& k : theirs.smallest) {
+      k.source += offset;
       keep(s, std::move(k));
+    }
   }
 }
 
@@ -246,29 +261,46 @@ std::vector<stratum_count> sampler::strata() const {
 
 std::vector<sample_row> sampler::draw() const {
   const std::vector<stratum_count> counts = strata();
-  std::vector<kept> all;
+  struct chosen {
+    const kept* k;
+    const stratum_count* stratum;
+  };
+  std::vector<chosen> all;
   std::size_t h = 0;
+  auto by_key = [this](const kept* a, const kept* b) { return before(*a, *b); };
   for (const auto& [where, s] : strata_) {
-    std::vector<kept> smallest = s.smallest;
-    std::sort(smallest.begin(), smallest.end(),
-              [](const kept& a, const kept& b) { return before(a.key, a.row, b.key, b.row); });
+    std::vector<const kept*> smallest;
+    for (const kept& k : s.smallest)
+      smallest.push_back(&k);
+    std::sort(smallest.begin(), smallest.end(), by_key);
     const stratum_count& c = counts[h++];
     smallest.resize(std::min<std::size_t>(smallest.size(), c.drawn));
-    for (kept& k : smallest) {
-      k.row.stratum_size = c.size;
-      k.row.weight = static_cast<double>(c.size) / static_cast<double>(c.drawn);
-      all.push_back(std::move(k));
-    }
+    for (const kept* k : smallest)
+      all.push_back({k, &c});
   }
   // In the order of their keys, the strata come interleaved at random: a review stopped half
   // way has looked at a random half of every stratum, not at the first strata only.
   std::sort(all.begin(), all.end(),
-            [](const kept& a, const kept& b) { return before(a.key, a.row, b.key, b.row); });
+            [&](const chosen& a, const chosen& b) { return by_key(a.k, b.k); });
   std::vector<sample_row> out;
   out.reserve(all.size());
-  for (kept& k : all) {
-    k.row.sample_id = out.size() + 1;
-    out.push_back(std::move(k.row));
+  for (const chosen& c : all) {
+    const kept& k = *c.k;
+    const source& from = sources_[k.source];
+    sample_row r;
+    r.sample_id = out.size() + 1;
+    r.file = from.file;
+    r.tier = from.tier;
+    r.start = k.start;
+    r.end = k.end;
+    r.label = k.label;
+    r.confidence = k.confidence;
+    r.stratum = c.stratum->name;
+    r.stratum_size = c.stratum->size;
+    r.weight = static_cast<double>(c.stratum->size) / static_cast<double>(c.stratum->drawn);
+    r.link = media_fragment(from.media.from_sheet, k.start, k.end, from.context);
+    r.media = media_fragment(from.media.from_page, k.start, k.end, from.context);
+    out.push_back(std::move(r));
   }
   return out;
 }
