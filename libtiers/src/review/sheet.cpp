@@ -7,7 +7,7 @@
 #include <cmath>
 #include <map>
 
-#include "../../formats/csv/table_scanner.hpp"
+#include "formats/csv/table_scanner.hpp"
 #include "tiers/review.hpp"
 
 namespace tiers {
