@@ -2,6 +2,7 @@
 #include <algorithm>
 #include <array>
 #include <cstdio>
+#include <filesystem>
 #include <optional>
 
 #include "detail/limits.hpp"
@@ -145,6 +146,31 @@ std::vector<const format*> sniff_formats(std::string_view head) {
   for (const auto& s : scored)
     out.push_back(s.second);
   return out;
+}
+
+std::string format_names() {
+  std::string s;
+  for (const format& f : registry)
+    s += (s.empty() ? "" : ", ") + std::string(f.name);
+  return s;
+}
+
+const format* choose_format(std::string_view path, std::string_view content, diagnostic& why,
+                            std::string_view how) {
+  if (!path.empty())
+    if (const format* f = format_for_path(path)) return f;
+  const auto sniffed = sniff_formats(content.substr(0, 4096));
+  if (!sniffed.empty()) return sniffed.front();
+  const std::string ext =
+      path.empty() ? "" : std::filesystem::path(std::string(path)).extension().string();
+  why.file = std::string(path);
+  why.code = "input.format";
+  why.message =
+      std::string("cannot tell the format: ") +
+      (ext.empty() ? "the name has no extension" : "no format uses the extension '" + ext + "'") +
+      ", and the content looks like none of " + format_names() + "; name it with " +
+      std::string(how);
+  return nullptr;
 }
 
 namespace {

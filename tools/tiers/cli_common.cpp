@@ -154,13 +154,6 @@ void report_all(std::vector<diagnostic> diagnostics, std::string_view file) {
   if (has_errors(diagnostics)) throw rejected();
 }
 
-std::string format_names() {
-  std::string s;
-  for (const format& f : formats())
-    s += (s.empty() ? "" : ", ") + std::string(f.name);
-  return s;
-}
-
 const format& format_named(const std::string& name) {
   if (const format* f = find_format(name)) return *f;
   throw usage_error("unknown format '" + name + "' (formats: " + format_names() + ")");
@@ -224,18 +217,9 @@ rational parse_rate_option(const std::string& text) {
 const format* input_format(const input_options& in, const std::string& path,
                            std::string_view content, diagnostic& why) {
   if (!in.from.empty()) return &format_named(in.from);
-  if (path != "-")
-    if (const format* f = format_for_path(path)) return f;
-  const auto sniffed = sniff_formats(content.substr(0, 4096));
-  if (!sniffed.empty()) return sniffed.front();
-  const std::string ext = path == "-" ? "" : std::filesystem::path(path).extension().string();
-  why.file = display_name(path);
-  why.code = "input.format";
-  why.message =
-      std::string("cannot tell the format: ") +
-      (ext.empty() ? "the name has no extension" : "no format uses the extension '" + ext + "'") +
-      ", and the content looks like none of " + format_names() + "; name it with --from";
-  return nullptr;
+  const format* f = choose_format(path == "-" ? "" : path, content, why, "--from");
+  if (!f) why.file = display_name(path);
+  return f;
 }
 
 read_options reading_options(const input_options& in, const std::string& path) {

@@ -168,9 +168,6 @@ std::string display_name(const std::string& path);
 /// The registered format called `name`; throws usage_error listing the names otherwise.
 const format& format_named(const std::string& name);
 
-/// A comma-separated list of every format name.
-std::string format_names();
-
 /// What a duration option may be.
 enum class duration_kind { length, positive, offset };
 

@@ -6,29 +6,43 @@
 #include "csv_format.hpp"
 #include "detail/json_text.hpp"
 #include "detail/report.hpp"
+#include "tiers/table.hpp"
+
+namespace tiers {
+
+bool is_table_column(std::string_view name) {
+  static constexpr std::string_view names[] = {"tier",   "start",      "end", "duration", "text",
+                                               "markup", "confidence", "id",  "parent"};
+  return std::find(std::begin(names), std::end(names), name) != std::end(names);
+}
+
+table_layout layout_of(const document& doc) {
+  table_layout l;
+  std::set<std::string, std::less<>> keys;
+  for (const tier& t : doc.tiers)
+    for (const annotation& a : t.annotations) {
+      ++l.rows;
+      l.markup |= a.markup.has_value();
+      l.confidence |= a.confidence.has_value();
+      l.id |= a.id.has_value();
+      l.parent |= a.parent.has_value();
+      for (const auto& kv : a.attributes)
+        if (!is_table_column(kv.first)) keys.insert(kv.first);
+    }
+  l.attributes.assign(keys.begin(), keys.end());
+  return l;
+}
+
+}  // namespace tiers
 
 namespace tiers::detail {
 namespace {
 
-constexpr std::string_view column_names[] = {"tier",   "start",      "end", "duration", "text",
-                                             "markup", "confidence", "id",  "parent"};
-
-bool is_column_name(std::string_view key) {
-  return std::find(std::begin(column_names), std::end(column_names), key) != std::end(column_names);
-}
-
 void write_table(const document& doc, byte_sink& out, char delimiter, std::string_view eol) {
-  bool any_markup = false, any_confidence = false, any_id = false, any_parent = false;
-  std::set<std::string, std::less<>> keys;
-  for (const tier& t : doc.tiers)
-    for (const annotation& a : t.annotations) {
-      any_markup |= a.markup.has_value();
-      any_confidence |= a.confidence.has_value();
-      any_id |= a.id.has_value();
-      any_parent |= a.parent.has_value();
-      for (const auto& kv : a.attributes)
-        if (!is_column_name(kv.first)) keys.insert(kv.first);
-    }
+  const table_layout layout = layout_of(doc);
+  const bool any_markup = layout.markup, any_confidence = layout.confidence, any_id = layout.id,
+             any_parent = layout.parent;
+  const std::vector<std::string>& keys = layout.attributes;
   out.write("tier");
   auto column = [&](bool present, std::string_view name) {
     if (!present) return;
@@ -99,7 +113,7 @@ void table_losses(const document& doc, std::vector<std::string>& losses) {
       bool clash = false;
       for (const auto& [k, v] : a.attributes) {
         has_empty |= v.empty();
-        clash |= is_column_name(k);
+        clash |= is_table_column(k);
       }
       empty_values += has_empty ? 1 : 0;
       clashing += clash ? 1 : 0;

@@ -217,6 +217,15 @@ const format* format_for_path(std::string_view path);
 /// The formats whose sniffers recognise `head`, surest first.
 std::vector<const format*> sniff_formats(std::string_view head);
 
+/// The formats' names, as messages list them: `json, csv, tsv, …`.
+std::string format_names();
+
+/// The format to read a file with when none is named: its extension's, else the surest that
+/// recognises `content` (`path` empty for a stream). Null when none fits, with `why`
+/// (`input.format`, naming `path`) saying so and ending "name it with `how`" (`--from`).
+const format* choose_format(std::string_view path, std::string_view content, diagnostic& why,
+                            std::string_view how);
+
 /// Reads `input` as `fmt`: checks that it is UTF-8, runs the reader and locates every
 /// diagnostic (line, column, and `file` set to `file_name`).
 read_result read_document(std::string_view input, const format& fmt, const read_options& options,

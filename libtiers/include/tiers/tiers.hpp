@@ -21,6 +21,7 @@
 #include "tiers/review.hpp"
 #include "tiers/rules.hpp"
 #include "tiers/sink.hpp"
+#include "tiers/table.hpp"
 #include "tiers/text.hpp"
 #include "tiers/time.hpp"
 #include "tiers/version.hpp"

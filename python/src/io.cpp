@@ -1,0 +1,264 @@
+// Reading and writing: tiers.read / loads and tiers.write / dumps, with the command line's
+// reading options by name, its format choice, and its refusal to lose data.
+#include <pybind11/stl.h>
+
+#include "binding.hpp"
+#include "tiers/dataset.hpp"
+#include "tiers/format.hpp"
+#include "tiers/io.hpp"
+#include "tiers/model.hpp"
+#include "tiers/sink.hpp"
+
+namespace tiers::python {
+
+std::string path_text(const py::handle& path) {
+  return py::str(py::module_::import("os").attr("fspath")(path));
+}
+
+void raise(const char* kind, const std::string& message, const std::vector<diagnostic>& diagnostics,
+           const std::vector<std::string>& losses) {
+  py::object cls = py::module_::import("tiers.errors").attr(kind);
+  py::object error = std::string(kind) == "LossError"
+                         ? cls(message, py::cast(diagnostics), py::cast(losses))
+                         : cls(message, py::cast(diagnostics));
+  PyErr_SetObject(cls.ptr(), error.ptr());
+  throw py::error_already_set();
+}
+
+namespace {
+
+// What read() and loads() take besides the input: the command line's reading options.
+struct reading {
+  std::optional<std::string> format, columns, tier_name, time_unit, rate, source, kind;
+  bool strict = false;
+  std::size_t max_text = read_options{}.max_text, max_tiers = read_options{}.max_tiers;
+};
+
+[[noreturn]] void usage(const std::string& message) {
+  raise("UsageError", message, {});
+}
+
+read_options options_of(const reading& r, const std::string& default_tier) {
+  read_options o;
+  o.tier_name = r.tier_name.value_or(default_tier);
+  if (r.columns) {
+    result<column_map> map = parse_column_map(*r.columns);
+    if (!map.ok()) usage("columns: " + map.diagnostics.front().message);
+    o.columns = std::move(map.value);
+  }
+  if (r.time_unit) {
+    const auto unit = value_named(time_unit_names, *r.time_unit);
+    if (!unit) usage("time_unit: '" + *r.time_unit + "' is not " + quoted_names(time_unit_names));
+    o.unit = *unit;
+  }
+  if (r.rate) {
+    o.rate = parse_rational(*r.rate);
+    if (!o.rate) usage("rate: '" + *r.rate + "' is not a frame rate such as 25 or 30000/1001");
+  }
+  o.strict = r.strict;
+  o.max_text = r.max_text;
+  o.max_tiers = r.max_tiers;
+  return o;
+}
+
+const format& format_named(const std::string& name) {
+  if (const format* f = find_format(name)) return *f;
+  usage("no format '" + name + "' (the formats: " + format_names() + ")");
+}
+
+// The document in `content`, read as the command line reads a file called `file`.
+document read_content(const std::string& content, const std::string& file, const reading& r,
+                      const std::string& default_tier) {
+  const read_options options = options_of(r, default_tier);
+  diagnostic why;
+  const format* fmt =
+      r.format ? &format_named(*r.format) : choose_format(file, content, why, "format=");
+  if (!fmt) raise("ReadError", format_diagnostic(why), {why});
+  read_result result;
+  {
+    py::gil_scoped_release unlocked;
+    result = read_document(content, *fmt, options, file);
+  }
+  if (result.ok() && (r.source || r.kind)) {
+    dataset_source s;
+    if (r.source) {
+      s.source = parse_tier_source(*r.source);
+      if (!s.source) usage("source: '" + *r.source + "' is not KIND[:AGENT[@VERSION]]");
+    }
+    if (r.kind) {
+      s.kind = parse_tier_kind(*r.kind);
+      if (!s.kind) usage("kind: '" + *r.kind + "' is neither interval nor instant");
+    }
+    for (diagnostic& d : apply_source(result.value, s, file))
+      result.diagnostics.push_back(std::move(d));
+  }
+  if (!result.ok()) {
+    const auto first = std::find_if(result.diagnostics.begin(), result.diagnostics.end(),
+                                    [](const diagnostic& d) { return d.level == severity::error; });
+    raise("ReadError", format_diagnostic(*first), result.diagnostics);
+  }
+  // Warnings and notes as Python warnings, which a notebook shows once and a script can filter.
+  py::object warn = py::module_::import("warnings").attr("warn");
+  py::object category = py::module_::import("tiers.errors").attr("TiersWarning");
+  for (const diagnostic& d : result.diagnostics)
+    if (d.level == severity::warning) warn(format_diagnostic(d), category, 2);
+  return std::move(result.value);
+}
+
+reading reading_of(std::optional<std::string> name, const py::kwargs& options) {
+  reading r;
+  r.format = std::move(name);
+  for (const auto& [key, value] : options) {
+    const std::string k = py::str(key);
+    auto text = [&]() -> std::string {
+      if (py::isinstance<py::dict>(value) && k == "columns") {
+        std::string joined;
+        for (const auto& [role, column] : py::cast<py::dict>(value))
+          joined += (joined.empty() ? "" : ",") + std::string(py::str(role)) + "=" +
+                    std::string(py::str(column));
+        return joined;
+      }
+      return py::str(value);
+    };
+    if (value.is_none()) continue;
+    if (k == "columns")
+      r.columns = text();
+    else if (k == "tier_name")
+      r.tier_name = text();
+    else if (k == "time_unit")
+      r.time_unit = text();
+    else if (k == "rate")
+      r.rate = text();
+    else if (k == "source")
+      r.source = text();
+    else if (k == "kind")
+      r.kind = text();
+    else if (k == "strict")
+      r.strict = value.cast<bool>();
+    else if (k == "max_text")
+      r.max_text = value.cast<std::size_t>();
+    else if (k == "max_tiers")
+      r.max_tiers = value.cast<std::size_t>();
+    else
+      usage("unknown reading option '" + k +
+            "' (columns, tier_name, time_unit, rate, strict, "
+            "max_text, max_tiers, source, kind)");
+  }
+  return r;
+}
+
+document read(const py::object& input, std::optional<std::string> name, const py::kwargs& options) {
+  const reading r = reading_of(std::move(name), options);
+  if (py::isinstance<py::bytes>(input) || py::isinstance<py::bytearray>(input))
+    return read_content(py::bytes(input), "", r, "tier");
+  const std::string path = path_text(input);
+  std::string content;
+  try {
+    content = read_input(path);
+  } catch (const tiers::error& e) {
+    raise("ReadError", format_diagnostic(e.diag()), {e.diag()});
+  }
+  return read_content(content, path, r, name_from_path(path));
+}
+
+document loads(const py::object& data, std::optional<std::string> name, const py::kwargs& options) {
+  const reading r = reading_of(std::move(name), options);
+  const std::string content =
+      py::isinstance<py::str>(data) ? data.cast<std::string>() : std::string(py::bytes(data));
+  return read_content(content, "", r, "tier");
+}
+
+const format& output_format(const std::optional<std::string>& name, const std::string& path) {
+  if (name) return format_named(*name);
+  if (const format* f = format_for_path(path)) return *f;
+  usage("cannot tell the output format from '" + path + "': name it with format=");
+}
+
+// The losses writing `doc` as `fmt` would cause: refused (LossError) unless `allow_loss`,
+// which turns them into warnings.
+void settle_losses(const document& doc, const format& fmt, const std::string& path,
+                   bool allow_loss) {
+  const std::vector<std::string> losses = find_losses(doc, fmt, {path, ""});
+  if (losses.empty()) return;
+  if (!allow_loss)
+    raise("LossError",
+          std::string(fmt.name) +
+              " cannot carry everything of the document (allow_loss=True "
+              "writes it without): " +
+              losses.front() + (losses.size() > 1 ? ", …" : ""),
+          {}, losses);
+  py::object warn = py::module_::import("warnings").attr("warn");
+  py::object category = py::module_::import("tiers.errors").attr("TiersWarning");
+  for (const std::string& loss : losses)
+    warn("left out: " + loss, category, 2);
+}
+
+void write(const document& doc, const py::object& path_like, std::optional<std::string> name,
+           bool allow_loss) {
+  const std::string path = path_text(path_like);
+  const format& fmt = output_format(name, path);
+  settle_losses(doc, fmt, path, allow_loss);
+  try {
+    py::gil_scoped_release unlocked;
+    atomic_file out(path);
+    fmt.write(doc, out, {});
+    out.commit();
+  } catch (const tiers::error& e) {
+    raise("WriteError", format_diagnostic(e.diag()), {e.diag()});
+  }
+}
+
+std::string dumps(const document& doc, const std::string& name, bool allow_loss) {
+  const format& fmt = format_named(name);
+  settle_losses(doc, fmt, "", allow_loss);
+  std::string text;
+  {
+    py::gil_scoped_release unlocked;
+    string_sink out(text);
+    fmt.write(doc, out, {});
+    out.flush();
+  }
+  return text;
+}
+
+constexpr const char* reading_doc =
+    "Reading options, as the command line's without dashes: columns ('role=column,…' or a "
+    "dict), tier_name, time_unit ('s', 'ms', 'frames'), rate ('25', '30000/1001'), strict, "
+    "max_text, max_tiers, source ('machine:aligner@2.1'), kind ('interval', 'instant'). "
+    "Raises tiers.ReadError with the located diagnostics; warnings become TiersWarning.";
+
+}  // namespace
+
+void bind_io(py::module_& m) {
+  m.def("read", &read, py::arg("path_or_bytes"), py::arg("format") = py::none(),
+        (std::string("read(path_or_bytes, format=None, **reading_options) -> Document\n\n"
+                     "Reads a file (str or os.PathLike) or bytes. The format is `format`, else the "
+                     "file's extension, else whichever format recognises the content. ") +
+         reading_doc)
+            .c_str());
+  m.def("loads", &loads, py::arg("data"), py::arg("format") = py::none(),
+        (std::string("loads(data, format=None, **reading_options) -> Document\n\n"
+                     "Reads a document from text (str) or bytes. ") +
+         reading_doc)
+            .c_str());
+  m.def("write", &write, py::arg("doc"), py::arg("path"), py::arg("format") = py::none(),
+        py::arg("allow_loss") = false,
+        "write(doc, path, format=None, allow_loss=False)\n\n"
+        "Writes the document atomically (a failed write leaves no partial file). The format is "
+        "`format`, else the path's extension. What the format cannot carry raises "
+        "tiers.LossError listing it, unless allow_loss=True, which writes anyway and warns.");
+  m.def("dumps", &dumps, py::arg("doc"), py::arg("format"), py::arg("allow_loss") = false,
+        "dumps(doc, format, allow_loss=False) -> str\n\nThe document as text in `format`, "
+        "exactly what `tiers convert --to FORMAT` writes.");
+  m.def(
+      "formats",
+      [] {
+        std::vector<std::string> names;
+        for (const format& f : formats())
+          names.emplace_back(f.name);
+        return names;
+      },
+      "The formats' names, as format= takes them.");
+}
+
+}  // namespace tiers::python
