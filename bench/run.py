@@ -90,6 +90,8 @@ def corpus(build, out_dir, size):
 # machine's run-to-run noise (the same command varies by up to a third, docs/performance.md).
 DATASET_PACE = 1.1
 COOCCUR_RATE = 5_000_000  # A annotations a second per core, counted after reading (issue 20)
+PYTHON_READ_RATIO = 1.2  # tiers.read's time over the C++ reader's, same file (issue 22)
+TO_PANDAS_RATE = 1_000_000  # annotations a second into a DataFrame: 1,000,000 within a second
 SAMPLE_RATE = 5_000_000  # annotations a second per core through tiers sample's draw (issue 21)
 
 
@@ -131,18 +133,52 @@ class table:
         self.targets.append({"target": name, "figure": figure, "goal": goal, "met": met})
 
 
+def measure_python(t, build, size, files, cpp_read):
+    """The Python package (when the build has it): tiers.read against tiers-bench's read of the
+    same file, and to_pandas of what it read."""
+    package = os.path.join(build, "python")
+    if not os.path.isdir(os.path.join(package, "tiers")):
+        print("python: the build has no Python package (pybind11 missing?): not measured")
+        return
+    mb = size // MB
+    env = dict(os.environ, PYTHONPATH=package)
+    script = os.path.join(os.path.dirname(os.path.abspath(__file__)), "python_bench.py")
+    for fmt in ("json", "csv"):
+        if fmt not in cpp_read:
+            continue
+        r = subprocess.run(["/usr/bin/python3", script, files[fmt]], capture_output=True,
+                           text=True, env=env)
+        if r.returncode:
+            print(f"python bench of {fmt} failed: {r.stderr[-500:]}")
+            continue
+        p = json.loads(r.stdout)
+        t.add(size, "py read", fmt, files[fmt], p["read_seconds"], 0, p["annotations"],
+              note="tiers.read in Python, the same reader")
+        ratio = p["read_seconds"] / max(cpp_read[fmt], 1e-9)
+        t.target(f"python read {fmt} at {mb} MB: time over the C++ reader's", f"{ratio:.2f}x",
+                 f"<= {PYTHON_READ_RATIO}x", ratio <= PYTHON_READ_RATIO)
+        rate = p["annotations"] / max(p["to_pandas_seconds"], 1e-9)
+        t.add(size, "to_pandas", fmt, files[fmt], p["to_pandas_seconds"], 0, p["annotations"],
+              note="Document.to_pandas of what was read")
+        t.target(f"to_pandas at {mb} MB ({p['annotations']:,} annotations): annotations a second",
+                 f"{rate / 1e6:.2f} million", f">= {TO_PANDAS_RATE / 1e6:.0f} million",
+                 rate >= TO_PANDAS_RATE)
+
+
 def measure_size(t, build, out_dir, size, smallest, here):
     tiers = os.path.join(build, "tools", "tiers", "tiers")
     bench = os.path.join(build, "bench", "tiers-bench")
     folder = corpus(build, out_dir, size)
     mb = size // MB
     files = {f: os.path.join(folder, "corpus." + f) for f in EXTENSIONS}
+    cpp_read = {}
     for fmt, path in files.items():
         seconds, rss, code, out, err = measure([bench, path])
         if code:
             print(err)
             continue
         r = json.loads(out)
+        cpp_read[fmt] = r["read_seconds"]
         row = t.add(size, "read", fmt, path, r["read_seconds"], r["peak_rss_bytes"],
                     r["annotations"])
         goal = READ_TARGETS[fmt]
@@ -156,6 +192,7 @@ def measure_size(t, build, out_dir, size, smallest, here):
                       r["annotations"], note="the reader alone: no document built")
         wc_seconds, _, _, _, _ = measure(["wc", "-l", path])
         t.add(size, "wc -l", fmt, path, wc_seconds, 0, note="the machine's raw read speed")
+    measure_python(t, build, size, files, cpp_read)
     for fmt in ("json", "csv", "tsv", "tiers"):
         target = os.path.join(folder, "written." + fmt)
         seconds, rss, code, out, err = measure([bench, files["json"], fmt, target])
