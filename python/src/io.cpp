@@ -25,6 +25,14 @@ void raise(const char* kind, const std::string& message, const std::vector<diagn
   throw py::error_already_set();
 }
 
+std::string read_file(const std::string& path) {
+  try {
+    return read_input(path);
+  } catch (const tiers::error& e) {
+    raise("ReadError", format_diagnostic(e.diag()), {e.diag()});
+  }
+}
+
 namespace {
 
 // What read() and loads() take besides the input: the command line's reading options.
@@ -152,13 +160,7 @@ document read(const py::object& input, std::optional<std::string> name, const py
   if (py::isinstance<py::bytes>(input) || py::isinstance<py::bytearray>(input))
     return read_content(py::bytes(input), "", r, "tier");
   const std::string path = path_text(input);
-  std::string content;
-  try {
-    content = read_input(path);
-  } catch (const tiers::error& e) {
-    raise("ReadError", format_diagnostic(e.diag()), {e.diag()});
-  }
-  return read_content(content, path, r, name_from_path(path));
+  return read_content(read_file(path), path, r, name_from_path(path));
 }
 
 document loads(const py::object& data, std::optional<std::string> name, const py::kwargs& options) {

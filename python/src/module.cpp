@@ -10,4 +10,5 @@ PYBIND11_MODULE(_tiers, m) {
   tiers::python::bind_model(m);
   tiers::python::bind_io(m);
   tiers::python::bind_tables(m);
+  tiers::python::bind_review(m);
 }

@@ -17,11 +17,12 @@ from ._tiers import (Annotation, AnnotationList, Attributes, Diagnostic, Documen
                      write)
 from . import _tiers
 from .errors import Error, LossError, ReadError, TiersWarning, UsageError, WriteError
+from .reports import Report, report_of
 
 __all__ = ["Annotation", "AnnotationList", "Attributes", "Diagnostic", "Document", "Error",
            "LossError", "Media", "ParentLink", "ReadError", "Source", "Tier", "TierList",
-           "TiersWarning", "UsageError", "WriteError", "__version__", "dumps", "formats",
-           "from_pandas", "loads", "read", "write"]
+           "Report", "TiersWarning", "UsageError", "WriteError", "__version__", "dumps",
+           "estimate", "formats", "from_pandas", "loads", "read", "write"]
 
 
 def from_pandas(df, *, columns=None, tier_name="tier", time_unit=None, rate=None,
@@ -46,3 +47,19 @@ def from_pandas(df, *, columns=None, tier_name="tier", time_unit=None, rate=None
     text = table.to_csv(index=False, lineterminator="\n")
     return loads(text, "csv", columns=columns, tier_name=tier_name, time_unit=time_unit,
                  rate=rate, **reading_options)
+
+
+def estimate(sheets, *, level=0.95, target_precision=None):
+    """estimate(sheets, *, level=0.95, target_precision=None) -> Report
+
+    A machine tier's precision from reviewed sample sheets (what `tiers sample` wrote, with the
+    verdicts filled in): a path, or a list of paths when the sample was reviewed in parts. The
+    report has the fields of `tiers estimate --json` (docs/review.md): `overall` (precision,
+    low, high, se, reviewed, correct, annotations), `strata` and `labels` (with Wilson's and
+    Clopper-Pearson's intervals; `report.to_pandas("strata")`), `unreviewed_strata`, and with
+    `target_precision` the `threshold` that reaches it. A bad sheet raises ReadError with its
+    located diagnostics.
+    """
+    import os
+    paths = [sheets] if isinstance(sheets, (str, bytes, os.PathLike)) else list(sheets)
+    return report_of(_tiers._estimate_json(paths, level, target_precision))

@@ -5,9 +5,7 @@
 #include <fmt/format.h>
 
 #include <cmath>
-#include <map>
 #include <set>
-#include <tuple>
 
 #include "sample_command.hpp"
 #include "text_table.hpp"
@@ -162,42 +160,14 @@ std::string sampled_tier(const std::vector<sample_row>& rows, const std::string&
   throw rejected();
 }
 
-// The sheets' rows, one sample: the parts must agree on their strata's sizes, and no
-// annotation may be reviewed twice (a sample is drawn without replacement).
+// The sheets' rows, one sample (join_review_sheets): problems printed, rejected on errors.
 std::vector<sample_row> read_sheets(const std::vector<std::string>& paths) {
-  std::vector<sample_row> rows;
-  std::map<std::string, std::pair<std::uint64_t, std::string>> sizes;  // stratum → N_h, file
-  std::map<std::tuple<std::string, std::string, time_ns, time_ns>, std::string> seen;
-  std::vector<diagnostic> problems;
-  auto problem = [&](const std::string& file, std::string message) {
-    diagnostic d;
-    d.file = file;
-    d.code = "review.sheet";
-    d.message = std::move(message);
-    problems.push_back(std::move(d));
-  };
+  std::vector<review_part> parts;
   for (const std::string& path : paths) {
     const std::string file = display_name(path);
-    for (sample_row& r : take(read_review_sheet(read_input(path), file))) {
-      const auto [size, fresh] = sizes.try_emplace(r.stratum, r.stratum_size, file);
-      if (!fresh && size->second.first != r.stratum_size && size->second.second != file)
-        problem(file, fmt::format("the stratum {} has size {} here but {} in {}: the parts of "
-                                  "one sample agree on their strata",
-                                  quote_name(r.stratum), r.stratum_size, size->second.first,
-                                  size->second.second));
-      if (!r.file.empty() || r.start != 0 || r.end != 0) {
-        const auto [where, first] =
-            seen.try_emplace(std::tuple(r.file, r.tier, r.start, r.end), file);
-        if (!first)
-          problem(file, fmt::format("sample {} ({} at {} s) is in {} already: an annotation is "
-                                    "reviewed once",
-                                    r.sample_id, r.file, format_seconds(r.start), where->second));
-      }
-      rows.push_back(std::move(r));
-    }
+    parts.push_back({file, take(read_review_sheet(read_input(path), file))});
   }
-  report_all(std::move(problems));
-  return rows;
+  return take(join_review_sheets(std::move(parts)));
 }
 
 }  // namespace

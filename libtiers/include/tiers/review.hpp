@@ -191,6 +191,16 @@ void write_review_sheet(const std::vector<sample_row>& rows, byte_sink& out);
 /// kept when present. Problems (`review.sheet`) located in `file`.
 result<std::vector<sample_row>> read_review_sheet(std::string_view text, const std::string& file);
 
+/// One reviewed sheet: its name (for messages) and its rows.
+struct review_part {
+  std::string file;
+  std::vector<sample_row> rows;
+};
+/// The rows of several sheets, the parts of one sample reviewed apart. A stratum given two
+/// sizes, or an annotation in two parts (a sample is drawn without replacement), is an error
+/// (`review.sheet`) naming the part.
+result<std::vector<sample_row>> join_review_sheets(std::vector<review_part> parts);
+
 struct review_page_options {
   std::string title = "Review";
   std::string key;  ///< identifies the sample in the browser's storage (seed, sizes)

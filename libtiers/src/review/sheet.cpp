@@ -6,6 +6,7 @@
 #include <charconv>
 #include <cmath>
 #include <map>
+#include <tuple>
 
 #include "formats/csv/table_scanner.hpp"
 #include "tiers/review.hpp"
@@ -207,6 +208,39 @@ result<std::vector<sample_row>> read_review_sheet(std::string_view text, const s
                           "annotation of the stratum, sampled or not",
                           quote_name(name), n, it->second.first));
   locate_all(text, out.diagnostics);
+  return out;
+}
+
+result<std::vector<sample_row>> join_review_sheets(std::vector<review_part> parts) {
+  result<std::vector<sample_row>> out;
+  std::map<std::string, std::pair<std::uint64_t, std::string>> sizes;  // stratum → N_h, file
+  std::map<std::tuple<std::string, std::string, time_ns, time_ns>, std::string> seen;
+  auto problem = [&](const std::string& file, std::string message) {
+    diagnostic d;
+    d.file = file;
+    d.code = "review.sheet";
+    d.message = std::move(message);
+    out.diagnostics.push_back(std::move(d));
+  };
+  for (review_part& part : parts)
+    for (sample_row& r : part.rows) {
+      const auto [size, fresh] = sizes.try_emplace(r.stratum, r.stratum_size, part.file);
+      if (!fresh && size->second.first != r.stratum_size && size->second.second != part.file)
+        problem(part.file, fmt::format("the stratum {} has size {} here but {} in {}: the parts "
+                                       "of one sample agree on their strata",
+                                       quote_name(r.stratum), r.stratum_size, size->second.first,
+                                       size->second.second));
+      if (!r.file.empty() || r.start != 0 || r.end != 0) {
+        const auto [where, first] =
+            seen.try_emplace(std::tuple(r.file, r.tier, r.start, r.end), part.file);
+        if (!first)
+          problem(part.file,
+                  fmt::format("sample {} ({} at {} s) is in {} already: an annotation "
+                              "is reviewed once",
+                              r.sample_id, r.file, format_seconds(r.start), where->second));
+      }
+      out.value.push_back(std::move(r));
+    }
   return out;
 }
 
