@@ -166,6 +166,32 @@ void print_drawn(const sampler& s, const std::vector<sample_row>& rows, const st
   std::fputs(escape_controls(text, true).c_str(), stderr);
 }
 
+// A stratum with annotations but no clip drawn is absent from the sheet: the estimate cannot
+// see it and would speak for the other strata only. Said, with what to do.
+void warn_undrawn(const std::vector<stratum_count>& strata) {
+  std::vector<std::string> names;
+  std::uint64_t annotations = 0;
+  for (const stratum_count& c : strata)
+    if (c.size > 0 && c.drawn == 0) {
+      names.push_back(quote_name(c.name));
+      annotations += c.size;
+    }
+  if (names.empty()) return;
+  diagnostic d;
+  d.level = severity::warning;
+  d.code = "sample.strata";
+  std::string listed;
+  for (std::size_t k = 0; k < names.size() && k < 5; ++k)
+    listed += (k ? ", " : "") + names[k];
+  if (names.size() > 5) listed += fmt::format(" and {} more", names.size() - 5);
+  d.message = fmt::format(
+      "{} strat{} ({} annotation{}) got no clip, so an estimate from this sheet leaves {} out: "
+      "{}; draw more (--n), fewer strata, or --allocation equal",
+      names.size(), names.size() == 1 ? "um" : "a", annotations, annotations == 1 ? "" : "s",
+      names.size() == 1 ? "it" : "them", listed);
+  report(d);
+}
+
 }  // namespace
 
 int run_sample(const sample_options_cli& o) {
@@ -268,6 +294,7 @@ int run_sample(const sample_options_cli& o) {
   emit(o.out, sheet);
   if (page_file) page_file->commit();
   print_drawn(all, rows, o.tier);
+  warn_undrawn(all.strata());
   return exit_ok;
 }
 
