@@ -70,6 +70,20 @@ std::string data_of(std::string_view in, std::string_view format) {
     }
     return {};
   }
+  if (format == "vtt") {
+    // A timing line's tab or form feed separates its times and settings (WebVTT §6.1, "ASCII
+    // whitespace"): a separator, not data that the document should keep.
+    std::string out;
+    for (std::size_t from = 0; from < in.size();) {
+      std::size_t end = in.find_first_of("\r\n", from);
+      if (end == std::string_view::npos) end = in.size();
+      const std::string_view line = in.substr(from, end - from);
+      if (line.find("-->") == std::string_view::npos) out.append(line);
+      if (end < in.size()) out += in[end];
+      from = end + 1;
+    }
+    return out;
+  }
   if (format != "tiers") return std::string(in);
   std::string out;
   for (std::size_t k = 0; k < in.size();) {
