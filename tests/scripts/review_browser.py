@@ -1,7 +1,7 @@
 #!/usr/bin/python3
 """The review page (`tiers sample --page`) in a real browser: Debian's chromium, headless, driven
 through Debian's chromedriver by python3-selenium (browser.py starts them), with a short video
-Debian's ffmpeg makes here (a test pattern and a tone, VP8 and Vorbis in WebM).
+Debian's video encoder makes here (a test pattern and a tone, VP8 and Vorbis in WebM).
 
 What a reviewer does, checked step by step:
 - the page opens offline without script errors, asks for nothing but itself and its media, and
@@ -34,7 +34,7 @@ import browser as browser_module
 from checklist import Checklist
 
 checks = Checklist()
-FFMPEG = os.environ.get("TIERS_FFMPEG", "/usr/bin/ffmpeg")
+VIDEO_ENCODER = os.environ.get("TIERS_VIDEO_ENCODER", "/usr/bin/ffmpeg")  # Debian package
 HOSTILE = 'nod</script><script>alert("x")</script>, "quoted"'
 
 
@@ -48,7 +48,7 @@ def run(*args):
 def make_inputs(out):
     media = os.path.join(out, "media")
     os.makedirs(media)
-    run(FFMPEG, "-loglevel", "error", "-f", "lavfi", "-i", "testsrc=duration=12:size=320x240:rate=25",
+    run(VIDEO_ENCODER, "-loglevel", "error", "-f", "lavfi", "-i", "testsrc=duration=12:size=320x240:rate=25",
         "-f", "lavfi", "-i", "sine=frequency=440:duration=12", "-c:v", "libvpx", "-b:v", "300k",
         "-c:a", "libvorbis", "-shortest", os.path.join(media, "seminar.webm"))
     labels = ["nod", "shake", HOSTILE, "tilt", "nod", "nod"]
@@ -194,7 +194,7 @@ def main():
     tiers, out = sys.argv[1:3]
     shutil.rmtree(out, ignore_errors=True)
     os.makedirs(out)
-    for program in (browser_module.CHROMIUM, browser_module.CHROMEDRIVER, FFMPEG):
+    for program in (browser_module.CHROMIUM, browser_module.CHROMEDRIVER, VIDEO_ENCODER):
         if not os.path.exists(program):
             raise SystemExit(f"FAIL {program} is missing: run scripts/install-deps")
     doc, lost = make_inputs(out)
