@@ -130,6 +130,31 @@ TEST_CASE("ttml writer: IMSC 1.1 text document that reads back the same", "[ttml
   CHECK(read_as("ttml", text) == doc);
 }
 
+TEST_CASE("ttml: every frame rate the model holds is written as parameters that read back",
+          "[ttml][writer]") {
+  // TTML2 §7.2.4–7.2.5: the effective rate is ttp:frameRate × ttp:frameRateMultiplier, neither
+  // bounded by the standard. The model holds rates whose parts are below 2^32 (time.cpp), so
+  // the reader takes any parameters that give such a rate (2147483647 × 2 = 2^32 − 2 here, the
+  // rate whose ttp:frameRate the writer spells above 2^31), and refuses one beyond it.
+  for (const rational rate : {rational{4294967294, 1}, rational{4294967295, 2147483648},
+                              rational{1, 4294967295}, rational{30000, 1001}}) {
+    document doc;
+    doc.media.frame_rate = rate;
+    doc.tiers.emplace_back().name = "t";
+    INFO(rate.num << "/" << rate.den);
+    CHECK(read_as("ttml", write_as("ttml", doc)).media.frame_rate == rate);
+  }
+  CHECK(read_as("ttml", tt(R"(ttp:frameRate="2147483647" ttp:frameRateMultiplier="2 1")",
+                           R"(<div><p begin="0s" end="1s">a</p></div>)"))
+            .media.frame_rate == rational{4294967294, 1});
+  const read_result r =
+      read_document(tt(R"(ttp:frameRate="65536" ttp:frameRateMultiplier="65536 1")", ""),
+                    *find_format("ttml"), {}, "big.ttml");
+  REQUIRE_FALSE(r.ok());
+  CHECK(r.diagnostics.front().code == "ttml.parameter");
+  CHECK(r.diagnostics.front().message.find("below 2^32") != std::string::npos);
+}
+
 TEST_CASE("ttml writer: ids and tier names that xml:id cannot hold are dropped as reported",
           "[ttml][writer][loss]") {
   // xml:id (W3C xml:id 1.0 §4) holds an NCName (Namespaces in XML 1.0, production [4]), unique

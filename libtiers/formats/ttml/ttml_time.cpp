@@ -4,6 +4,7 @@
 
 #include <charconv>
 #include <numeric>
+#include <utility>
 
 namespace tiers::detail::ttml {
 namespace {
@@ -69,10 +70,16 @@ std::optional<std::string_view> read_parameters(std::string_view frame_rate,
                                                 std::string_view sub_frame_rate,
                                                 std::string_view tick_rate,
                                                 timing_parameters& out) {
+  // The effective rate must be one the model holds (both parts below 2^32, as every frame
+  // rate tiers reads): then the writer's ttp:frameRate (below 2^32) and multiplier (each part
+  // below 2^33) are read back here to the same rate. The parts are bounded so that their
+  // product fits 128 bits.
+  constexpr std::int64_t part_limit = std::int64_t{1} << 40;
+  constexpr wide rate_limit = wide{1} << 32;
   std::int64_t rate = 30;
   if (!frame_rate.empty()) {
     auto r = whole_number(frame_rate);
-    if (!r || *r >= (std::int64_t{1} << 31)) return "ttp:frameRate must be a positive whole number";
+    if (!r || *r >= part_limit) return "ttp:frameRate must be a positive whole number";
     rate = *r;
     out.frame_rate_given = true;
   }
@@ -82,14 +89,21 @@ std::optional<std::string_view> read_parameters(std::string_view frame_rate,
     auto n = whole_number(multiplier.substr(0, space));
     auto d =
         space == std::string_view::npos ? std::nullopt : whole_number(multiplier.substr(space + 1));
-    if (!n || !d || *n >= (std::int64_t{1} << 31) || *d >= (std::int64_t{1} << 31))
+    if (!n || !d || *n >= part_limit || *d >= part_limit)
       return "ttp:frameRateMultiplier must be two positive whole numbers, e.g. \"1000 1001\"";
     mul_num = *n;
     mul_den = *d;
   }
-  std::int64_t num = rate * mul_num, den = mul_den;
-  const std::int64_t g = std::gcd(num, den);
-  out.frame_rate = {num / g, den / g};
+  wide num = static_cast<wide>(rate) * mul_num, den = mul_den;
+  wide g = num, rest = den;  // their greatest common divisor (std::gcd takes no __int128)
+  while (rest != 0)
+    g = std::exchange(rest, g % rest);
+  num /= g;
+  den /= g;
+  if (num >= rate_limit || den >= rate_limit)
+    return "ttp:frameRate × ttp:frameRateMultiplier is a rate tiers cannot hold: in lowest "
+           "terms, both its parts must be below 2^32";
+  out.frame_rate = {static_cast<std::int64_t>(num), static_cast<std::int64_t>(den)};
   if (!sub_frame_rate.empty()) {
     auto s = whole_number(sub_frame_rate);
     if (!s || *s >= (std::int64_t{1} << 31))
