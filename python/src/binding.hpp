@@ -3,10 +3,13 @@
 
 #include <pybind11/pybind11.h>
 
+#include <optional>
 #include <string>
 #include <vector>
 
 #include "tiers/diagnostic.hpp"
+#include "tiers/format.hpp"
+#include "tiers/inputs.hpp"
 
 namespace tiers::python {
 
@@ -16,6 +19,8 @@ void bind_model(py::module_& m);   ///< Document, Tier, Annotation and their par
 void bind_io(py::module_& m);      ///< read, write, loads, dumps, formats
 void bind_tables(py::module_& m);  ///< to_pandas, from_pandas
 void bind_review(py::module_& m);  ///< estimate
+void bind_check(py::module_& m);   ///< check
+void bind_agree(py::module_& m);   ///< agree
 
 /// Raises `tiers.errors.KIND(message, diagnostics)` (with `losses` for LossError) as the
 /// pending Python exception and throws error_already_set.
@@ -25,6 +30,17 @@ void bind_review(py::module_& m);  ///< estimate
 
 /// A path argument: str or os.PathLike, as text.
 std::string path_text(const py::handle& path);
+
+/// The command line's reading options from keyword arguments (`tier_name=` for
+/// --tier-name, …) and `format` (--from); UsageError on an unknown one or a bad value.
+reading_settings settings_of(std::optional<std::string> format, const py::kwargs& options);
+
+/// ReadError naming the first error of `diagnostics` and carrying them all.
+[[noreturn]] void raise_errors(const std::vector<diagnostic>& diagnostics);
+
+/// The document read, its warnings issued as TiersWarning; ReadError with every diagnostic
+/// when it has errors.
+document take_document(read_result&& result);
 
 /// The whole file at `path`; ReadError (io.open, io.read) when it cannot be read.
 std::string read_file(const std::string& path);

@@ -5,6 +5,7 @@
 #include "binding.hpp"
 #include "tiers/dataset.hpp"
 #include "tiers/format.hpp"
+#include "tiers/inputs.hpp"
 #include "tiers/io.hpp"
 #include "tiers/model.hpp"
 #include "tiers/sink.hpp"
@@ -33,89 +34,9 @@ std::string read_file(const std::string& path) {
   }
 }
 
-namespace {
-
-// What read() and loads() take besides the input: the command line's reading options.
-struct reading {
-  std::optional<std::string> format, columns, tier_name, time_unit, rate, source, kind;
-  bool strict = false;
-  std::size_t max_text = read_options{}.max_text, max_tiers = read_options{}.max_tiers;
-};
-
-[[noreturn]] void usage(const std::string& message) {
-  raise("UsageError", message, {});
-}
-
-read_options options_of(const reading& r, const std::string& default_tier) {
-  read_options o;
-  o.tier_name = r.tier_name.value_or(default_tier);
-  if (r.columns) {
-    result<column_map> map = parse_column_map(*r.columns);
-    if (!map.ok()) usage("columns: " + map.diagnostics.front().message);
-    o.columns = std::move(map.value);
-  }
-  if (r.time_unit) {
-    const auto unit = value_named(time_unit_names, *r.time_unit);
-    if (!unit) usage("time_unit: '" + *r.time_unit + "' is not " + quoted_names(time_unit_names));
-    o.unit = *unit;
-  }
-  if (r.rate) {
-    o.rate = parse_rational(*r.rate);
-    if (!o.rate) usage("rate: '" + *r.rate + "' is not a frame rate such as 25 or 30000/1001");
-  }
-  o.strict = r.strict;
-  o.max_text = r.max_text;
-  o.max_tiers = r.max_tiers;
-  return o;
-}
-
-const format& format_named(const std::string& name) {
-  if (const format* f = find_format(name)) return *f;
-  usage("no format '" + name + "' (the formats: " + format_names() + ")");
-}
-
-// The document in `content`, read as the command line reads a file called `file`.
-document read_content(const std::string& content, const std::string& file, const reading& r,
-                      const std::string& default_tier) {
-  const read_options options = options_of(r, default_tier);
-  diagnostic why;
-  const format* fmt =
-      r.format ? &format_named(*r.format) : choose_format(file, content, why, "format=");
-  if (!fmt) raise("ReadError", format_diagnostic(why), {why});
-  read_result result;
-  {
-    py::gil_scoped_release unlocked;
-    result = read_document(content, *fmt, options, file);
-  }
-  if (result.ok() && (r.source || r.kind)) {
-    dataset_source s;
-    if (r.source) {
-      s.source = parse_tier_source(*r.source);
-      if (!s.source) usage("source: '" + *r.source + "' is not KIND[:AGENT[@VERSION]]");
-    }
-    if (r.kind) {
-      s.kind = parse_tier_kind(*r.kind);
-      if (!s.kind) usage("kind: '" + *r.kind + "' is neither interval nor instant");
-    }
-    for (diagnostic& d : apply_source(result.value, s, file))
-      result.diagnostics.push_back(std::move(d));
-  }
-  if (!result.ok()) {
-    const auto first = std::find_if(result.diagnostics.begin(), result.diagnostics.end(),
-                                    [](const diagnostic& d) { return d.level == severity::error; });
-    raise("ReadError", format_diagnostic(*first), result.diagnostics);
-  }
-  // Warnings and notes as Python warnings, which a notebook shows once and a script can filter.
-  py::object warn = py::module_::import("warnings").attr("warn");
-  py::object category = py::module_::import("tiers.errors").attr("TiersWarning");
-  for (const diagnostic& d : result.diagnostics)
-    if (d.level == severity::warning) warn(format_diagnostic(d), category, 2);
-  return std::move(result.value);
-}
-
-reading reading_of(std::optional<std::string> name, const py::kwargs& options) {
-  reading r;
-  r.format = std::move(name);
+reading_settings settings_of(std::optional<std::string> format, const py::kwargs& options) {
+  reading_settings r;
+  if (format) r.from = *format;
   for (const auto& [key, value] : options) {
     const std::string k = py::str(key);
     auto text = [&]() -> std::string {
@@ -148,26 +69,78 @@ reading reading_of(std::optional<std::string> name, const py::kwargs& options) {
     else if (k == "max_tiers")
       r.max_tiers = value.cast<std::size_t>();
     else
-      usage("unknown reading option '" + k +
-            "' (columns, tier_name, time_unit, rate, strict, "
-            "max_text, max_tiers, source, kind)");
+      raise("UsageError",
+            "unknown reading option '" + k +
+                "' (columns, tier_name, time_unit, rate, strict, max_text, max_tiers, source, "
+                "kind)",
+            {});
   }
+  reading_options(r, "");  // a bad value fails here, before anything is read
   return r;
 }
 
+void raise_errors(const std::vector<diagnostic>& diagnostics) {
+  const auto first = std::find_if(diagnostics.begin(), diagnostics.end(),
+                                  [](const diagnostic& d) { return d.level == severity::error; });
+  raise("ReadError", format_diagnostic(first == diagnostics.end() ? diagnostics.front() : *first),
+        diagnostics);
+}
+
+document take_document(read_result&& result) {
+  if (!result.ok()) raise_errors(result.diagnostics);
+  // Warnings and notes as Python warnings, which a notebook shows once and a script can filter.
+  py::object warn = py::module_::import("warnings").attr("warn");
+  py::object category = py::module_::import("tiers.errors").attr("TiersWarning");
+  for (const diagnostic& d : result.diagnostics)
+    if (d.level == severity::warning) warn(format_diagnostic(d), category, 2);
+  return std::move(result.value);
+}
+
+namespace {
+
+[[noreturn]] void usage(const std::string& message) {
+  raise("UsageError", message, {});
+}
+
+const format& format_named(const std::string& name) {
+  if (const format* f = find_format(name)) return *f;
+  usage("no format '" + name + "' (the formats: " + format_names() + ")");
+}
+
+// The document in `content`, read as the command line reads a file called `file` (bytes,
+// without a name, make a tier called `tier` when the format names none).
+document read_content(const std::string& content, const std::string& file,
+                      const reading_settings& settings) {
+  read_options options = reading_options(settings, file);
+  if (file.empty() && settings.tier_name.empty()) options.tier_name = "tier";
+  diagnostic why;
+  const format* fmt = !settings.from.empty() ? &format_named(settings.from)
+                                             : choose_format(file, content, why, "format=");
+  if (!fmt) raise("ReadError", format_diagnostic(why), {why});
+  read_result result;
+  {
+    py::gil_scoped_release unlocked;
+    result = read_document(content, *fmt, options, file);
+  }
+  if (result.ok())
+    for (diagnostic& d : settle_tiers(result.value, settings, file))
+      result.diagnostics.push_back(std::move(d));
+  return take_document(std::move(result));
+}
+
 document read(const py::object& input, std::optional<std::string> name, const py::kwargs& options) {
-  const reading r = reading_of(std::move(name), options);
+  const reading_settings r = settings_of(std::move(name), options);
   if (py::isinstance<py::bytes>(input) || py::isinstance<py::bytearray>(input))
-    return read_content(py::bytes(input), "", r, "tier");
+    return read_content(py::bytes(input), "", r);
   const std::string path = path_text(input);
-  return read_content(read_file(path), path, r, name_from_path(path));
+  return read_content(read_file(path), path, r);
 }
 
 document loads(const py::object& data, std::optional<std::string> name, const py::kwargs& options) {
-  const reading r = reading_of(std::move(name), options);
+  const reading_settings r = settings_of(std::move(name), options);
   const std::string content =
       py::isinstance<py::str>(data) ? data.cast<std::string>() : std::string(py::bytes(data));
-  return read_content(content, "", r, "tier");
+  return read_content(content, "", r);
 }
 
 const format& output_format(const std::optional<std::string>& name, const std::string& path) {

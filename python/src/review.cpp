@@ -18,12 +18,11 @@ std::string estimate_json(const std::vector<py::object>& paths, double level,
   for (const py::object& p : paths) {
     const std::string file = path_text(p);
     result<std::vector<sample_row>> rows = read_review_sheet(read_file(file), file);
-    if (!rows.ok())
-      raise("ReadError", format_diagnostic(rows.diagnostics.front()), rows.diagnostics);
+    if (!rows.ok()) raise_errors(rows.diagnostics);
     parts.push_back({file, std::move(rows.value)});
   }
   result<std::vector<sample_row>> rows = join_review_sheets(std::move(parts));
-  if (!rows.ok()) raise("ReadError", format_diagnostic(rows.diagnostics.front()), rows.diagnostics);
+  if (!rows.ok()) raise_errors(rows.diagnostics);
   estimate_options o;
   o.level = level;
   o.target_precision = target;

@@ -101,28 +101,14 @@ const tier& tier_in(const loaded& l, const std::string& name) {
 
 // The candidate tier of `l`, without the annotations below --min-confidence.
 tier candidate_in(const agree_options& o, const loaded& l, const std::string& name) {
-  tier c = tier_in(l, name);
-  std::erase_if(c.annotations, [&](const annotation& a) {
-    return a.confidence && *a.confidence < o.min_confidence;
-  });
-  return c;
+  return at_least_confident(tier_in(l, name), o.min_confidence);
 }
 
 // The grid over the whole tiers (before --min-confidence), from the media's duration when a
 // document knows it; a step or collar in frames counts at the first document's rate.
-struct grid_and_matching {
-  time_grid grid;
-  segment_options matching;
-};
-grid_and_matching grid_for(const agree_options& o, const std::vector<const document*>& docs,
-                           const std::vector<const tier*>& tiers) {
-  std::optional<time_ns> media;
-  std::optional<rational> rate;
-  for (const document* d : docs) {
-    if (d->media.duration) media = std::max(media.value_or(0), *d->media.duration);
-    if (!rate) rate = frame_rate_of(*d, o.input.rate);
-  }
-  return {step_grid(o.compare, media, tiers, rate), segment_matching(o.compare, rate)};
+comparison_frame grid_for(const agree_options& o, const std::vector<const document*>& docs,
+                          const std::vector<const tier*>& tiers) {
+  return comparison_for(o.compare, docs, tiers, o.input.rate);
 }
 
 std::string step_text(const time_grid& g) {
@@ -245,7 +231,7 @@ int two_tiers(const agree_options& o) {
     throw usage_error("with one file, name two of its tiers: --ref-tier A --cand-tier B");
   const tier& r = tier_in(ref, rn);
   const tier& whole = tier_in(cand, cn);
-  const grid_and_matching g = grid_for(o, {&ref.doc, &cand.doc}, {&r, &whole});
+  const comparison_frame g = grid_for(o, {&ref.doc, &cand.doc}, {&r, &whole});
   if (o.sweep) {
     const tier_origin ro{ref.file, r.name}, co{cand.file, whole.name};
     emit(o.out, sweep_output(o,
@@ -356,14 +342,14 @@ int dataset_tiers(const agree_options& o) {
   // For a sweep, each recording's two tiers and grid, compared at every threshold at the end.
   struct kept_tiers {
     tier reference, candidate;
-    grid_and_matching g;
+    comparison_frame g;
   };
   std::vector<std::optional<kept_tiers>> kept(d.recordings.size());
   const int status = for_each_recording(d, o.jobs, "comparing", [&](const recording& rec) {
     const loaded l{rec.id, load_recording(d, rec)};
     const tier& r = tier_in(l, rn);
     const std::size_t k = static_cast<std::size_t>(&rec - d.recordings.data());
-    const grid_and_matching g = grid_for(o, {&l.doc}, {&r, &tier_in(l, cn)});
+    const comparison_frame g = grid_for(o, {&l.doc}, {&r, &tier_in(l, cn)});
     if (o.sweep) {
       kept[k] = kept_tiers{r, tier_in(l, cn), g};
       return;
@@ -431,7 +417,7 @@ int combine_reports(const agree_options& o) {
 
 int run_agree(const agree_options& o) {
   reading_options(o.input, "");
-  check_comparison_options(o.compare);
+  check_comparison_settings(o.compare);
   if (!o.sweep && o.target_precision)
     throw usage_error("agree: --target-precision goes with --sweep");
   if (o.sweep && (o.combine || !o.tiers.empty()))

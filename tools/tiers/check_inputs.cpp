@@ -21,39 +21,6 @@ namespace fs = std::filesystem;
 
 namespace {
 
-file_report check_one(const std::string& path, const check_options& o, const profile& p,
-                      const check_context& shared, std::optional<document>* keep) {
-  const std::string name = display_name(path);
-  auto unreadable = [&](diagnostic d) {
-    d.file = name;
-    return unreadable_file(name, {d});
-  };
-  std::string content;
-  try {
-    content = read_input(path);
-  } catch (const error& e) {
-    return unreadable(e.diag());
-  }
-  diagnostic why;
-  const format* fmt = input_format(o.input, path, content, why);
-  if (!fmt) return unreadable(why);
-  read_options options = reading_options(o.input, path);
-  options.positions = true;
-  read_result r = read_document(content, *fmt, options, name);
-  content = std::string();  // lines and columns are found: the file's bytes are not needed
-  if (r.ok())
-    for (diagnostic& d : settle_tiers(r.value, o.input, name))
-      r.diagnostics.push_back(std::move(d));
-  if (!r.ok()) return unreadable_file(name, r.diagnostics);
-  check_context roles = shared;
-  roles.instant_tiers = fmt->carries.has(feature::instant_tiers);
-  if (!roles.captions && !p.captions && fmt->holds_captions && !r.value.tiers.empty())
-    roles.captions = r.value.tiers.front().name;
-  file_report report = check_document(r.value, r.positions, name, p, roles, r.diagnostics);
-  if (keep) *keep = std::move(r.value);
-  return report;
-}
-
 // A recording checked as one document. Its report is named by the recording's id; a problem
 // located at a line names the file of its tier, and each source the recording lacks is a
 // problem of its own.
@@ -121,7 +88,7 @@ std::vector<file_report> check_files(const std::vector<std::string>& files, cons
         try {
           std::optional<document>* kept = docs && k < keep ? &(*docs)[k] : nullptr;
           results[k] = dataset ? check_recording(*dataset, dataset->recordings[k], p, roles, kept)
-                               : check_one(files[k], o, p, roles, kept);
+                               : check_file(files[k], o.input, p, roles, kept);
         } catch (const std::exception& e) {  // out of memory, above all: that file fails alone
           diagnostic d;
           d.file = display_name(files[k]);

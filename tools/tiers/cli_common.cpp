@@ -70,29 +70,6 @@ void add_input_options(CLI::App& cmd, input_options& in) {
       ->type_name("KIND");
 }
 
-std::optional<dataset_source> tier_settings(const input_options& in) {
-  if (in.source.empty() && in.kind.empty()) return std::nullopt;
-  dataset_source s;
-  if (!in.source.empty()) {
-    s.source = parse_tier_source(in.source);
-    if (!s.source)
-      throw usage_error("--source: '" + in.source +
-                        "' is not KIND[:AGENT[@VERSION]] with KIND human or machine, e.g. "
-                        "machine:aligner@2.1");
-  }
-  if (!in.kind.empty()) {
-    s.kind = parse_tier_kind(in.kind);
-    if (!s.kind) throw usage_error("--kind: '" + in.kind + "' is neither interval nor instant");
-  }
-  return s;
-}
-
-std::vector<diagnostic> settle_tiers(document& doc, const input_options& in,
-                                     const std::string& file) {
-  const std::optional<dataset_source> s = tier_settings(in);
-  return s ? apply_source(doc, *s, file) : std::vector<diagnostic>{};
-}
-
 void add_output_options(CLI::App& cmd, std::string& output, std::string& to, bool& allow_loss,
                         const char* output_help) {
   CLI::Option* o = cmd.add_option("-o,--output", output,
@@ -134,10 +111,6 @@ std::vector<std::string> shard_of(std::vector<std::string> files, const std::str
   return out;
 }
 
-std::string display_name(const std::string& path) {
-  return path == "-" ? "<stdin>" : path;
-}
-
 void report(const diagnostic& d) {
   // Whole lines, even from many threads at once.
   static std::mutex lines;
@@ -154,104 +127,27 @@ void report_all(std::vector<diagnostic> diagnostics, std::string_view file) {
   if (has_errors(diagnostics)) throw rejected();
 }
 
-const format& format_named(const std::string& name) {
-  if (const format* f = find_format(name)) return *f;
-  throw usage_error("unknown format '" + name + "' (formats: " + format_names() + ")");
-}
-
-duration_arg parse_duration_arg(const std::string& option, const std::string& text,
-                                duration_kind kind) {
-  const bool negative = kind == duration_kind::offset && !text.empty() && text[0] == '-';
-  const auto d = parse_duration(negative ? text.substr(1) : text);
-  if (!d || (kind == duration_kind::positive && d->ns == 0 && d->frames.value_or(0) == 0))
-    throw usage_error(option + ": '" + text + "' is not " +
-                      (kind == duration_kind::offset ? "an offset such as -0.5s, 250ms or -2f"
-                       : kind == duration_kind::positive
-                           ? "a positive duration such as 10ms, 1s or 1f"
-                           : "a duration such as 1.5s, 250ms or 2f"));
-  duration_arg a;
-  a.option = option;
-  a.text = text;
-  a.value = *d;
-  a.negative = negative;
-  return a;
-}
-
-time_ns duration_arg::at(std::optional<rational> rate) const {
-  if (!value.frames) return negative ? -value.ns : value.ns;
-  if (!rate)
-    throw usage_error(option + ": '" + text +
-                      "' counts video frames, and the document gives no frame rate: give --rate");
-  const time_ns ns = value.at(*rate);
-  return negative ? -ns : ns;
-}
-
-time_ns parse_duration_option(const std::string& option, const std::string& text,
-                              duration_kind kind, std::optional<rational> rate) {
-  return parse_duration_arg(option, text, kind).at(rate);
-}
-
-std::optional<rational> frame_rate_of(const document& doc, const std::string& rate_option) {
-  if (doc.media.frame_rate) return doc.media.frame_rate;
-  if (!rate_option.empty()) return parse_rate_option(rate_option);
-  return std::nullopt;
-}
-
 rational parse_rate_option(const std::string& text) {
-  if (auto r = parse_rational(text)) {
-    // Taken exactly, as the option says; but a likely slip is named, once a run.
-    static std::once_flag noted;
-    if (const auto ntsc = ntsc_rate_abbreviated(text))
-      std::call_once(noted, [&] {
-        std::fprintf(stderr,
-                     "tiers: warning: --rate %s is taken exactly, as %s frames a second; NTSC "
-                     "video runs at %s: give --rate %s if that is meant\n",
-                     text.c_str(), format_rational(*r).c_str(), format_rational(*ntsc).c_str(),
-                     format_rational(*ntsc).c_str());
-      });
-    return *r;
-  }
-  throw usage_error("--rate: '" + text + "' is not a positive frame rate such as 25 or 30000/1001");
-}
-
-const format* input_format(const input_options& in, const std::string& path,
-                           std::string_view content, diagnostic& why) {
-  if (!in.from.empty()) return &format_named(in.from);
-  const format* f = choose_format(path == "-" ? "" : path, content, why, "--from");
-  if (!f) why.file = display_name(path);
-  return f;
+  const rational r = parse_rate_setting(text);
+  // Taken exactly, as the option says; but a likely slip is named, once a run.
+  static std::once_flag noted;
+  if (const auto ntsc = ntsc_rate_abbreviated(text))
+    std::call_once(noted, [&] {
+      std::fprintf(stderr,
+                   "tiers: warning: --rate %s is taken exactly, as %s frames a second; NTSC "
+                   "video runs at %s: give --rate %s if that is meant\n",
+                   text.c_str(), format_rational(r).c_str(), format_rational(*ntsc).c_str(),
+                   format_rational(*ntsc).c_str());
+    });
+  return r;
 }
 
 read_options reading_options(const input_options& in, const std::string& path) {
-  read_options options;
-  if (!in.columns.empty()) {
-    result<column_map> map = parse_column_map(in.columns);
-    if (!map.ok()) throw usage_error("--columns: " + map.diagnostics.front().message);
-    options.columns = std::move(map.value);
-  }
-  if (!in.rate.empty()) options.rate = parse_rate_option(in.rate);
-  options.strict = in.strict;
-  options.max_text = in.max_text;
-  options.max_tiers = in.max_tiers;
-  if (!in.time_unit.empty()) options.unit = named(time_unit_names, in.time_unit);
-  if (!in.tier_name.empty()) {
-    if (!is_utf8(in.tier_name)) throw usage_error("--tier-name: the name is not UTF-8");
-    options.tier_name = in.tier_name;
-  } else if (path != "-") {
-    bool repaired = false;
-    options.tier_name = name_from_path(path, &repaired);
-    if (repaired) {
-      diagnostic d;
-      d.file = display_name(path);
-      d.level = severity::warning;
-      d.code = "input.name";
-      d.message = "the file's name is not UTF-8: its tier is named " +
-                  tiers::quote_name(options.tier_name) + ", with U+FFFD for what is not";
-      report(d);
-    }
-  }
-  if (!in.from.empty()) format_named(in.from);  // a usage error before any input is read
-  tier_settings(in);
+  std::vector<diagnostic> notes;
+  read_options options = tiers::reading_options(in, path, &notes);
+  if (!in.rate.empty()) parse_rate_option(in.rate);  // for its warning
+  for (const diagnostic& d : notes)
+    report(d);
   return options;
 }
 
@@ -294,22 +190,9 @@ void write_output(const document& doc, const format& to, const std::string& outp
 
 std::optional<words_file> words_file_of(const std::string& spec, const input_options& reading,
                                         std::optional<std::string>& tier) {
-  std::error_code ec;
-  std::string path = spec;
-  std::optional<std::string> name;
-  if (!std::filesystem::is_regular_file(path, ec)) {
-    const std::size_t colon = spec.rfind(':');
-    if (colon == std::string::npos || colon == 0 ||
-        !std::filesystem::is_regular_file(spec.substr(0, colon), ec)) {
-      tier = spec;
-      return std::nullopt;
-    }
-    path = spec.substr(0, colon);
-    name = spec.substr(colon + 1);
-  }
-  input_options in = reading;
-  in.path = path;
-  words_file w{path, name, load_document(in)};
+  std::vector<diagnostic> problems;
+  std::optional<words_file> w = tiers::words_file_of(spec, reading, tier, problems);
+  report_all(std::move(problems));
   return w;
 }
 

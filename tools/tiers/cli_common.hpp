@@ -9,16 +9,16 @@
 
 #include "tiers/dataset.hpp"
 #include "tiers/format.hpp"
+#include "tiers/inputs.hpp"
 
 namespace tiers::cli {
 
 /// Exit statuses fixed by the command-line contract.
 enum exit_status : int { exit_ok = 0, exit_rejected = 1, exit_usage = 2 };
 
-/// A mistake in how the command was called: exit status 2.
-struct usage_error : std::runtime_error {
-  using std::runtime_error::runtime_error;
-};
+/// A mistake in how the command was called: exit status 2 (the library's, which says so of
+/// bad option values too).
+using usage_error = tiers::usage_error;
 
 /// The input was rejected and the reasons were printed already: exit status 1.
 struct rejected : std::exception {
@@ -26,18 +26,8 @@ struct rejected : std::exception {
 };
 
 /// How to read one input file; filled in by add_input_options.
-struct input_options {
+struct input_options : reading_settings {
   std::string path;
-  std::string from;
-  std::string columns;
-  std::string tier_name;
-  std::string time_unit = "s";
-  std::string rate;
-  bool strict = false;
-  std::size_t max_text = read_options{}.max_text;
-  std::size_t max_tiers = read_options{}.max_tiers;
-  std::string source;  ///< --source KIND[:AGENT[@VERSION]]: who made the file's tiers
-  std::string kind;    ///< --kind interval|instant: what the file's tiers stand for
 };
 
 /// Adds -o/--output (with `output_help`; required unless `output_help` is given), --to and
@@ -51,23 +41,9 @@ CLI::Validator positive_size();
 /// Adds --from, --columns, --tier-name, --time-unit, --rate, --source and --kind to `cmd`.
 void add_input_options(CLI::App& cmd, input_options& in);
 
-/// The reading options of `in` for the file `path` (a table or WebVTT tier is named after the
-/// file's stem unless --tier-name says otherwise); throws usage_error on bad option values.
+/// The library's reading_options, its warning about the file's name printed, and a likely
+/// slip in --rate named (once a run).
 read_options reading_options(const input_options& in, const std::string& path);
-
-/// What --source and --kind say of every tier read (nothing when neither is given), as a
-/// dataset's source says it; throws usage_error on a bad value.
-std::optional<dataset_source> tier_settings(const input_options& in);
-
-/// Gives the tiers of `doc` what --source and --kind say; the problems are returned, naming
-/// `file`.
-std::vector<diagnostic> settle_tiers(document& doc, const input_options& in,
-                                     const std::string& file);
-
-/// The format to read `path` with: --from, else the extension, else the content. Null when none
-/// fits, with `why` saying so.
-const format* input_format(const input_options& in, const std::string& path,
-                           std::string_view content, diagnostic& why);
 
 /// Reads and parses the input, printing every diagnostic; throws rejected on errors. When the
 /// format names no tier (WebVTT, a table without a tier column) and so the reading options
@@ -110,16 +86,7 @@ void write_output(const document& doc, const format& fmt, const std::string& out
                   bool allow_loss, const std::string& file, std::vector<std::string> losses = {},
                   const std::string& given_name = {});
 
-/// A word-timing tier in another file (`--words FILE[:TIER]` of check and retime).
-struct words_file {
-  std::string path;
-  std::optional<std::string> tier;
-  document doc;
-};
-
-/// Splits `--words`: a file that exists, or FILE:TIER with a file that exists, is a words file,
-/// read with the same reading options as the checked files; anything else names a tier of each
-/// checked document.
+/// The library's words_file_of, its diagnostics printed (throws rejected on errors).
 std::optional<words_file> words_file_of(const std::string& spec, const input_options& reading,
                                         std::optional<std::string>& tier);
 
@@ -162,45 +129,7 @@ T take(result<T>&& r, std::string_view file = {}) {
   return std::move(r.value);
 }
 
-/// The name diagnostics use for a path: `<stdin>` for `-`.
-std::string display_name(const std::string& path);
-
-/// The registered format called `name`; throws usage_error listing the names otherwise.
-const format& format_named(const std::string& name);
-
-/// What a duration option may be.
-enum class duration_kind { length, positive, offset };
-
-/// A duration option as given (`1.5s`, `250ms`, plain seconds, or `2f` frames): a `length`
-/// is zero or more, a `positive` one more than zero, an `offset` may be negative (`-0.48s`).
-/// Frames take their length from a frame rate known only once the document is read.
-struct duration_arg {
-  std::string option, text;
-  duration_value value;
-  bool negative = false;
-  bool in_frames() const { return value.frames.has_value(); }
-  /// Signed frames, for a step in frames; 0 when given in time.
-  std::int64_t frames() const {
-    return value.frames ? (negative ? -*value.frames : *value.frames) : 0;
-  }
-  /// The length in nanoseconds; frames at `rate`, rounded to the nearest nanosecond. Throws
-  /// usage_error for frames without a rate.
-  time_ns at(std::optional<rational> rate) const;
-};
-
-/// Checks a duration option; throws usage_error naming `option`.
-duration_arg parse_duration_arg(const std::string& option, const std::string& text,
-                                duration_kind kind = duration_kind::length);
-
-/// parse_duration_arg(…).at(rate).
-time_ns parse_duration_option(const std::string& option, const std::string& text,
-                              duration_kind kind = duration_kind::length,
-                              std::optional<rational> rate = std::nullopt);
-
-/// The frame rate `Nf` durations count in: the document's, else `rate_option`'s (--rate).
-std::optional<rational> frame_rate_of(const document& doc, const std::string& rate_option);
-
-/// Parses a --rate value, or throws usage_error.
+/// Parses a --rate value (parse_rate_setting), naming a likely slip once a run.
 rational parse_rate_option(const std::string& text);
 
 }  // namespace tiers::cli

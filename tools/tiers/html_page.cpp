@@ -29,7 +29,7 @@ void write_html_page(const html_request& h, const check_run& run, const profile&
   options.max_late = p.limits.max_late;
   options.max_early = p.limits.max_early;
   const duration_arg step = parse_duration_arg("--step", h.compare.step, duration_kind::positive);
-  check_comparison_options(h.compare);
+  check_comparison_settings(h.compare);
 
   std::vector<report_file> files(run.reports.size());
   for (std::size_t k = 0; k < files.size(); ++k) {

@@ -132,7 +132,7 @@ int run_report(const report_options& o) {
   if (!o.check.dataset.empty()) {
     if (h.ref_tier.empty() != h.cand_tier.empty())
       throw usage_error("report: name both tiers to compare: --ref-tier A --cand-tier B");
-    check_comparison_options(h.compare);
+    check_comparison_settings(h.compare);
     return report_dataset(o, load_check_profile(o.check.profile));
   }
   if (o.check.paths.empty()) throw usage_error("report: name the files or folders, or --dataset");
@@ -141,7 +141,7 @@ int run_report(const report_options& o) {
   if (h.ref_tier.empty() != h.cand_tier.empty())
     throw usage_error("report: name both tiers to compare: --ref-tier A --cand-tier B");
   // Bad durations are usage errors before any file is read.
-  check_comparison_options(h.compare);
+  check_comparison_settings(h.compare);
   const profile p = load_check_profile(o.check.profile);
   check_run run = run_checks(o.check, p, html_drawn_files);
   html_request page = h;

@@ -277,4 +277,42 @@ threshold_sweep sweep_thresholds(const std::vector<sweep_part>& parts,
 void write_sweep_json(const threshold_sweep& s, const tier_origin& reference,
                       const tier_origin& candidate, byte_sink& out);
 
+/// How two tiers are compared, as options give it (`tiers agree`, `tiers report`, Python's
+/// tiers.agree): the time grid's step and how segments match.
+struct comparison_settings {
+  std::string step = "10ms";
+  std::string match = "boundaries";
+  std::string collar = "200ms";
+  double min_overlap = 0.5;
+  bool any_label = false;
+};
+
+/// The segment matching the settings ask for; a bad collar or match is a usage_error, and a
+/// collar in frames (`2f`) counts at `rate`.
+segment_options segment_matching(const comparison_settings& settings,
+                                 std::optional<rational> rate = std::nullopt);
+
+/// The grid the step asks for over `tiers` (grid_over): a step in frames counts at `rate`.
+time_grid step_grid(const comparison_settings& settings, std::optional<time_ns> media_duration,
+                    const std::vector<const tier*>& tiers, std::optional<rational> rate);
+
+/// Checks the step, collar and match before any file is read (frames are taken on trust until
+/// the rate is known); throws usage_error.
+void check_comparison_settings(const comparison_settings& settings);
+
+/// The grid and matching for tiers of `docs`: over the longest media duration a document knows
+/// (else the tiers' spans), a step or collar in frames counting at the first document's frame
+/// rate, else at `rate_setting` (--rate).
+struct comparison_frame {
+  time_grid grid;
+  segment_options matching;
+};
+comparison_frame comparison_for(const comparison_settings& settings,
+                                const std::vector<const document*>& docs,
+                                const std::vector<const tier*>& tiers,
+                                const std::string& rate_setting = {});
+
+/// `t` without the annotations whose confidence is below `least` (those without one stay).
+tier at_least_confident(const tier& t, double least);
+
 }  // namespace tiers

@@ -10,6 +10,7 @@
 
 #include "tiers/diagnostic.hpp"
 #include "tiers/format.hpp"
+#include "tiers/inputs.hpp"
 #include "tiers/lag.hpp"
 #include "tiers/model.hpp"
 #include "tiers/profile.hpp"
@@ -118,6 +119,22 @@ file_report check_document(const document& doc, const source_map& positions,
 file_report unreadable_file(const std::string& file, const std::vector<diagnostic>& read);
 
 std::vector<tier_shape> shape_of(const document& doc, const source_map& positions);
+
+/// The file at `path` read as `in` says (read_input_file, with positions) and checked against
+/// `p`: `roles` name the caption and word tiers; a caption format's first tier is the caption
+/// tier when neither they nor the profile name one. A file that cannot be read is a report of
+/// its reading's errors; anything thrown (out of memory, above all) fails that file alone.
+/// With `keep`, the document read is kept there.
+file_report check_file(const std::string& path, const reading_settings& in, const profile& p,
+                       const check_context& roles, std::optional<document>* keep = nullptr);
+
+/// check_file for every file on `jobs` threads (0: one per core), the reports in the order of
+/// `files`; then, with `compare`, the files compared with one another (check_dataset).
+/// `done`, when given, counts the files checked, for a progress display.
+std::vector<file_report> check_files(const std::vector<std::string>& files,
+                                     const reading_settings& in, const profile& p,
+                                     const check_context& roles, unsigned jobs, bool compare,
+                                     std::atomic<std::size_t>* done = nullptr);
 
 /// Compares the files of a dataset with one another: a tier that most files have but one
 /// lacks, or has with another kind or vocabulary, is reported in that file

@@ -1,0 +1,66 @@
+// The files of the folders named, and work on many of them at once.
+#include <algorithm>
+#include <filesystem>
+#include <thread>
+#include <unordered_set>
+
+#include "tiers/inputs.hpp"
+
+namespace tiers {
+
+namespace fs = std::filesystem;
+
+std::vector<input_file> expand_inputs(const std::vector<std::string>& paths) {
+  std::vector<input_file> out;
+  for (const std::string& p : paths) {
+    std::error_code ec;
+    if (p == "-" || !fs::is_directory(p, ec)) {
+      out.push_back({p, fs::path(p).filename().string()});
+      continue;
+    }
+    std::vector<input_file> found;
+    fs::recursive_directory_iterator it(p, fs::directory_options::skip_permission_denied, ec), end;
+    for (; !ec && it != end; it.increment(ec)) {
+      const std::string name = it->path().filename().string();
+      if (!name.empty() && name[0] == '.') {
+        if (it->is_directory(ec)) it.disable_recursion_pending();
+        continue;
+      }
+      // lexically: the iterator's paths all start with p, and relative() would resolve both
+      // paths on the disk for every file.
+      if (it->is_regular_file(ec) && format_for_path(it->path().string()))
+        found.push_back({it->path().string(), it->path().lexically_relative(p).string()});
+    }
+    std::sort(found.begin(), found.end(),
+              [](const input_file& a, const input_file& b) { return a.path < b.path; });
+    out.insert(out.end(), found.begin(), found.end());
+  }
+  // The first of each path, in order: a hash set, since archives list hundreds of thousands.
+  std::vector<input_file> unique;
+  std::unordered_set<std::string> seen;
+  seen.reserve(out.size());
+  for (input_file& f : out)
+    if (seen.insert(f.path).second) unique.push_back(std::move(f));
+  return unique;
+}
+
+void run_parallel(std::size_t count, unsigned jobs, const std::function<void(std::size_t)>& work,
+                  std::atomic<std::size_t>* done) {
+  std::atomic<std::size_t> next{0};
+  auto worker = [&] {
+    for (std::size_t k; (k = next.fetch_add(1)) < count;) {
+      work(k);
+      if (done) done->fetch_add(1);
+    }
+  };
+  if (jobs == 0) jobs = std::max(1u, std::thread::hardware_concurrency());
+  jobs = static_cast<unsigned>(std::min<std::size_t>(jobs, std::max<std::size_t>(count, 1)));
+  std::vector<std::thread> pool;
+  for (unsigned k = 1; k < jobs; ++k)
+    pool.emplace_back(worker);
+  worker();
+  for (std::thread& t : pool)
+    t.join();
+}
+
+}  // namespace tiers
