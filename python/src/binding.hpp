@@ -15,12 +15,14 @@ namespace tiers::python {
 
 namespace py = pybind11;
 
-void bind_model(py::module_& m);   ///< Document, Tier, Annotation and their parts
-void bind_io(py::module_& m);      ///< read, write, loads, dumps, formats
-void bind_tables(py::module_& m);  ///< to_pandas, from_pandas
-void bind_review(py::module_& m);  ///< estimate
-void bind_check(py::module_& m);   ///< check
-void bind_agree(py::module_& m);   ///< agree
+void bind_model(py::module_& m);      ///< Document, Tier, Annotation and their parts
+void bind_io(py::module_& m);         ///< read, write, loads, dumps, formats
+void bind_tables(py::module_& m);     ///< to_pandas, from_pandas
+void bind_review(py::module_& m);     ///< estimate
+void bind_check(py::module_& m);      ///< check
+void bind_agree(py::module_& m);      ///< agree
+void bind_documents(py::module_& m);  ///< retime, edit, derive, merge
+void bind_cooccur(py::module_& m);    ///< cooccur
 
 /// Raises `tiers.errors.KIND(message, diagnostics)` (with `losses` for LossError) as the
 /// pending Python exception and throws error_already_set.

@@ -156,3 +156,46 @@ def test_agree_refusals():
     with pytest.raises(tiers.UsageError, match="rate"):
         tiers.agree(captions, captions, tier="panel-discussion", step="2f")
     assert tiers.agree(captions, captions, tier="panel-discussion", step="2f", rate="25").kappa == 1
+
+
+@pytest.mark.parametrize("options,argv", [
+    ({}, []),
+    ({"relation": "starts-in", "window": "0.2s", "min_count": 1, "sort": "fisher"},
+     ["--relation", "starts-in", "--window", "0.2s", "--min-count", "1", "--sort", "fisher"]),
+    ({"fold_case": True, "b_labels": ["beat", "iconic"], "permutations": 99, "seed": 7},
+     ["--fold-case", "--b-labels", "beat,iconic", "--permutations", "99", "--seed", "7"]),
+])
+def test_cooccur_reports_what_the_command_line_reports(options, argv):
+    status, out, err = cli("cooccur", GESTURES, "--a", "words", "--b", "gestures", "--json",
+                           *argv)
+    assert status == 0, err
+    report = tiers.cooccur(GESTURES, "words", "gestures", **options)
+    assert report == json.loads(out)
+    assert len(report.to_pandas("pairs")) == len(report.pairs)
+
+
+def test_cooccur_over_folders_and_documents(monkeypatch):
+    monkeypatch.chdir(SAMPLES.parent)
+    reading = ["--columns", "tier=coder,start=start_frame,end=end_frame,text=gesture",
+               "--time-unit", "frames", "--rate", "25"]
+    status, out, err = cli("cooccur", "samples/market-corpus/coding", "--a", "coder-a", "--b",
+                           "coder-b", "--json", "--jobs", "2", *reading)
+    assert status == 0, err
+    options = {"columns": "tier=coder,start=start_frame,end=end_frame,text=gesture",
+               "time_unit": "frames", "rate": "25"}
+    report = tiers.cooccur("samples/market-corpus/coding", "coder-a", "coder-b", jobs=2,
+                           **options)
+    assert report == json.loads(out)
+    docs = [tiers.read(p, **options)
+            for p in sorted((SAMPLES / "market-corpus" / "coding").iterdir())]
+    assert tiers.cooccur(docs, "coder-a", "coder-b").pairs == report.pairs
+
+
+def test_cooccur_refusals():
+    with pytest.raises(tiers.ReadError, match="no tier"):
+        tiers.cooccur(GESTURES, "words", "nods")
+    with pytest.raises(tiers.UsageError, match="window"):
+        tiers.cooccur(SAMPLES / "panel-discussion.vtt", "panel-discussion",
+                      "panel-discussion.words", window="2f")
+    with pytest.raises(tiers.UsageError, match="relation"):
+        tiers.cooccur(GESTURES, "words", "gestures", relation="near")

@@ -16,14 +16,15 @@ from ._tiers import (Annotation, AnnotationList, Attributes, Diagnostic, Documen
                      ParentLink, Source, Tier, TierList, __version__, dumps, formats, loads, read,
                      write)
 from . import _tiers
-from .errors import Error, LossError, ReadError, TiersWarning, UsageError, WriteError
+from .errors import (EditError, Error, LossError, MergeError, ReadError, TiersWarning,
+                     UsageError, WriteError)
 from .reports import CheckReport, Report, Rows, check_report_of, report_of
 
 __all__ = ["Annotation", "AnnotationList", "Attributes", "CheckReport", "Diagnostic",
-           "Document", "Error",
-           "LossError", "Media", "ParentLink", "ReadError", "Source", "Tier", "TierList",
+           "Document", "EditError", "Error",
+           "LossError", "Media", "MergeError", "ParentLink", "ReadError", "Source", "Tier", "TierList",
            "Report", "Rows", "TiersWarning", "UsageError", "WriteError", "__version__",
-           "agree", "check", "dumps", "estimate", "formats", "from_pandas", "loads", "read", "write"]
+           "agree", "check", "cooccur", "derive", "dumps", "edit", "estimate", "merge", "retime", "formats", "from_pandas", "loads", "read", "write"]
 
 
 def from_pandas(df, *, columns=None, tier_name="tier", time_unit=None, rate=None,
@@ -107,3 +108,115 @@ def agree(reference, candidate=None, *, tier=None, ref_tier=None, cand_tier=None
     return report_of(_tiers._agree_json(reference, candidate, tier, ref_tier, cand_tier, tiers,
                                         step, match, collar, min_overlap, any_label,
                                         min_confidence, empty, **reading_options))
+
+
+def retime(doc, words=None, *, captions=None, lead_in="0", hold="0", min_gap=None,
+           min_duration=None, max_cps=None, profile=None, to=None, **reading_options):
+    """retime(doc, words=None, *, captions=None, lead_in='0', hold='0', min_gap=None,
+    min_duration=None, max_cps=None, profile=None, to=None, **reading_options) -> Report
+
+    Moves caption cues onto their words' timings, as `tiers retime` does (docs/retime.md).
+    `doc` is a Document (left as it was) or a path; `words` the word timings: a tier of the
+    document (default: its only tier, else 'words'), 'FILE' or 'FILE:TIER', or a Document.
+    Durations as on the command line ('0.12s', '2f'); what is not given comes from `profile`'s
+    caption rules. `to` names the format the result will be written in, whose time grid the
+    new times keep to. The report has the fields of `tiers retime --json` (`cues`, `summary`);
+    `report.document` is the re-timed document.
+    """
+    document, text = _tiers._retime(doc, words, captions or "", str(lead_in), str(hold),
+                                    None if min_gap is None else str(min_gap),
+                                    None if min_duration is None else str(min_duration),
+                                    max_cps, profile, to, **reading_options)
+    report = report_of(text)
+    report.document = document
+    return report
+
+
+def edit(doc, *steps, from_zero=False, **reading_options):
+    """edit(doc, *steps, from_zero=False, **reading_options) -> Document
+
+    Time and tier operations in the order given, as `tiers edit` applies its options
+    (docs/cli.md, "edit"): each step is a pair ('shift', '-0.48s'), ('scale', '25:24'),
+    ('snap', '25'), ('cut', '10..20'), ('drop', 'tier'), ('rename', 'old=new') or ('select',
+    ['a', 'b']). `doc` is a Document (left as it was) or a path; the edited copy is returned.
+    A step that cannot be done raises EditError naming it, and nothing is changed.
+    """
+    return _tiers._edit(doc, [(name, value) for name, value in steps], from_zero,
+                        **reading_options)
+
+
+def derive(signal, *, format="", rate="", scores=None, on=0.5, off=None, smooth=1,
+           min_duration="0", bridge="0", confidence="mean", agent="", agent_version="",
+           tier_name="", label=""):
+    """derive(signal, *, format='', rate='', scores=None, on=0.5, off=None, smooth=1,
+    min_duration='0', bridge='0', confidence='mean', agent='', agent_version='', tier_name='',
+    label='') -> Document
+
+    Interval tiers from a detector's per-frame scores, as `tiers derive` makes them
+    (docs/derive.md): a tier per score column (or `scores`, a list), an interval where the
+    score reaches `on` until it falls below `off`, after a median over `smooth` rows, gaps
+    shorter than `bridge` joined and intervals shorter than `min_duration` dropped. `format`
+    is csv, tsv or jsonl (default: by the extension); `rate` the frame rate of a frame column.
+    A bad table raises ReadError with its located diagnostics.
+    """
+    if scores is not None and not isinstance(scores, str):
+        scores = ",".join(scores)
+    return _tiers._derive(signal, format, str(rate), scores or "", on, off, smooth,
+                          str(min_duration), str(bridge), confidence, agent, agent_version,
+                          tier_name, label)
+
+
+def _pairs(value):
+    """{'a': 'x'} or ['a=x'] as ['a=x']."""
+    if value is None:
+        return []
+    if isinstance(value, dict):
+        return [f"{k}={v}" for k, v in value.items()]
+    return [value] if isinstance(value, str) else list(value)
+
+
+def merge(*inputs, plan=None, clash=None, shift=None, align=None, max_offset=None, into=None,
+          human=None, machine=None, strategy=None, min_confidence=None, min_duration=None,
+          review=None, review_min=None, **reading_options):
+    """merge(*inputs, plan=None, clash=None, shift=None, align=None, max_offset=None, into=None,
+    human=None, machine=None, strategy=None, min_confidence=None, min_duration=None,
+    review=None, review_min=None, **reading_options) -> Document
+
+    The tiers of several documents of one recording in one, as `tiers merge` joins them
+    (docs/merge.md): `inputs` are paths (read with the reading options), Documents (called
+    input-1, input-2, … in messages and the recorded plan) or (name, Document) pairs, after a
+    `plan` file's own inputs. `clash` ('fail', 'prefix-file', 'prefix-source') settles tiers
+    of the same name; `shift` ({tier: '-0.04s'}) and `align` ({tier: reference}) correct times;
+    `into`, `human` and `machine` combine a human and a machine tier (with `strategy`,
+    `min_confidence` — a number, or 'from-estimate' —, `min_duration`, and a `review` tier of
+    where they disagree). The result records the inputs and the plan. A refusal raises
+    MergeError with the diagnostics; notes and warnings become TiersWarning.
+    """
+    def text(v):
+        return "" if v is None else str(v)
+    return _tiers._merge(list(inputs), text(plan), text(clash), _pairs(shift), _pairs(align),
+                         text(max_offset), text(into), text(human), text(machine),
+                         text(strategy), text(min_confidence), text(min_duration), text(review),
+                         text(review_min), **reading_options)
+
+
+def cooccur(inputs, a, b, *, relation="overlap", window="0", fold_case=False, min_count=1,
+            b_labels=None, sort="g2", permutations=0, seed=1, jobs=0, **reading_options):
+    """cooccur(inputs, a, b, *, relation='overlap', window='0', fold_case=False, min_count=1,
+    b_labels=None, sort='g2', permutations=0, seed=1, jobs=0, **reading_options) -> Report
+
+    Which labels of tier `a` go with which labels of tier `b` over a corpus, as `tiers
+    cooccur --json` reports it (docs/cooccur.md): `inputs` is a path, a folder, a Document or
+    a list of them; each annotation of A co-occurs with B's labels by `relation` ('overlap',
+    'within', 'starts-in'), B widened by `window`. The report's `pairs` (also
+    `report.to_pandas("pairs")`) hold each pair's count, expected count, G², Fisher's p
+    (adjusted by Benjamini-Hochberg), log odds with their interval, PMI, and with
+    `permutations` a p from circular shifts of B (seeded by `seed`).
+    """
+    import os
+    given = [inputs] if isinstance(inputs, (str, bytes, os.PathLike, Document)) else list(inputs)
+    if b_labels is not None and not isinstance(b_labels, str):
+        b_labels = ",".join(b_labels)
+    return report_of(_tiers._cooccur_json(given, a, b, relation, str(window), fold_case,
+                                          min_count, b_labels or "", sort, permutations, seed,
+                                          jobs, **reading_options))

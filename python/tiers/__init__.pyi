@@ -4,8 +4,10 @@ from typing import Any, Iterator, Mapping, Optional, Sequence, Union, overload
 
 import pandas
 
+from .errors import EditError as EditError
 from .errors import Error as Error
 from .errors import LossError as LossError
+from .errors import MergeError as MergeError
 from .errors import ReadError as ReadError
 from .errors import TiersWarning as TiersWarning
 from .errors import UsageError as UsageError
@@ -156,3 +158,29 @@ def agree(reference: Union[PathLike, Document], candidate: Union[PathLike, Docum
           step: str = "10ms", match: str = "boundaries", collar: str = "200ms",
           min_overlap: float = 0.5, any_label: bool = False, min_confidence: float = 0.0,
           empty: str = "missing", **reading_options: Any) -> Report: ...
+def retime(doc: Union[PathLike, Document], words: Union[str, Document, None] = None, *,
+           captions: Optional[str] = None, lead_in: str = "0", hold: str = "0",
+           min_gap: Optional[str] = None, min_duration: Optional[str] = None,
+           max_cps: Optional[float] = None, profile: Optional[str] = None,
+           to: Optional[str] = None, **reading_options: Any) -> Report: ...
+def edit(doc: Union[PathLike, Document], *steps: tuple[str, Union[str, Sequence[str]]],
+         from_zero: bool = False, **reading_options: Any) -> Document: ...
+def derive(signal: PathLike, *, format: str = "", rate: Union[str, int] = "",
+           scores: Union[str, Sequence[str], None] = None, on: float = 0.5,
+           off: Optional[float] = None, smooth: int = 1, min_duration: str = "0",
+           bridge: str = "0", confidence: str = "mean", agent: str = "", agent_version: str = "",
+           tier_name: str = "", label: str = "") -> Document: ...
+def merge(*inputs: Union[PathLike, Document, tuple[str, Document]], plan: Optional[PathLike] = None,
+          clash: Optional[str] = None,
+          shift: Union[Mapping[str, str], Sequence[str], None] = None,
+          align: Union[Mapping[str, str], Sequence[str], None] = None,
+          max_offset: Optional[str] = None, into: Optional[str] = None,
+          human: Optional[str] = None, machine: Optional[str] = None,
+          strategy: Optional[str] = None, min_confidence: Union[float, str, None] = None,
+          min_duration: Optional[str] = None, review: Optional[str] = None,
+          review_min: Optional[str] = None, **reading_options: Any) -> Document: ...
+def cooccur(inputs: Union[PathLike, Document, Sequence[Union[PathLike, Document]]], a: str,
+            b: str, *, relation: str = "overlap", window: str = "0", fold_case: bool = False,
+            min_count: int = 1, b_labels: Union[str, Sequence[str], None] = None,
+            sort: str = "g2", permutations: int = 0, seed: int = 1, jobs: int = 0,
+            **reading_options: Any) -> Report: ...

@@ -27,6 +27,16 @@ class UsageError(Error, ValueError):
     """An argument is wrong: an unknown format or option, a value out of its range."""
 
 
+class EditError(Error):
+    """An edit refused the document (a cut that leaves nothing, a tier that is not there, a
+    name that is taken); the document is left as it was."""
+
+
+class MergeError(Error):
+    """A merge refused its inputs (tiers of the same name under clash='fail', different media,
+    a combination's tier that is not there)."""
+
+
 class LossError(Error):
     """The format cannot carry everything of the document. `losses` lists what would be lost,
     one line each; write(..., allow_loss=True) writes without it."""

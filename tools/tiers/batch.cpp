@@ -62,7 +62,13 @@ void run_parallel(std::size_t count, unsigned jobs, const std::function<void(std
   std::thread progress;
   if (count > 1 && isatty(STDERR_FILENO))
     progress = std::thread(show_progress, std::cref(done), count, verb, units);
-  tiers::run_parallel(count, jobs, work, &done);
+  try {
+    tiers::run_parallel(count, jobs, work, &done);
+  } catch (...) {
+    done = count;  // the bar stops when all are done: the rest will not be
+    if (progress.joinable()) progress.join();
+    throw;
+  }
   if (progress.joinable()) progress.join();
 }
 

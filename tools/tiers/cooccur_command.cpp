@@ -82,53 +82,10 @@ namespace {
 
 using tiers::quote_name;
 
-const tier& tier_named(const document& doc, const std::string& name, const std::string& file) {
-  if (const tier* t = find_tier(doc, name)) return *t;
-  diagnostic d;
-  d.file = file;
-  d.code = "cooccur.tier";
-  d.message = "no tier " + quote_name(name) + " (its tiers: " + tier_names(doc) + ")";
-  report(d);
-  throw rejected();
-}
-
-cooccur_options library_options(const cooccur_options_cli& o) {
-  cooccur_options l;
-  l.relation = named(cooccur_relation_names, o.relation);
-  l.fold_case = o.fold_case;
-  for (std::size_t from = 0; !o.b_labels.empty() && from <= o.b_labels.size();) {
-    const std::size_t comma = std::min(o.b_labels.find(',', from), o.b_labels.size());
-    l.b_labels.push_back(o.b_labels.substr(from, comma - from));
-    from = comma + 1;
-  }
-  return l;
-}
-
-// What one file or recording gives: its counts, and for the permutation test its two tiers.
-struct counted {
-  cooccur_counts counts;
-  std::optional<tier> a, b;
-  cooccur_recording recording;
-};
-
-// One document's counts; the window in frames counts at its rate.
-counted count_document(const cooccur_options_cli& o, cooccur_options l, const document& doc,
-                       const std::string& name) {
-  l.window = parse_duration_option("--window", o.window, duration_kind::length,
-                                   frame_rate_of(doc, o.input.rate));
-  counted c;
-  const tier& a = tier_named(doc, o.a, name);
-  const tier& b = tier_named(doc, o.b, name);
-  c.counts.add(a, b, l);
-  if (o.permutations > 0 || !o.concordance.empty()) {  // their second look at the tiers
-    c.a = a;
-    c.b = b;
-    c.recording.name = name;
-    c.recording.length = doc.media.duration.value_or(latest_end(a, b));
-    c.recording.media = doc.media.uri.value_or("");
-    c.recording.options = l;
-  }
-  return c;
+// One document counted (count_document), its problems printed; throws rejected.
+counted_document count(const cooccur_options_cli& o, const document& doc, const std::string& name) {
+  const bool keep = o.permutations > 0 || !o.concordance.empty();  // a second look at the tiers
+  return take(count_document(doc, name, o, o.input.rate, keep));
 }
 
 std::string num(double v, int decimals = 3) {
@@ -273,9 +230,9 @@ int run_cooccur(const cooccur_options_cli& o) {
     throw usage_error("cooccur: --pairs goes with --shard and --permutations");
   if (!o.shard.empty() && !o.out.format.empty() && o.out.format != "json")
     throw usage_error("cooccur --shard writes counts as JSON, for --combine");
-  const cooccur_options l = library_options(o);
+  const cooccur_options l = cooccur_options_of(o);
   std::vector<std::string> names;
-  std::vector<std::optional<counted>> each;
+  std::vector<std::optional<counted_document>> each;
   int status = exit_ok;
   std::string what;
   if (!o.dataset.empty()) {
@@ -286,7 +243,7 @@ int run_cooccur(const cooccur_options_cli& o) {
     each.resize(d.recordings.size());
     status = for_each_recording(d, o.jobs, "counting", [&](const recording& r) {
       each[static_cast<std::size_t>(&r - d.recordings.data())] =
-          count_document(o, l, load_recording(d, r), r.id);
+          count(o, load_recording(d, r), r.id);
     });
     what = fmt::format("{}, {} recording{}", d.file, d.recordings.size(),
                        d.recordings.size() == 1 ? "" : "s");
@@ -308,25 +265,20 @@ int run_cooccur(const cooccur_options_cli& o) {
     each.resize(files.size());
     status = for_each_document(
         files, o.input, o.jobs, "counting",
-        [&](std::size_t k, document&& doc) { each[k] = count_document(o, l, doc, names[k]); });
+        [&](std::size_t k, document&& doc) { each[k] = count(o, doc, names[k]); });
     what = fmt::format("{} file{}", files.size(), files.size() == 1 ? "" : "s");
   }
   if (each.empty()) throw usage_error("cooccur: the inputs hold no file to count");
   // Nothing counted (every input failed, and said why): no table to print.
   if (std::none_of(each.begin(), each.end(), [](const auto& c) { return c.has_value(); }))
     return exit_rejected;
+  std::vector<counted_document> counted;
+  for (std::optional<counted_document>& c : each)
+    if (c) counted.push_back(std::move(*c));
   cooccur_counts all;
   std::vector<cooccur_recording> recordings;
-  for (std::optional<counted>& c : each)
-    if (c) {
-      all.add(c->counts);
-      if (c->a) {
-        c->recording.a = &*c->a;
-        c->recording.b = &*c->b;
-        recordings.push_back(c->recording);
-      }
-    }
   if (!o.shard.empty()) {
+    gather_counts(counted, all, recordings);
     cooccur_part part;
     part.a_tier = o.a;
     part.b_tier = o.b;
@@ -342,9 +294,7 @@ int run_cooccur(const cooccur_options_cli& o) {
     emit(o.out, written([&](byte_sink& out) { write_cooccur_counts_json(part, out); }));
     return status;
   }
-  std::vector<pair_statistics> table =
-      cooccur_table(all, o.min_count, named(cooccur_sort_names, o.sort));
-  if (o.permutations > 0) permutation_test(table, recordings, o.permutations, o.seed);
+  const std::vector<pair_statistics> table = cooccur_run(counted, o, all, recordings);
   if (!o.concordance.empty()) {
     atomic_file out(o.concordance);
     write_concordance_csv(table, recordings, o.context, out);

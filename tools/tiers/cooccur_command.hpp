@@ -9,26 +9,18 @@
 
 #include "cli_common.hpp"
 #include "table_output.hpp"
+#include "tiers/cooccur.hpp"
 
 namespace tiers::cli {
 
-struct cooccur_options_cli {
+struct cooccur_options_cli : cooccur_settings {
   input_options input;             ///< reading options for every file (path unused)
   std::vector<std::string> paths;  ///< files or folders
   std::string dataset;
   unsigned jobs = 0;
   std::string shard;     ///< K/N: count part of the files or recordings, for --combine
   bool combine = false;  ///< the inputs are the counts of shards, to add up
-  std::string a, b;      ///< the tiers
-  std::string relation = "overlap";
-  std::string window = "0";
-  bool fold_case = false;
-  std::uint64_t min_count = 1;
-  std::string b_labels;  ///< a,b,c
-  std::string sort = "g2";
-  std::uint32_t permutations = 0;  ///< the permutation test's shifts; 0: none
-  std::uint64_t seed = 1;
-  std::string pairs;  ///< with --shard and --permutations: the pairs to shift (a combined table)
+  std::string pairs;     ///< with --shard and --permutations: the pairs to shift (a combined table)
   std::string concordance;  ///< every co-occurrence of the pairs shown, as CSV
   std::size_t context = 3;  ///< A's annotations before and after, in the concordance
   report_output out;

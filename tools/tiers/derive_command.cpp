@@ -64,25 +64,18 @@ void setup_derive(CLI::App& app, int& status) {
 
 namespace {
 
-// The derived tiers of one signal table; `agent` names the detector unless --agent does.
-document derive_file(const derive_options_cli& o, const std::string& path, signal_format from,
-                     signal_options so, derive_options d, const std::string& agent) {
-  if (o.agent.empty()) d.source.agent = agent;
-  const std::string text = read_input(path);
-  signal_result r = read_signal(text, from, so);
-  locate_all(text, r.diagnostics);
-  const signal s = take(std::move(r), display_name(path));
-  // Frames (`--bridge 5f`) count at the signal's rate.
-  d.bridge = parse_duration_option("--bridge", o.bridge, duration_kind::length, s.rate);
-  d.min_duration =
-      parse_duration_option("--min-duration", o.min_duration, duration_kind::length, s.rate);
-  return derive_tiers(s, d);
+// The derived tiers of one signal table, as `request` asks; `agent` names the detector unless
+// --agent does.
+document derive_file(const derive_options_cli& o, const std::string& path, derive_request request,
+                     const std::string& agent) {
+  if (o.agent.empty()) request.derive.source.agent = agent;
+  return take(derive_signal(read_input(path), display_name(path), request));
 }
 
 // Each recording's signal sources derived into one document, DIR/ID.EXT: a source's `rate`
 // and `from` apply to its files, its agent (else the name its pattern gives a tier) names the
 // detector, and its `rename` names the derived tiers.
-int derive_dataset(const derive_options_cli& o, const signal_options& so, const derive_options& d) {
+int derive_dataset(const derive_options_cli& o, const derive_request& base) {
   const format& to = per_recording_format("derive", !o.path.empty(), o.output, o.output_dir, o.to);
   const opened_dataset ds = open_dataset(o.dataset, input_options{}, o.shard);
   const auto& sources = ds.description.sources;
@@ -102,21 +95,21 @@ int derive_dataset(const derive_options_cli& o, const signal_options& so, const 
             continue;
           }
           const std::string path = ds.path_of(r.files[k]);
-          signal_options own = so;
+          derive_request each = base;
           std::optional<signal_format> from = signal_format_for_path(path);
           for (const auto& [name, value] : s.read) {
-            if (name == "rate") own.rate = parse_rate_option(value);
+            if (name == "rate") each.reading.rate = parse_rate_option(value);
             if (name == "from") from = named(signal_format_names, value);
           }
           if (!from)
             throw usage_error("cannot tell the signal format of '" + path +
                               "'; give the source \"read\": {\"from\": …}");
-          derive_options each = d;
-          if (s.source && s.source->version) each.source.version = s.source->version;
+          each.format = *from;
+          if (s.source && s.source->version) each.derive.source.version = s.source->version;
           const std::string agent = s.source && s.source->agent        ? *s.source->agent
                                     : !tier_name_of(s.pattern).empty() ? tier_name_of(s.pattern)
                                                                        : "detector";
-          document doc = derive_file(o, path, *from, own, each, agent);
+          document doc = derive_file(o, path, each, agent);
           dataset_source names;
           names.rename = s.rename;
           for (diagnostic& p : apply_source(doc, names, display_name(path)))
@@ -132,54 +125,17 @@ int derive_dataset(const derive_options_cli& o, const signal_options& so, const 
 }  // namespace
 
 int run_derive(const derive_options_cli& o) {
-  signal_options so;
-  if (!o.rate.empty()) so.rate = parse_rate_option(o.rate);
-  for (std::size_t from = 0; !o.scores.empty() && from <= o.scores.size();) {
-    const std::size_t comma = std::min(o.scores.find(',', from), o.scores.size());
-    so.columns.push_back(o.scores.substr(from, comma - from));
-    from = comma + 1;
-  }
-  derive_options d;
-  d.on = o.on;
-  d.off = o.off;
-  // Hysteresis leaves at --off what it entered at --on; above it, an interval would end before
-  // the score that started it fell.
-  if (o.off && *o.off > o.on)
-    throw usage_error(
-        fmt::format("--off {} is above --on {}: an interval ends where the score "
-                    "falls below --off, which must not exceed --on",
-                    *o.off, o.on));
-  if (o.smooth % 2 == 0) throw usage_error("--smooth: the median needs an odd number of frames");
-  d.smooth = o.smooth;
-  parse_duration_arg("--bridge", o.bridge);  // bad values are usage errors before any reading
-  parse_duration_arg("--min-duration", o.min_duration);
-  d.tier_name = o.tier_name;
-  d.label = o.label;
-  const bool one_score = so.columns.size() == 1;
-  if (!one_score && !o.tier_name.empty() && o.tier_name.find("{score}") == std::string::npos)
-    throw usage_error("--tier-name " + o.tier_name +
-                      " would name every score's tier alike: pick one with --scores, or put "
-                      "{score} in the name");
-  d.max_confidence = o.confidence == "max";
-  d.source.agent = o.agent.empty() && o.path != "-"
-                       ? name_from_path(o.path)
-                       : (o.agent.empty() ? std::string("detector") : o.agent);
-  if (!o.agent_version.empty()) d.source.version = o.agent_version;
-
-  if (!o.dataset.empty()) return derive_dataset(o, so, d);
+  if (!o.rate.empty()) parse_rate_option(o.rate);  // for its warning about a likely slip
+  // A dataset's sources say each file's format; the checks of the other settings hold alike.
+  const derive_request request = derive_request_of(o, o.dataset.empty() ? o.path : "");
+  if (!o.dataset.empty()) return derive_dataset(o, request);
   if (o.path.empty()) throw usage_error("derive: name the signal file, or --dataset");
   if (o.output.empty()) throw usage_error("derive: name the output with -o");
   if (!o.output_dir.empty() || o.jobs || !o.shard.empty())
     throw usage_error("derive: -d, --jobs and --shard go with --dataset");
   const format& to = output_format(o.to, o.output);
-  std::optional<signal_format> from = !o.from.empty() ? named(signal_format_names, o.from)
-                                      : o.path == "-" ? signal_format::csv
-                                                      : signal_format_for_path(o.path);
-  if (!from)
-    throw usage_error("cannot tell the signal's format from '" + o.path +
-                      "'; name it with --from csv, tsv or jsonl");
-  write_output(derive_file(o, o.path, *from, so, d, d.source.agent.value_or("detector")), to,
-               o.output, o.allow_loss, display_name(o.path));
+  write_output(derive_file(o, o.path, request, request.derive.source.agent.value_or("detector")),
+               to, o.output, o.allow_loss, display_name(o.path));
   return exit_ok;
 }
 

@@ -6,18 +6,12 @@
 #include <string>
 
 #include "cli_common.hpp"
+#include "tiers/derive.hpp"
 
 namespace tiers::cli {
 
-struct derive_options_cli {
-  std::string path, output, to, from, rate, scores;
-  double on = 0.5;
-  std::optional<double> off;
-  std::string min_duration = "0", bridge = "0";
-  std::size_t smooth = 1;
-  std::string confidence = "mean";
-  std::string agent, agent_version;
-  std::string tier_name, label;  ///< `{score}` stands for the score column
+struct derive_options_cli : derive_settings {
+  std::string path, output, to;
   bool allow_loss = false;
   std::string dataset, output_dir;  ///< --dataset: each recording's signal sources derived
   unsigned jobs = 0;

@@ -51,17 +51,6 @@ void setup_edit(CLI::App& app, int& status) {
 
 namespace {
 
-time_ns time_option(const std::string& option, std::string_view text) {
-  const bool negative = !text.empty() && text[0] == '-';
-  const std::string_view body = negative ? text.substr(1) : text;
-  const parsed_time t =
-      body.find(':') != std::string_view::npos ? parse_clock(body) : parse_seconds(body);
-  if (!t || body.empty())
-    throw usage_error(option + ": '" + std::string(text) +
-                      "' is not a time (seconds, or clock time such as 00:01:30.5)");
-  return negative ? -t.value : t.value;
-}
-
 // Applies the operations in the order given; false (the reasons printed) when one is refused.
 bool edit_document(const edit_options& o, document& doc, const std::string& file) {
   std::map<const CLI::Option*, std::size_t> used;  // how many values of each option are done
@@ -78,7 +67,7 @@ bool edit_document(const edit_options& o, document& doc, const std::string& file
   };
   auto flush_selection = [&]() {
     if (selected.empty()) return false;
-    const bool bad = refused("--select", select_tiers(doc, selected));
+    const bool bad = refused("--select", apply_edit(doc, {"select", selected}));
     selected.clear();
     return bad;
   };
@@ -90,37 +79,18 @@ bool edit_document(const edit_options& o, document& doc, const std::string& file
       continue;
     }
     if (flush_selection()) return false;
-    std::vector<diagnostic> problems;
-    if (name == "--shift") {
-      problems =
-          shift_times(doc, parse_duration_option("--shift", o.shifts[k], duration_kind::offset,
-                                                 frame_rate_of(doc, o.input.rate)));
-    } else if (name == "--scale") {
-      const std::string& v = o.scales[k];
-      const std::size_t colon = v.find(':');
-      if (colon == std::string::npos)
-        throw usage_error("--scale: expected FROM:TO, got '" + v + "'");
-      problems = scale_times(doc, parse_rate_option(v.substr(0, colon)),
-                             parse_rate_option(v.substr(colon + 1)));
-    } else if (name == "--snap") {
-      problems = snap_times(doc, parse_rate_option(o.snaps[k]));
-    } else if (name == "--cut") {
-      const std::string& v = o.cuts[k];
-      const std::size_t dots = v.find("..");
-      if (dots == std::string::npos)
-        throw usage_error("--cut: expected START..END, got '" + v + "'");
-      problems = cut_times(doc, time_option("--cut", std::string_view(v).substr(0, dots)),
-                           time_option("--cut", std::string_view(v).substr(dots + 2)), o.from_zero);
-    } else if (name == "--drop") {
-      problems = drop_tier(doc, o.drops[k]);
-    } else if (name == "--rename") {
-      const std::string& v = o.renames[k];
-      const std::size_t eq = v.find('=');
-      if (eq == std::string::npos || eq == 0 || eq + 1 == v.size())
-        throw usage_error("--rename: expected OLD=NEW, got '" + v + "'");
-      problems = rename_tier(doc, v.substr(0, eq), v.substr(eq + 1));
-    }
-    if (refused(name, std::move(problems))) return false;
+    const std::vector<std::string>* values = name == "--shift"    ? &o.shifts
+                                             : name == "--scale"  ? &o.scales
+                                             : name == "--snap"   ? &o.snaps
+                                             : name == "--cut"    ? &o.cuts
+                                             : name == "--drop"   ? &o.drops
+                                             : name == "--rename" ? &o.renames
+                                                                  : nullptr;
+    if (!values) continue;  // not an operation
+    const std::string& value = (*values)[k];
+    if (name == "--snap") parse_rate_option(value);  // for its warning about a likely slip
+    const edit_step step{name.substr(2), {value}};
+    if (refused(name, apply_edit(doc, step, o.input.rate, o.from_zero))) return false;
   }
   return !flush_selection();
 }

@@ -3,7 +3,6 @@
 #include "merge_command.hpp"
 
 #include <algorithm>
-#include <filesystem>
 
 #include "dataset_inputs.hpp"
 #include "tiers/io.hpp"
@@ -69,99 +68,9 @@ void setup_merge(CLI::App& app, int& status) {
 
 namespace {
 
-namespace fs = std::filesystem;
-
-std::pair<std::string, std::string> split_pair(const std::string& option, const std::string& text) {
-  const std::size_t eq = text.rfind('=');
-  if (eq == std::string::npos || eq == 0 || eq + 1 == text.size())
-    throw usage_error(option + ": expected TIER=VALUE, got '" + text + "'");
-  return {text.substr(0, eq), text.substr(eq + 1)};
-}
-
-// The plan the options make. Durations in frames count at `rate` (the inputs' frame rate, else
-// --rate's); before the inputs are read, `rate` is null and such durations are only checked.
+// The plan the options make (merge_plan_of), its problems printed.
 merge_plan make_plan(const merge_options& o, const std::optional<rational>* rate) {
-  auto duration = [&](const char* option, const std::string& text, duration_kind kind) {
-    const duration_arg d = parse_duration_arg(option, text, kind);
-    return rate ? d.at(*rate) : d.in_frames() ? 0 : d.at(std::nullopt);
-  };
-  merge_plan plan;
-  if (!o.plan.empty()) {
-    const std::string text = read_input(o.plan);
-    plan = take(read_merge_plan(text, display_name(o.plan)));
-    report_all(place_plan_inputs(plan, display_name(o.plan)));
-  }
-  for (const std::string& p : o.paths)
-    plan.inputs.push_back(p);
-  if (!o.clash.empty()) plan.clash = named(clash_rule_names, o.clash);
-  const time_ns max_offset = o.max_offset.empty()
-                                 ? 10 * ns_per_second
-                                 : duration("--max-offset", o.max_offset, duration_kind::positive);
-  for (const std::string& s : o.shifts) {
-    auto [tier_name, offset] = split_pair("--shift", s);
-    shift_step step;
-    step.tier = tier_name;
-    step.by = duration("--shift", offset, duration_kind::offset);
-    plan.shifts.push_back(step);
-  }
-  for (const std::string& s : o.aligns) {
-    auto [tier_name, reference] = split_pair("--align", s);
-    shift_step step;
-    step.tier = tier_name;
-    step.align_to = reference;
-    step.max_offset = max_offset;
-    plan.shifts.push_back(step);
-  }
-  const bool combining = !o.into.empty() || !o.human.empty() || !o.machine.empty();
-  if (combining) {
-    if (o.into.empty() || o.human.empty() || o.machine.empty())
-      throw usage_error("combining needs --into, --human and --machine together");
-    combine_step c;
-    c.into = o.into;
-    c.human = o.human;
-    c.machine = o.machine;
-    if (!o.strategy.empty()) c.strategy = named(combine_strategy_names, o.strategy);
-    if (o.min_confidence == "from-estimate") {
-      c.confidence_from_estimate = true;
-    } else if (!o.min_confidence.empty()) {
-      char* end = nullptr;
-      c.min_confidence = std::strtod(o.min_confidence.c_str(), &end);
-      if (*end != '\0' || !(c.min_confidence >= 0 && c.min_confidence <= 1))
-        throw usage_error("--min-confidence: '" + o.min_confidence +
-                          "' is not a number from 0 to 1, or from-estimate");
-    }
-    if (!o.min_duration.empty())
-      c.min_duration = duration("--min-duration", o.min_duration, duration_kind::length);
-    if (!o.review.empty()) c.review = o.review;
-    if (!o.review_min.empty()) {
-      if (o.review.empty()) throw usage_error("--review-min goes with --review");
-      c.review_min = duration("--review-min", o.review_min, duration_kind::length);
-    }
-    plan.combine.push_back(c);
-  } else if (!o.strategy.empty() || !o.min_confidence.empty() || !o.min_duration.empty() ||
-             !o.review.empty() || !o.review_min.empty()) {
-    throw usage_error(
-        "--strategy, --min-confidence, --min-duration, --review and --review-min go with --into");
-  }
-  return plan;
-}
-
-// Each recording of a dataset merged by one plan: its files are the merge's inputs.
-// Whether a duration option counts frames, so that the plan depends on the inputs' rate.
-bool counts_frames(const merge_options& o) {
-  std::vector<std::string> given{o.max_offset, o.min_duration, o.review_min};
-  for (const std::string& s : o.shifts)
-    given.push_back(s.substr(s.rfind('=') + 1));
-  return std::any_of(given.begin(), given.end(),
-                     [](const std::string& d) { return !d.empty() && d.back() == 'f'; });
-}
-
-// The frame rate of the first input that has one, else --rate's.
-std::optional<rational> inputs_rate(const merge_options& o,
-                                    const std::vector<merge_input>& inputs) {
-  for (const merge_input& in : inputs)
-    if (in.doc.media.frame_rate) return in.doc.media.frame_rate;
-  return o.input.rate.empty() ? std::nullopt : std::optional(parse_rate_option(o.input.rate));
+  return take(merge_plan_of(o, rate));
 }
 
 int merge_dataset(const merge_options& o, const merge_plan& plan) {
@@ -177,10 +86,7 @@ int merge_dataset(const merge_options& o, const merge_plan& plan) {
         std::vector<diagnostic> problems = lacking_sources(d, r);
         problems.insert(problems.end(), parts.diagnostics.begin(), parts.diagnostics.end());
         report_all(std::move(problems));
-        const std::optional<rational> rate = inputs_rate(o, parts.parts);
-        const document merged = take(
-            merge_documents(std::move(parts.parts), counts_frames(o) ? make_plan(o, &rate) : plan),
-            r.id);
+        const document merged = take(merge_with(o, std::move(parts.parts), o.input.rate), r.id);
         write_output(merged, to, output, o.allow_loss, r.id);
       });
 }
@@ -220,9 +126,7 @@ int run_merge(const merge_options& o) {
     }
   }
   if (failed) return exit_rejected;
-  const std::optional<rational> rate = inputs_rate(o, inputs);
-  const document merged = take(
-      merge_documents(std::move(inputs), counts_frames(o) ? make_plan(o, &rate) : plan), "merge");
+  const document merged = take(merge_with(o, std::move(inputs), o.input.rate), "merge");
   write_output(merged, to, o.output, o.allow_loss, "merge");
   return exit_ok;
 }

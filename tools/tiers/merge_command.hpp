@@ -8,24 +8,18 @@
 #include <vector>
 
 #include "cli_common.hpp"
+#include "tiers/merge.hpp"
 
 namespace tiers::cli {
 
-struct merge_options {
-  input_options input;  ///< reading options for every input (path unused)
-  std::vector<std::string> paths;
+struct merge_options : merge_settings {
+  input_options input;     ///< reading options for every input (path unused)
   std::string dataset;     ///< a dataset description: each recording merged on its own
   std::string output_dir;  ///< with --dataset: a file per recording
   unsigned jobs = 0;
   std::string shard;
   std::string output;
   std::string to;
-  std::string plan;
-  std::string clash;
-  std::vector<std::string> shifts;  ///< TIER=OFFSET
-  std::vector<std::string> aligns;  ///< TIER=REFERENCE
-  std::string max_offset;
-  std::string into, human, machine, strategy, min_confidence, min_duration, review, review_min;
   bool print_plan = false;
   bool allow_loss = false;
 };

@@ -80,96 +80,26 @@ std::string text_report(const retime_result& r, const tier& before) {
              format_seconds(largest));
 }
 
-// Names the tier that is not there and the tiers that are, and the one option that picks it;
-// throws rejected.
-[[noreturn]] void missing_tier(const std::string& file, const document& doc,
-                               const std::string& name, const char* role, const char* option) {
-  diagnostic d;
-  d.file = file;
-  d.code = "retime.tier";
-  d.message =
-      "no tier " + quote_name(name) + " for " + role + " (" +
-      (doc.tiers.empty() ? std::string("the file has no tiers") : "its tiers: " + tier_names(doc)) +
-      "); name " + role + " with " + option;
-  report(d);
-  throw rejected();
-}
-
-struct retimed {
-  retime_result result;
-  tier before;
-};
-
 // Re-times the captions of `doc` in place onto the words (of `doc`, or of `other`, a words
-// file). Throws rejected, the reason printed, when a tier is not there.
-retimed retime_document(const retime_options_cli& o, const profile& p, document& doc,
-                        const std::string& file, const format& to,
-                        const std::optional<words_file>& other,
-                        std::optional<std::string> words_tier) {
-  std::string caption_name = !o.captions.empty() ? o.captions : p.captions.value_or("");
-  if (caption_name.empty()) {
-    if (doc.tiers.empty() ||
-        (doc.tiers.size() > 1 && !is_words_tier_of(doc.tiers[1], doc.tiers[0].name)))
-      throw usage_error(file + " has " + std::to_string(doc.tiers.size()) +
-                        " tiers; name the captions with --captions");
-    caption_name = doc.tiers.front().name;
+// file), printing what the library says; throws rejected when a tier is not there.
+retimed retime_in(const retime_options_cli& o, const profile& p, document& doc,
+                  const std::string& file, const format& to, const std::optional<words_file>& other,
+                  std::optional<std::string> words_tier) {
+  retime_settings settings = o;
+  settings.rate = o.input.rate;
+  retime_words words;
+  words.tier = other ? other->tier : std::move(words_tier);
+  if (other) {
+    words.doc = &other->doc;
+    words.file = display_name(other->path);
   }
-  tier* captions = find_tier(doc, caption_name);
-  const document& wdoc = other ? other->doc : doc;
-  if (other) words_tier = other->tier;
-  const tier* words = nullptr;
-  if (words_tier)
-    words = find_tier(wdoc, *words_tier);
-  else if (wdoc.tiers.size() == 1)
-    words = &wdoc.tiers.front();
-  else
-    words = find_tier(wdoc, "words");
-  if (!captions) missing_tier(file, doc, caption_name, "the caption tier", "--captions TIER");
-  if (!words)
-    missing_tier(other ? display_name(other->path) : file, wdoc, words_tier.value_or("words"),
-                 "the word tier", other ? "--words FILE:TIER" : "--words TIER");
-
-  retime_options ro;
-  const std::optional<rational> rate = frame_rate_of(doc, o.input.rate);
-  ro.lead_in = parse_duration_option("--lead-in", o.lead_in, duration_kind::length, rate);
-  ro.hold = parse_duration_option("--hold", o.hold, duration_kind::length, rate);
-  ro.min_gap = o.min_gap.empty()
-                   ? p.limits.min_gap.at(rate.value_or(p.limits.frame_rate))
-                   : parse_duration_option("--min-gap", o.min_gap, duration_kind::length, rate);
-  ro.min_duration = o.min_duration.empty() ? p.limits.min_duration
-                                           : parse_duration_option("--min-duration", o.min_duration,
-                                                                   duration_kind::length, rate);
-  ro.max_cps = o.max_cps                                   ? *o.max_cps
-               : p.level("caption.cps") == rule_level::off ? 0
-                                                           : p.limits.max_cps;
-  ro.window = p.limits.window;
-  ro.grid = to.time_grid;
-  retimed out{retime_captions(*captions, *words, ro), *captions};
-  // A cue that ends before it starts is a problem of the input, said where it is.
-  for (const cue_move& m : out.result.moves)
-    if (m.how == cue_move::basis::reversed) {
-      diagnostic d;
-      d.level = severity::warning;
-      d.file = file;
-      d.code = "retime.reversed";
-      const optional_text& id = out.before.annotations[m.cue].id;
-      d.message = "cue " + (id ? quote_name(*id) : std::to_string(m.cue + 1)) + " ends at " +
-                  format_clock(m.old_end) + ", before it starts at " + format_clock(m.old_start) +
-                  ": left as it was, not re-timed";
-      report(d);
-    }
-  // The output says how it was made, where its format can carry that.
-  if (to.carries.has(feature::metadata))
-    record_retime(doc, caption_name,
-                  other ? display_name(other->path) + ":" + words->name : words->name, ro,
-                  out.result);
-  else
+  const bool record = to.carries.has(feature::metadata);
+  retimed out = take(retime_document(doc, file, p, settings, words, to.time_grid, record));
+  if (!record)
     std::fprintf(stderr,
                  "tiers: note: %s cannot carry document metadata: how the captions were "
                  "re-timed is in the report only\n",
                  std::string(to.name).c_str());
-  *captions = out.result.captions;
-  move_children(doc, caption_name, out.result);
   return out;
 }
 
@@ -183,7 +113,7 @@ int retime_dataset(const retime_options_cli& o, const profile& p) {
   const int status = for_each_output(
       d, o.output_dir, to, o.jobs, "re-timing", [&](const recording& r, const std::string& out) {
         document doc = load_recording(d, r);
-        const retimed t = retime_document(o, p, doc, r.id, to, std::nullopt, o.words);
+        const retimed t = retime_in(o, p, doc, r.id, to, std::nullopt, o.words);
         write_output(doc, to, out, o.allow_loss, r.id);
         reports[static_cast<std::size_t>(&r - d.recordings.data())] =
             o.json ? retime_report_json(t.result, t.before)
@@ -217,7 +147,7 @@ int run_retime(const retime_options_cli& o) {
   const std::string file = display_name(o.input.path);
   std::optional<std::string> words_tier;
   const std::optional<words_file> other = words_file_of(o.words, o.input, words_tier);
-  const retimed t = retime_document(o, p, doc, file, to, other, words_tier);
+  const retimed t = retime_in(o, p, doc, file, to, other, words_tier);
   write_output(doc, to, o.output, o.allow_loss, file, {}, given_name);
 
   const std::string report_text = o.json ? retime_report_json(t.result, t.before)

@@ -7,17 +7,16 @@
 #include <string>
 
 #include "cli_common.hpp"
+#include "tiers/retime.hpp"
 
 namespace tiers::cli {
 
-struct retime_options_cli {
+struct retime_options_cli : retime_settings {
   input_options input;
   std::string dataset, output_dir;  ///< --dataset: each recording re-timed, into -d
   unsigned jobs = 0;
   std::string shard;
-  std::string output, to, captions, words, profile;
-  std::string lead_in = "0", hold = "0", min_gap, min_duration;
-  std::optional<double> max_cps;  ///< the reading speed to meet; default: the profile's
+  std::string output, to, words, profile;
   bool json = false;
   bool allow_loss = false;
 };

@@ -226,4 +226,45 @@ void write_cooccur_json(const std::vector<pair_statistics>& table, std::uint64_t
                         const std::string& a_tier, const std::string& b_tier,
                         const cooccur_options& options, byte_sink& out);
 
+/// A co-occurrence analysis as options give it (`tiers cooccur`, Python's tiers.cooccur).
+struct cooccur_settings {
+  std::string a, b;  ///< the tiers
+  std::string relation = "overlap";
+  std::string window = "0";  ///< `0.5s`, `250ms`, or `12f` at each document's rate
+  bool fold_case = false;
+  std::string b_labels;  ///< the labels of B that count, comma-separated; empty: all
+  std::uint64_t min_count = 1;
+  std::string sort = "g2";
+  std::uint32_t permutations = 0;  ///< the permutation test's shifts; 0: none
+  std::uint64_t seed = 1;
+};
+
+/// The library's options for the settings, but the window, which each document reads at its
+/// own frame rate; throws usage_error on a bad value.
+cooccur_options cooccur_options_of(const cooccur_settings& settings);
+
+/// One document counted (called `name`): its counts, and with `keep` its two tiers for a
+/// second look (the permutation test, the concordance) in `recording`, whose tier pointers
+/// are set when the run gathers the documents.
+struct counted_document {
+  cooccur_counts counts;
+  std::optional<tier> a, b;
+  cooccur_recording recording;
+};
+/// A tier that is not there is an error (`cooccur.tier`, naming the tiers there are). The
+/// window counts frames at the document's rate, else at `rate_setting`.
+result<counted_document> count_document(const document& doc, const std::string& name,
+                                        const cooccur_settings& settings,
+                                        const std::string& rate_setting = {}, bool keep = false);
+
+/// The documents' counts added up into `all`; `recordings` get the documents' kept tiers,
+/// which they point into.
+void gather_counts(std::vector<counted_document>& each, cooccur_counts& all,
+                   std::vector<cooccur_recording>& recordings);
+
+/// gather_counts, then the table of pairs, permutation-tested when the settings ask.
+std::vector<pair_statistics> cooccur_run(std::vector<counted_document>& each,
+                                         const cooccur_settings& settings, cooccur_counts& all,
+                                         std::vector<cooccur_recording>& recordings);
+
 }  // namespace tiers

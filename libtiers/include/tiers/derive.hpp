@@ -71,4 +71,37 @@ document derive_tiers(const signal& s, const derive_options& options);
 /// `pattern` with every `{score}` replaced by `score`; `score` itself when `pattern` is empty.
 std::string derived_name(const std::string& pattern, const std::string& score);
 
+/// How scores become tiers, as options give them (`tiers derive`, Python's tiers.derive);
+/// durations as `0.5s`, `250ms` or `5f` (frames at the signal's rate).
+struct derive_settings {
+  std::string from;    ///< csv, tsv or jsonl; empty: by the path's extension (stdin: csv)
+  std::string rate;    ///< frames per second of a `frame` column
+  std::string scores;  ///< the score columns, comma-separated; empty: all
+  double on = 0.5;
+  std::optional<double> off;
+  std::size_t smooth = 1;
+  std::string min_duration = "0", bridge = "0";
+  std::string confidence = "mean";  ///< or max
+  std::string agent;                ///< the detector; empty: the file's stem, else "detector"
+  std::string agent_version;
+  std::string tier_name, label;  ///< `{score}` stands for the score column
+};
+
+/// The settings checked, for the signal at `path`: how to read it and how to derive its
+/// tiers. The bridge and minimum duration stay as given until the signal's rate is known.
+struct derive_request {
+  signal_format format = signal_format::csv;
+  signal_options reading;
+  derive_options derive;
+  std::string bridge, min_duration;
+};
+/// Throws usage_error on a bad value (an `off` above `on`, an even `smooth`, a format that
+/// neither `from` nor the path tells).
+derive_request derive_request_of(const derive_settings& settings, const std::string& path);
+
+/// The tiers derived from the signal table `text`, read from `file` (its problems located
+/// there): derive_tiers with the bridge and minimum duration at the signal's rate.
+result<document> derive_signal(std::string_view text, const std::string& file,
+                               const derive_request& request);
+
 }  // namespace tiers

@@ -42,4 +42,20 @@ namespace tiers {
 [[nodiscard]] std::vector<diagnostic> rename_tier(document& doc, const std::string& from,
                                                   const std::string& to);
 
+/// One operation as options give it (`tiers edit --shift -0.48s`, Python's tiers.edit):
+/// `shift` (an offset: `-0.48s`, `2f`), `scale` (`FROM:TO` frame rates), `snap` (a rate),
+/// `cut` (`START..END`, seconds or clock times), `drop` (a tier), `rename` (`OLD=NEW`), or
+/// `select` (the tiers to keep: every value given together).
+struct edit_step {
+  std::string operation;
+  std::vector<std::string> values;  ///< one, but for `select`
+};
+
+/// Applies `step` to `doc` as the operation above does; a frame offset counts at the
+/// document's rate, else at `rate_setting`; a cut with `from_zero` starts the document at the
+/// cut. Throws usage_error on a malformed value or an unknown operation.
+[[nodiscard]] std::vector<diagnostic> apply_edit(document& doc, const edit_step& step,
+                                                 const std::string& rate_setting = {},
+                                                 bool from_zero = false);
+
 }  // namespace tiers

@@ -103,7 +103,8 @@ struct input_file {
 std::vector<input_file> expand_inputs(const std::vector<std::string>& paths);
 
 /// Calls `work(k)` for k in [0, count) on `jobs` threads (0: one per core), counting each
-/// finished call in `done`, when given, for a progress display.
+/// finished call in `done`, when given, for a progress display. When a call throws, no further
+/// call starts, and the first exception is thrown again here once the calls running are done.
 void run_parallel(std::size_t count, unsigned jobs, const std::function<void(std::size_t)>& work,
                   std::atomic<std::size_t>* done = nullptr);
 

@@ -127,4 +127,30 @@ struct merge_input {
 using merge_result = result<document>;
 merge_result merge_documents(std::vector<merge_input> inputs, const merge_plan& plan);
 
+/// A merge as options give it (`tiers merge`, Python's tiers.merge): shorthand for a plan,
+/// after the plan file's own steps. Durations as `0.5s`, `250ms` or `2f` (frames at the
+/// inputs' rate).
+struct merge_settings {
+  std::string plan;                  ///< a plan file, whose inputs come first
+  std::vector<std::string> paths;    ///< more inputs
+  std::string clash;                 ///< fail, prefix-file or prefix-source
+  std::vector<std::string> shifts;   ///< TIER=OFFSET
+  std::vector<std::string> aligns;   ///< TIER=REFERENCE
+  std::string max_offset;            ///< how far an alignment looks (default 10 s)
+  std::string into, human, machine;  ///< a combination, all three or none
+  std::string strategy, min_confidence, min_duration, review, review_min;
+};
+
+/// The plan the settings make: the plan file's (read, its inputs placed), then the settings'.
+/// Durations in frames count at `*rate` (the inputs' rate); without `rate`, before the inputs
+/// are read, they are only checked. The plan file's problems are the result's; a bad value
+/// throws usage_error.
+result<merge_plan> merge_plan_of(const merge_settings& settings,
+                                 const std::optional<rational>* rate = nullptr);
+
+/// Merges `inputs` as the settings say: the plan made again at the inputs' frame rate (the
+/// first input's that has one, else `rate_setting`) when a duration counts frames.
+merge_result merge_with(const merge_settings& settings, std::vector<merge_input> inputs,
+                        const std::string& rate_setting = {});
+
 }  // namespace tiers

@@ -4,11 +4,14 @@
 #pragma once
 
 #include <cstddef>
+#include <optional>
 #include <string>
 #include <vector>
 
+#include "tiers/diagnostic.hpp"
 #include "tiers/lag.hpp"
 #include "tiers/model.hpp"
+#include "tiers/profile.hpp"
 
 namespace tiers {
 
@@ -84,5 +87,40 @@ void record_retime(document& doc, const std::string& captions, const std::string
 /// timestamps) along with their cues: an annotation inside a cue's old span moves by the cue's
 /// start shift, kept inside the cue's new span.
 void move_children(document& doc, const std::string& captions, const retime_result& r);
+
+/// How a document's captions are re-timed, as options give them (`tiers retime`, Python's
+/// tiers.retime): durations as `0.5s`, `250ms` or `2f`; what is not given comes from the
+/// profile's caption rules.
+struct retime_settings {
+  std::string captions;  ///< the caption tier; empty: the profile's, else the first tier
+  std::string lead_in = "0", hold = "0";
+  std::string min_gap, min_duration;  ///< empty: the profile's
+  std::optional<double> max_cps;      ///< empty: the profile's (0 when it turns caption.cps off)
+  std::string rate;  ///< frames count at the document's rate, else at this one (--rate)
+};
+
+/// Where the word timings are: a tier of the document itself (`doc` null; `tier` its name,
+/// else the only tier, else "words"), or a tier of another document read from `file`.
+struct retime_words {
+  const document* doc = nullptr;
+  std::string file;
+  std::optional<std::string> tier;
+};
+
+/// A re-timing done: what moved, and the caption tier as it was (for the cues' ids).
+struct retimed {
+  retime_result result;
+  tier before;
+};
+
+/// Re-times the caption tier of `doc` (read from `file`) in place onto the words, as
+/// retime_captions does with the settings and the profile's rules; its child tiers move along
+/// (move_children). New times lie on `grid` (the output format's); with `record`, the document's
+/// metadata says how it was re-timed (record_retime). A tier that is not there is an error
+/// (`retime.tier`, naming the tiers there are); a cue that ends before it starts a warning
+/// (`retime.reversed`). Throws usage_error on bad settings.
+result<retimed> retime_document(document& doc, const std::string& file, const profile& p,
+                                const retime_settings& settings, const retime_words& words,
+                                rational grid = {ns_per_second, 1}, bool record = true);
 
 }  // namespace tiers

@@ -1,6 +1,8 @@
 // The files of the folders named, and work on many of them at once.
 #include <algorithm>
+#include <exception>
 #include <filesystem>
+#include <mutex>
 #include <thread>
 #include <unordered_set>
 
@@ -47,9 +49,20 @@ std::vector<input_file> expand_inputs(const std::vector<std::string>& paths) {
 void run_parallel(std::size_t count, unsigned jobs, const std::function<void(std::size_t)>& work,
                   std::atomic<std::size_t>* done) {
   std::atomic<std::size_t> next{0};
+  // What a call throws (a usage error found only once a document is read, say) must not end
+  // the process from a worker thread: the first is kept, no further work is handed out, and it
+  // is thrown again on the calling thread once every worker has stopped.
+  std::mutex guard;
+  std::exception_ptr failure;
   auto worker = [&] {
     for (std::size_t k; (k = next.fetch_add(1)) < count;) {
-      work(k);
+      try {
+        work(k);
+      } catch (...) {
+        const std::lock_guard<std::mutex> lock(guard);
+        if (!failure) failure = std::current_exception();
+        next = count;
+      }
       if (done) done->fetch_add(1);
     }
   };
@@ -61,6 +74,7 @@ void run_parallel(std::size_t count, unsigned jobs, const std::function<void(std
   worker();
   for (std::thread& t : pool)
     t.join();
+  if (failure) std::rethrow_exception(failure);
 }
 
 }  // namespace tiers
