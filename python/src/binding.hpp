@@ -10,6 +10,7 @@
 #include "tiers/diagnostic.hpp"
 #include "tiers/format.hpp"
 #include "tiers/inputs.hpp"
+#include "tiers/model.hpp"
 
 namespace tiers::python {
 
@@ -23,6 +24,7 @@ void bind_check(py::module_& m);      ///< check
 void bind_agree(py::module_& m);      ///< agree
 void bind_documents(py::module_& m);  ///< retime, edit, derive, merge
 void bind_cooccur(py::module_& m);    ///< cooccur
+void bind_dataset(py::module_& m);    ///< dataset, read_recording
 
 /// Raises `tiers.errors.KIND(message, diagnostics)` (with `losses` for LossError) as the
 /// pending Python exception and throws error_already_set.
@@ -43,6 +45,16 @@ reading_settings settings_of(std::optional<std::string> format, const py::kwargs
 /// The document read, its warnings issued as TiersWarning; ReadError with every diagnostic
 /// when it has errors.
 document take_document(read_result&& result);
+
+/// One input of an operation over many documents: a file (`doc` null; folders are expanded
+/// into their files) or a Document given as such or as a (name, Document) pair. `name` is what
+/// reports and seeds call it: the path as the command line names it, the pair's name, else
+/// `document-K` (K counting the arguments from 1).
+struct named_input {
+  std::string name, path;
+  const document* doc = nullptr;
+};
+std::vector<named_input> inputs_of(const std::vector<py::object>& given);
 
 /// The whole file at `path`; ReadError (io.open, io.read) when it cannot be read.
 std::string read_file(const std::string& path);

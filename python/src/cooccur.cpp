@@ -13,43 +13,25 @@ std::string cooccur_json(const std::vector<py::object>& given, const cooccur_set
                          unsigned jobs, const py::kwargs& reading) {
   const reading_settings in = settings_of(std::nullopt, reading);
   const cooccur_options options = cooccur_options_of(settings);
-  // Documents given as such are counted as they are; paths (folders searched) are read on
-  // threads, each named as the command line names it.
-  std::vector<std::string> names, paths;
-  std::vector<const document*> documents;
-  for (std::size_t k = 0; k < given.size(); ++k) {
-    if (py::isinstance<document>(given[k])) {
-      names.push_back("document-" + std::to_string(k + 1));
-      documents.push_back(&py::cast<const document&>(given[k]));
-      continue;
-    }
-    for (input_file& f : expand_inputs({path_text(given[k])})) {
-      names.push_back(display_name(f.path));
-      paths.push_back(std::move(f.path));
-      documents.push_back(nullptr);
-    }
-  }
-  if (names.empty()) raise("UsageError", "cooccur: the inputs hold no file to count", {});
+  const std::vector<named_input> inputs = inputs_of(given);
+  if (inputs.empty()) raise("UsageError", "cooccur: the inputs hold no file to count", {});
   const bool keep = settings.permutations > 0;
-  std::vector<result<counted_document>> each(names.size());
+  std::vector<result<counted_document>> each(inputs.size());
   {
     py::gil_scoped_release unlocked;
-    std::size_t next_path = 0;
-    std::vector<std::size_t> path_of(names.size());
-    for (std::size_t k = 0; k < names.size(); ++k)
-      path_of[k] = documents[k] ? 0 : next_path++;
-    run_parallel(names.size(), jobs, [&](std::size_t k) {
-      if (documents[k]) {
-        each[k] = count_document(*documents[k], names[k], settings, in.rate, keep);
+    run_parallel(inputs.size(), jobs, [&](std::size_t k) {
+      const named_input& input = inputs[k];
+      if (input.doc) {
+        each[k] = count_document(*input.doc, input.name, settings, in.rate, keep);
         return;
       }
       try {
-        read_result r = read_input_file(paths[path_of[k]], in);
+        read_result r = read_input_file(input.path, in);
         if (!r.ok()) {
           each[k].diagnostics = std::move(r.diagnostics);
           return;
         }
-        each[k] = count_document(r.value, names[k], settings, in.rate, keep);
+        each[k] = count_document(r.value, input.name, settings, in.rate, keep);
       } catch (const error& e) {
         each[k].diagnostics = {e.diag()};
       }

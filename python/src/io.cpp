@@ -79,6 +79,25 @@ reading_settings settings_of(std::optional<std::string> format, const py::kwargs
   return r;
 }
 
+std::vector<named_input> inputs_of(const std::vector<py::object>& given) {
+  std::vector<named_input> out;
+  for (std::size_t k = 0; k < given.size(); ++k) {
+    const py::object& g = given[k];
+    if (py::isinstance<document>(g)) {
+      const std::string name = "document-" + std::to_string(k + 1);
+      out.push_back({name, name, &py::cast<const document&>(g)});
+    } else if (py::isinstance<py::tuple>(g) && py::len(g) == 2 &&
+               py::isinstance<document>(g[py::int_(1)])) {
+      const std::string name = py::str(g[py::int_(0)]);
+      out.push_back({name, name, &py::cast<const document&>(g[py::int_(1)])});
+    } else {
+      for (input_file& f : expand_inputs({path_text(g)}))
+        out.push_back({display_name(f.path), std::move(f.path), nullptr});
+    }
+  }
+  return out;
+}
+
 void raise_errors(const std::vector<diagnostic>& diagnostics) {
   const auto first = std::find_if(diagnostics.begin(), diagnostics.end(),
                                   [](const diagnostic& d) { return d.level == severity::error; });

@@ -40,6 +40,7 @@ PYBIND11_MODULE(_tiers, m) {
   tiers::python::bind_agree(m);
   tiers::python::bind_documents(m);
   tiers::python::bind_cooccur(m);
+  tiers::python::bind_dataset(m);
   // Bad option values the library finds (an unknown format, a malformed duration) are
   // UsageErrors; a file it cannot open is a ReadError.
   py::register_exception_translator([](std::exception_ptr p) {

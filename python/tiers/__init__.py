@@ -18,13 +18,13 @@ from ._tiers import (Annotation, AnnotationList, Attributes, Diagnostic, Documen
 from . import _tiers
 from .errors import (EditError, Error, LossError, MergeError, ReadError, TiersWarning,
                      UsageError, WriteError)
-from .reports import CheckReport, Report, Rows, check_report_of, report_of
+from .reports import CheckReport, Report, Rows, Sample, check_report_of, report_of
 
 __all__ = ["Annotation", "AnnotationList", "Attributes", "CheckReport", "Diagnostic",
            "Document", "EditError", "Error",
            "LossError", "Media", "MergeError", "ParentLink", "ReadError", "Source", "Tier", "TierList",
-           "Report", "Rows", "TiersWarning", "UsageError", "WriteError", "__version__",
-           "agree", "check", "cooccur", "derive", "dumps", "edit", "estimate", "merge", "retime", "formats", "from_pandas", "loads", "read", "write"]
+           "Report", "Rows", "Sample", "TiersWarning", "UsageError", "WriteError", "__version__",
+           "agree", "check", "cooccur", "dataset", "derive", "dumps", "edit", "estimate", "merge", "read_recording", "retime", "sample", "formats", "from_pandas", "loads", "read", "write"]
 
 
 def from_pandas(df, *, columns=None, tier_name="tier", time_unit=None, rate=None,
@@ -220,3 +220,57 @@ def cooccur(inputs, a, b, *, relation="overlap", window="0", fold_case=False, mi
     return report_of(_tiers._cooccur_json(given, a, b, relation, str(window), fold_case,
                                           min_count, b_labels or "", sort, permutations, seed,
                                           jobs, **reading_options))
+
+
+def sample(inputs, tier, n=0, *, seed=1, strata=None, by=None, allocation="proportional",
+           context="0", plan=False, margin=0.05, level=0.95, review_rate=250, output=None,
+           jobs=0, **reading_options):
+    """sample(inputs, tier, n=0, *, seed=1, strata=None, by=None, allocation='proportional',
+    context='0', plan=False, margin=0.05, level=0.95, review_rate=250, output=None, jobs=0,
+    **reading_options) -> Sample or Report
+
+    A stratified random sample of a machine tier's annotations for review, as `tiers sample`
+    draws it (docs/review.md): `n` clips from the tier `tier` of every input (paths, folders,
+    Documents), in strata of confidence (`strata`: limits such as [0.5, 0.7, 0.9]), of label
+    or of file (`by`), shared out by `allocation`; the same seed, the same sample. The Sample
+    holds the sheet's rows and its CSV; with `output`, it is written there, its media links
+    relative to that folder. With plan=True, no draw: the sizes for a margin of error (a
+    Report with the fields of `tiers sample --plan --json`).
+    """
+    import os
+    given = [inputs] if isinstance(inputs, (str, bytes, os.PathLike, Document)) else list(inputs)
+    if strata is not None and not isinstance(strata, str):
+        strata = ",".join(str(v) for v in strata)
+    folder = os.path.dirname(os.fspath(output)) or "." if output is not None else "."
+    text, rows = _tiers._sample(given, tier, n, seed, strata or "", by or "", allocation,
+                                str(context), plan, margin, level, review_rate, folder, jobs,
+                                **reading_options)
+    if plan:
+        return report_of(text)
+    drawn = Sample(text, rows)
+    if output is not None:
+        drawn.write(output)
+    return drawn
+
+
+def dataset(description, *, jobs=0, **reading_options):
+    """dataset(description, *, jobs=0, **reading_options) -> Report
+
+    A dataset description's recordings, as `tiers dataset --json` lists them (docs/dataset.md):
+    `sources` (each pattern, and how many recordings have a file for it), `complete`, and
+    `recordings` (each with its files — None where it lacks one —, the patterns it lacks, and,
+    when it could be read, its tiers, annotations and duration; `report.to_pandas
+    ("recordings")`). The reading options are the run's, which each source's `read` overrides.
+    A bad description raises ReadError with its located diagnostics.
+    """
+    return report_of(_tiers._dataset_json(description, jobs, **reading_options))
+
+
+def read_recording(description, id, **reading_options):
+    """read_recording(description, id, **reading_options) -> Document
+
+    One recording of a dataset description read as every `--dataset` run reads it: each of its
+    files with its source's reading settings and the tiers' source and kind, joined into one
+    document. A file it lacks, or one that cannot be read, raises ReadError.
+    """
+    return _tiers._read_recording(description, id, **reading_options)

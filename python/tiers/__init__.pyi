@@ -184,3 +184,16 @@ def cooccur(inputs: Union[PathLike, Document, Sequence[Union[PathLike, Document]
             min_count: int = 1, b_labels: Union[str, Sequence[str], None] = None,
             sort: str = "g2", permutations: int = 0, seed: int = 1, jobs: int = 0,
             **reading_options: Any) -> Report: ...
+class Sample(Rows):
+    text: str
+    strata: Rows
+    def write(self, path: PathLike) -> None: ...
+
+def sample(inputs: Union[PathLike, Document, Sequence[Union[PathLike, Document]]], tier: str,
+           n: int = 0, *, seed: int = 1, strata: Union[str, Sequence[float], None] = None,
+           by: Optional[str] = None, allocation: str = "proportional", context: str = "0",
+           plan: bool = False, margin: float = 0.05, level: float = 0.95,
+           review_rate: float = 250, output: Optional[PathLike] = None, jobs: int = 0,
+           **reading_options: Any) -> Union[Sample, Report]: ...
+def dataset(description: PathLike, *, jobs: int = 0, **reading_options: Any) -> Report: ...
+def read_recording(description: PathLike, id: str, **reading_options: Any) -> Document: ...

@@ -81,3 +81,25 @@ class CheckReport(Report):
         s = self["summary"]
         return (f"CheckReport({s['files']} files: {s['errors']} errors, {s['warnings']} "
                 f"warnings, {s['notes']} notes)")
+
+
+class Sample(Rows):
+    """A review sample: the rows of the sheet `tiers sample` writes (every field a string, as in
+    the CSV), `strata` (each stratum's annotations and how many were drawn), and `text`, the
+    sheet's CSV byte for byte."""
+
+    def __init__(self, text, strata):
+        import csv
+        import io
+        super().__init__(csv.DictReader(io.StringIO(text, newline="")))
+        self.text = text
+        self.strata = Rows(strata)
+
+    def write(self, path):
+        """Writes the sheet (its media links are relative to the folder `tiers.sample` was
+        told, `output`'s)."""
+        with open(path, "w", encoding="utf-8", newline="") as f:
+            f.write(self.text)
+
+    def __repr__(self):
+        return f"Sample({len(self)} clips from {len(self.strata)} strata)"

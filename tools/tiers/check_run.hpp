@@ -9,6 +9,7 @@
 
 #include "cli_common.hpp"
 #include "tiers/check.hpp"
+#include "tiers/recordings.hpp"
 
 namespace tiers::cli {
 
@@ -35,8 +36,6 @@ struct check_options {
 
 /// The profile named by --profile (a built-in name or a file); the defaults for none.
 profile load_check_profile(const std::string& name);
-
-struct opened_dataset;
 
 /// What checking the inputs of `options` found, shared by `check` and `report`.
 struct check_run {

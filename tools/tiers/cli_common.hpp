@@ -95,11 +95,6 @@ std::optional<words_file> words_file_of(const std::string& spec, const input_opt
 /// overlap, whatever order they were named in. Throws usage_error on a bad spec.
 std::vector<std::string> shard_of(std::vector<std::string> files, const std::string& spec);
 
-/// The same shard as places in `files` (in the shard's order), for reports that record where
-/// each file stood in the whole list.
-std::vector<std::size_t> shard_places(const std::vector<std::string>& files,
-                                      const std::string& spec);
-
 /// An option check that accepts exactly the names of a library's table (e.g. clash_rule_names).
 template <class E, std::size_t N>
 CLI::IsMember one_of(const enum_name<E> (&table)[N]) {

@@ -17,12 +17,6 @@
 
 namespace tiers::cli {
 
-void check_level(const char* option, double level) {
-  if (!(level > 0 && level < 1))
-    throw usage_error(
-        fmt::format("{}: {} is not a confidence level between 0 and 1 (0.95)", option, level));
-}
-
 void setup_sample(CLI::App& app, int& status) {
   auto options = std::make_shared<sample_options_cli>();
   sample_options_cli& o = *options;
@@ -74,41 +68,6 @@ void setup_sample(CLI::App& app, int& status) {
 namespace {
 
 namespace fs = std::filesystem;
-
-std::vector<double> parse_limits(const std::string& text) {
-  std::vector<double> out;
-  for (std::size_t from = 0; from <= text.size();) {
-    const std::size_t comma = std::min(text.find(',', from), text.size());
-    const std::string part = text.substr(from, comma - from);
-    char* end = nullptr;
-    const double v = std::strtod(part.c_str(), &end);
-    if (part.empty() || *end != '\0' || !(v > 0 && v < 1))
-      throw usage_error("--strata: '" + part + "' is not a confidence limit between 0 and 1");
-    if (!out.empty() && v <= out.back()) throw usage_error("--strata: the limits go up: " + text);
-    out.push_back(v);
-    from = comma + 1;
-  }
-  return out;
-}
-
-sample_options library_options(const sample_options_cli& o) {
-  sample_options l;
-  l.tier = o.tier;
-  l.n = o.n;
-  l.seed = o.seed;
-  l.share = named(allocation_names, o.allocation);
-  if (!o.strata.empty()) {
-    if (!o.by.empty() && o.by != "confidence")
-      throw usage_error("sample: --strata sets confidence bands; it does not go with --by " + o.by);
-    l.by = stratify_by::confidence;
-    l.bands = parse_limits(o.strata);
-  } else if (o.by == "confidence") {
-    throw usage_error("sample --by confidence: give the bands' limits with --strata 0.5,0.7,0.9");
-  } else if (!o.by.empty()) {
-    l.by = named(stratify_by_names, o.by);
-  }
-  return l;
-}
 
 std::string folder_of(const std::string& output) {
   if (output.empty() || output == "-") return ".";
@@ -166,32 +125,6 @@ void print_drawn(const sampler& s, const std::vector<sample_row>& rows, const st
   std::fputs(escape_controls(text, true).c_str(), stderr);
 }
 
-// A stratum with annotations but no clip drawn is absent from the sheet: the estimate cannot
-// see it and would speak for the other strata only. Said, with what to do.
-void warn_undrawn(const std::vector<stratum_count>& strata) {
-  std::vector<std::string> names;
-  std::uint64_t annotations = 0;
-  for (const stratum_count& c : strata)
-    if (c.size > 0 && c.drawn == 0) {
-      names.push_back(quote_name(c.name));
-      annotations += c.size;
-    }
-  if (names.empty()) return;
-  diagnostic d;
-  d.level = severity::warning;
-  d.code = "sample.strata";
-  std::string listed;
-  for (std::size_t k = 0; k < names.size() && k < 5; ++k)
-    listed += (k ? ", " : "") + names[k];
-  if (names.size() > 5) listed += fmt::format(" and {} more", names.size() - 5);
-  d.message = fmt::format(
-      "{} strat{} ({} annotation{}) got no clip, so an estimate from this sheet leaves {} out: "
-      "{}; draw more (--n), fewer strata, or --allocation equal",
-      names.size(), names.size() == 1 ? "um" : "a", annotations, annotations == 1 ? "" : "s",
-      names.size() == 1 ? "it" : "them", listed);
-  report(d);
-}
-
 }  // namespace
 
 int run_sample(const sample_options_cli& o) {
@@ -206,34 +139,18 @@ int run_sample(const sample_options_cli& o) {
       throw usage_error("sample writes its sheet as CSV; --format goes with --plan");
     if (o.out.json) throw usage_error("sample writes its sheet as CSV; --json goes with --plan");
   }
-  parse_duration_arg("--context", o.context);
-  const sample_options l = library_options(o);
+  const sample_options l = sample_options_of(o);
   const std::string sheet_folder = folder_of(o.out.output), page_folder = folder_of(o.page);
 
   sampler all(l);
   std::mutex adding;
   std::size_t without_media = 0;
   auto add = [&](const document& doc, const std::string& file, const std::string& path) {
-    const tier* t = find_tier(doc, o.tier);
-    if (!t) {
-      diagnostic d;
-      d.file = file;
-      d.code = "sample.tier";
-      d.message = "no tier " + quote_name(o.tier) + " (its tiers: " + tier_names(doc) + ")";
-      report(d);
-      throw rejected();
-    }
-    sample_options here = l;
-    here.context = parse_duration_option("--context", o.context, duration_kind::length,
-                                         frame_rate_of(doc, o.input.rate));
-    const std::string uri = doc.media.uri.value_or("");
-    const media_place media{media_from(uri, path, sheet_folder),
-                            media_from(uri, path, page_folder)};
-    sampler part(here);
-    part.add(file, *t, media);
+    sampler part =
+        take(sample_document(doc, file, path, o, sheet_folder, page_folder, o.input.rate));
     const std::lock_guard<std::mutex> lock(adding);
     all.add(std::move(part));
-    if (uri.empty()) ++without_media;
+    if (doc.media.uri.value_or("").empty()) ++without_media;
   };
   int status = exit_ok;
   if (!o.dataset.empty()) {
@@ -263,16 +180,8 @@ int run_sample(const sample_options_cli& o) {
     return exit_ok;
   }
   const std::vector<sample_row> rows = all.draw();
-  if (without_media > 0) {
-    diagnostic d;
-    d.level = severity::warning;
-    d.code = "sample.media";
-    d.message = fmt::format(
-        "{} of the inputs name{} no media: {} clips' links hold only "
-        "their times",
-        without_media, without_media == 1 ? "s" : "", without_media == 1 ? "its" : "their");
+  for (const diagnostic& d : sample_warnings({}, without_media))
     report(d);
-  }
   const std::string sheet = written([&](byte_sink& out) { write_review_sheet(rows, out); });
   std::string page;
   if (!o.page.empty()) {
@@ -294,7 +203,8 @@ int run_sample(const sample_options_cli& o) {
   emit(o.out, sheet);
   if (page_file) page_file->commit();
   print_drawn(all, rows, o.tier);
-  warn_undrawn(all.strata());
+  for (const diagnostic& d : sample_warnings(all.strata(), 0))
+    report(d);
   return exit_ok;
 }
 

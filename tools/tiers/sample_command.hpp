@@ -9,21 +9,15 @@
 
 #include "cli_common.hpp"
 #include "table_output.hpp"
+#include "tiers/review.hpp"
 
 namespace tiers::cli {
 
-struct sample_options_cli {
+struct sample_options_cli : sample_settings {
   input_options input;
   std::vector<std::string> paths;
   std::string dataset;
   unsigned jobs = 0;
-  std::string tier;
-  std::uint64_t n = 0;
-  std::uint64_t seed = 1;
-  std::string strata;  ///< confidence limits: 0.5,0.7,0.9
-  std::string by;      ///< confidence, label or file
-  std::string allocation = "proportional";
-  std::string context = "0";
   std::string page;
   std::string title;
   bool plan = false;
@@ -35,8 +29,5 @@ struct sample_options_cli {
 
 void setup_sample(CLI::App& app, int& status);
 int run_sample(const sample_options_cli& options);
-
-/// A confidence level from (0, 1), or usage_error naming `option`.
-void check_level(const char* option, double level);
 
 }  // namespace tiers::cli

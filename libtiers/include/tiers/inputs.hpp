@@ -102,6 +102,12 @@ struct input_file {
 /// twice is taken once.
 std::vector<input_file> expand_inputs(const std::vector<std::string>& paths);
 
+/// The places in `files` of shard `spec` ("K/N", K from 1 to N): the list sorted, every Nth
+/// file from the Kth, so that N workers given 1/N … N/N share the files without overlap,
+/// whatever order they were named in. Throws usage_error on a bad spec.
+std::vector<std::size_t> shard_places(const std::vector<std::string>& files,
+                                      const std::string& spec);
+
 /// Calls `work(k)` for k in [0, count) on `jobs` threads (0: one per core), counting each
 /// finished call in `done`, when given, for a progress display. When a call throws, no further
 /// call starts, and the first exception is thrown again here once the calls running are done.

@@ -270,4 +270,36 @@ void write_estimate_json(const precision_estimate& e, byte_sink& out);
 /// precision_target.
 void annotate_precision(tier& t, const precision_estimate& e);
 
+/// A review sample as options give it (`tiers sample`, Python's tiers.sample).
+struct sample_settings {
+  std::string tier;
+  std::uint64_t n = 0;
+  std::uint64_t seed = 1;
+  std::string strata;  ///< confidence limits: `0.5,0.7,0.9`
+  std::string by;      ///< confidence (with strata), label or file; empty: none
+  std::string allocation = "proportional";
+  std::string context = "0";  ///< lead and tail of each clip's link: `1s`, `12f`
+};
+
+/// A confidence level from (0, 1); throws usage_error naming `option`.
+void check_level(const char* option, double level);
+
+/// The library's options for the settings, but the context, which each document reads at its
+/// own frame rate; throws usage_error.
+sample_options sample_options_of(const sample_settings& settings);
+
+/// The tier of one document (called `file` in the sheet, read from `path`) to sample from,
+/// with its clips' links made from the folders of the sheet and the page. A tier that is not
+/// there is an error (`sample.tier`); the context counts frames at the document's rate, else at
+/// `rate_setting`.
+result<sampler> sample_document(const document& doc, const std::string& file,
+                                const std::string& path, const sample_settings& settings,
+                                const std::string& sheet_folder, const std::string& page_folder,
+                                const std::string& rate_setting = {});
+
+/// What a sample lacks, as warnings: strata that got no clip (`sample.strata`), and inputs
+/// that name no media (`sample.media`, when `without_media` of them do not).
+std::vector<diagnostic> sample_warnings(const std::vector<stratum_count>& strata,
+                                        std::size_t without_media);
+
 }  // namespace tiers

@@ -1,8 +1,10 @@
 // The files of the folders named, and work on many of them at once.
 #include <algorithm>
+#include <charconv>
 #include <exception>
 #include <filesystem>
 #include <mutex>
+#include <numeric>
 #include <thread>
 #include <unordered_set>
 
@@ -75,6 +77,26 @@ void run_parallel(std::size_t count, unsigned jobs, const std::function<void(std
   for (std::thread& t : pool)
     t.join();
   if (failure) std::rethrow_exception(failure);
+}
+
+std::vector<std::size_t> shard_places(const std::vector<std::string>& files,
+                                      const std::string& spec) {
+  const std::size_t slash = spec.find('/');
+  unsigned long k = 0, n = 0;
+  const char* end = spec.data() + spec.size();
+  const bool ok = slash != std::string::npos &&
+                  std::from_chars(spec.data(), spec.data() + slash, k).ptr == spec.data() + slash &&
+                  std::from_chars(spec.data() + slash + 1, end, n).ptr == end && k >= 1 && n >= 1 &&
+                  k <= n;
+  if (!ok) throw usage_error("--shard: '" + spec + "' is not K/N with 1 <= K <= N, e.g. 3/8");
+  std::vector<std::size_t> order(files.size());
+  std::iota(order.begin(), order.end(), std::size_t{0});
+  std::stable_sort(order.begin(), order.end(),
+                   [&](std::size_t a, std::size_t b) { return files[a] < files[b]; });
+  std::vector<std::size_t> out;
+  for (std::size_t i = k - 1; i < order.size(); i += n)
+    out.push_back(order[i]);
+  return out;
 }
 
 }  // namespace tiers
