@@ -15,7 +15,10 @@ int main(int argc, char** argv) {
   tiers::remove_partial_output_on_signals();
 
   CLI::App app("Convert, check, merge, compare and re-time time-aligned annotation tiers", "tiers");
-  app.set_version_flag("--version", std::string(tiers::version()));
+  // What a bug report needs: the program's version and the libraries it runs with.
+  app.set_version_flag("--version", "tiers " + std::string(tiers::version()) + "\nlibtiers " +
+                                        std::string(tiers::version()) + " with " +
+                                        tiers::dependency_versions());
   app.require_subcommand(1);
   app.fallthrough(false);
   int status = exit_ok;  // set by the command that runs
