@@ -120,6 +120,9 @@ TEST_CASE("a source's files name their tier after the pattern, not after the rec
   CHECK(tier_name_of("{id}_head-nods.tsv") == "head-nods");
   CHECK(tier_name_of("aligner/words-{id}") == "words");
   CHECK(tier_name_of("**/{id}.vtt").empty());
+  CHECK(tier_name_of("captions/**/{id}.vtt") == "captions");
+  CHECK(tier_name_of("captions/**/**/{id}.vtt") == "captions");
+  CHECK(tier_name_of("sub*/**/{id}.vtt").empty());
   CHECK(tier_name_of("{id}.vtt").empty());
   CHECK(tier_name_of("sub*/{id}.vtt").empty());
 }

@@ -20,11 +20,12 @@ void setup_retime(CLI::App& app, int& status);
 void setup_edit(CLI::App& app, int& status);
 void setup_report(CLI::App& app, int& status);
 void setup_dataset(CLI::App& app, int& status);
+void setup_completion(CLI::App& app, int& status);
 
 inline constexpr void (*all_commands[])(CLI::App&, int&) = {
-    setup_convert, setup_info,   setup_check,    setup_merge,  setup_agree,
-    setup_cooccur, setup_sample, setup_estimate, setup_derive, setup_retime,
-    setup_edit,    setup_report, setup_dataset,
+    setup_convert, setup_info,   setup_check,    setup_merge,      setup_agree,
+    setup_cooccur, setup_sample, setup_estimate, setup_derive,     setup_retime,
+    setup_edit,    setup_report, setup_dataset,  setup_completion,
 };
 
 }  // namespace tiers::cli

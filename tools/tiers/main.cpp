@@ -3,10 +3,9 @@
 #include <cstdio>
 #include <new>
 
+#include "app.hpp"
 #include "cli_common.hpp"
-#include "commands.hpp"
 #include "tiers/io.hpp"
-#include "tiers/version.hpp"
 
 int main(int argc, char** argv) {
   using namespace tiers::cli;
@@ -14,16 +13,9 @@ int main(int argc, char** argv) {
   std::signal(SIGPIPE, SIG_IGN);
   tiers::remove_partial_output_on_signals();
 
-  CLI::App app("Convert, check, merge, compare and re-time time-aligned annotation tiers", "tiers");
-  // What a bug report needs: the program's version and the libraries it runs with.
-  app.set_version_flag("--version", "tiers " + std::string(tiers::version()) + "\nlibtiers " +
-                                        std::string(tiers::version()) + " with " +
-                                        tiers::dependency_versions());
-  app.require_subcommand(1);
-  app.fallthrough(false);
+  CLI::App app;
   int status = exit_ok;  // set by the command that runs
-  for (auto setup : all_commands)
-    setup(app, status);
+  define_app(app, status);
 
   try {
     app.parse(argc, argv);

@@ -64,7 +64,8 @@ std::optional<tier_source> parse_tier_source(std::string_view text);
 /// without a tier column), so that it is one name in every recording: the pattern's file name
 /// without its extension and {id} (and the dots, dashes and underscores around it), else its
 /// folder's name — `coding/{id}.gestures.csv` gives `gestures`, `captions/{id}.vtt` gives
-/// `captions`. Empty when neither holds a name without wildcards.
+/// `captions`, and so does `captions/**/{id}.vtt`. Empty when neither holds a name without
+/// wildcards.
 std::string tier_name_of(std::string_view pattern);
 
 /// One recording of a dataset: its id and, source by source, the file it has (a path below

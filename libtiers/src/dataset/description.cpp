@@ -203,10 +203,18 @@ std::string tier_name_of(std::string_view pattern) {
   }
   if (!name.empty() && name.find_first_of("*{}") == std::string::npos) return name;
   if (slash == std::string_view::npos || slash == 0) return {};
-  const std::string_view folder = pattern.substr(0, slash);
-  const std::size_t up = folder.rfind('/');
-  const std::string_view last = folder.substr(up == std::string_view::npos ? 0 : up + 1);
-  return last.find_first_of("*{}") == std::string_view::npos ? std::string(last) : std::string();
+  // The folder the files are in; a `**` stands for the folders below the one that names them
+  // all (`captions/**/{id}.vtt` → `captions`).
+  std::string_view folder = pattern.substr(0, slash);
+  for (;;) {
+    const std::size_t up = folder.rfind('/');
+    const std::string_view last = folder.substr(up == std::string_view::npos ? 0 : up + 1);
+    if (last != "**")
+      return last.find_first_of("*{}") == std::string_view::npos ? std::string(last)
+                                                                 : std::string();
+    if (up == std::string_view::npos) return {};
+    folder = folder.substr(0, up);
+  }
 }
 
 std::optional<tier_source> parse_tier_source(std::string_view text) {
