@@ -16,16 +16,7 @@ namespace tiers::cli {
 namespace {
 
 std::string joined(const std::vector<std::string>& words, const char* between = " ") {
-  std::string out;
-  for (const std::string& w : words)
-    out += (out.empty() ? "" : between) + w;
-  return out;
-}
-
-std::vector<std::string> spellings(const option_spec& o) {
-  std::vector<std::string> all = o.shorts;
-  all.insert(all.end(), o.longs.begin(), o.longs.end());
-  return all;
+  return fmt::format("{}", fmt::join(words, between));
 }
 
 const option_spec* positional_of(const command_spec& c) {
@@ -64,10 +55,10 @@ std::string bash_command(const command_spec& c) {
   std::vector<std::string> names;
   for (const option_spec& o : c.options) {
     if (o.positional) continue;
-    for (const std::string& n : spellings(o))
+    for (const std::string& n : o.names())
       names.push_back(n);
     if (o.kind != value_kind::none)
-      out += fmt::format("        {}) {} ;;\n", joined(spellings(o), "|"), bash_value(o));
+      out += fmt::format("        {}) {} ;;\n", joined(o.names(), "|"), bash_value(o));
   }
   out += "      esac\n";
   const option_spec* p = positional_of(c);
@@ -111,7 +102,7 @@ std::string zsh_command(const command_spec& c) {
       out += fmt::format("            '{}{}' \\\n", o.repeatable ? "*" : "", zsh_action(o));
       continue;
     }
-    const std::vector<std::string> names = spellings(o);
+    const std::vector<std::string> names = o.names();
     const std::string exclusive =
         names.size() > 1 && !o.repeatable ? "(" + joined(names) + ")" : "";
     for (const std::string& n : names) {
@@ -143,21 +134,22 @@ std::string fish_value(const option_spec& o) {
   return o.kind == value_kind::none ? "" : " -x";
 }
 
+// One option's line; `when` is the condition under which fish offers it.
+std::string fish_option(const std::string& when, const option_spec& o) {
+  std::string line = "complete -c tiers -n " + when;
+  if (o.positional) return line + fish_value(o) + "\n";
+  for (const std::string& s : o.shorts)
+    line += " -s " + s.substr(1);
+  for (const std::string& l : o.longs)
+    line += " -l " + l.substr(2);
+  return line + fish_value(o) + " -d " + fish_text(short_help(o.help)) + "\n";
+}
+
 std::string fish_command(const command_spec& c) {
   const std::string when = fish_text("__fish_seen_subcommand_from " + c.name);
   std::string out;
-  for (const option_spec& o : c.options) {
-    std::string line = "complete -c tiers -n " + when;
-    if (o.positional) {
-      out += line + fish_value(o) + "\n";
-      continue;
-    }
-    for (const std::string& s : o.shorts)
-      line += " -s " + s.substr(1);
-    for (const std::string& l : o.longs)
-      line += " -l " + l.substr(2);
-    out += line + fish_value(o) + " -d " + fish_text(short_help(o.help)) + "\n";
-  }
+  for (const option_spec& o : c.options)
+    out += fish_option(when, o);
   return out;
 }
 
@@ -204,7 +196,7 @@ _tiers() {
 )";
   std::vector<std::string> top;
   for (const option_spec& o : spec.program.options)
-    for (const std::string& n : spellings(o))
+    for (const std::string& n : o.names())
       top.push_back(n);
   out += fmt::format(
       "    '')\n      if [[ $cur == -* ]]; then _tiers_words '{}' \"$cur\"; else _tiers_words "
@@ -227,7 +219,7 @@ std::string zsh_completion(const interface_spec& spec) {
     out += fmt::format("    '{}:{}'\n", c.name, zsh_text(short_help(c.help)));
   out += "  )\n  _arguments -C \\\n";
   for (const option_spec& o : spec.program.options)
-    for (const std::string& n : spellings(o))
+    for (const std::string& n : o.names())
       out += fmt::format("    '(- *){}[{}]' \\\n", n, zsh_text(short_help(o.help)));
   out +=
       "    '1:command:->command' \\\n    '*::argument:->argument' && return 0\n"
@@ -247,9 +239,7 @@ std::string fish_completion(const interface_spec& spec) {
                            "$fish_complete_path, or: tiers completion fish | source");
   out += "\ncomplete -c tiers -f\n";
   for (const option_spec& o : spec.program.options)
-    out += fmt::format("complete -c tiers -n __fish_use_subcommand -l {} -d {}\n",
-                       o.longs.empty() ? "help" : o.longs.front().substr(2),
-                       fish_text(short_help(o.help)));
+    out += fish_option("__fish_use_subcommand", o);
   for (const command_spec& c : spec.commands)
     out += fmt::format("complete -c tiers -n __fish_use_subcommand -a {} -d {}\n", c.name,
                        fish_text(short_help(c.help)));

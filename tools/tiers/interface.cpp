@@ -58,7 +58,7 @@ option_spec option_of(const CLI::Option& opt) {
   else if (names_a_file(o.value))
     o.kind = value_kind::file;
   else
-    o.kind = o.choices.empty() ? value_kind::other : value_kind::word;
+    o.kind = value_kind::other;
   o.repeatable = opt.get_expected_max() > 1;
   o.required = opt.get_required();
   o.help = opt.get_description();
@@ -75,6 +75,12 @@ command_spec command_of(const CLI::App& app) {
 }
 
 }  // namespace
+
+std::vector<std::string> option_spec::names() const {
+  std::vector<std::string> all = shorts;
+  all.insert(all.end(), longs.begin(), longs.end());
+  return all;
+}
 
 std::vector<std::string> known_values(const std::string& value_name) {
   std::vector<std::string> words;

@@ -9,8 +9,9 @@
 
 namespace tiers::cli {
 
-/// What an option's value is, for completion: a file name, a folder, one of a few words.
-enum class value_kind { none, file, folder, word, other };
+/// What an option's value is, for completion: none (a flag), a file name, a folder, or another
+/// value (whose words, when it has a few, are the option's `choices`).
+enum class value_kind { none, file, folder, other };
 
 struct option_spec {
   std::vector<std::string> longs;   ///< "--profile", without other spellings' dashes
@@ -25,6 +26,9 @@ struct option_spec {
   bool required = false;
   std::string help;
   std::string default_value;  ///< only when the definition records one
+
+  /// Every spelling, short ones first: {"-o", "--output"}.
+  std::vector<std::string> names() const;
 };
 
 struct command_spec {

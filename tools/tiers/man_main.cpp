@@ -6,7 +6,6 @@
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
-#include <sstream>
 #include <stdexcept>
 #include <string>
 #include <vector>
@@ -14,18 +13,7 @@
 #include "app.hpp"
 #include "interface.hpp"
 #include "man_page.hpp"
-
-namespace {
-
-std::string contents(const std::filesystem::path& p) {
-  std::ifstream in(p, std::ios::binary);
-  if (!in) throw std::runtime_error("cannot read " + p.string());
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
-
-}  // namespace
+#include "tiers/io.hpp"
 
 int main(int argc, char** argv) {
   namespace fs = std::filesystem;
@@ -42,14 +30,14 @@ int main(int argc, char** argv) {
     CLI::App app;
     int status = 0;
     tiers::cli::define_app(app, status);
-    tiers::cli::manual_sources sources{contents(fs::path(docs) / "cli.md"), {}};
+    tiers::cli::manual_sources sources{tiers::read_input((fs::path(docs) / "cli.md").string()), {}};
     std::vector<fs::path> pages;
     for (const fs::directory_entry& e : fs::directory_iterator(docs))
       if (e.path().extension() == ".md" && e.path().filename() != "cli.md")
         pages.push_back(e.path());
     std::sort(pages.begin(), pages.end());
     for (const fs::path& p : pages)
-      sources.other_pages.push_back(contents(p));
+      sources.other_pages.push_back(tiers::read_input(p.string()));
     fs::create_directories(out);
     for (const tiers::cli::man_page& page :
          tiers::cli::manual_pages(tiers::cli::describe(app), sources, date)) {

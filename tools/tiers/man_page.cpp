@@ -144,9 +144,7 @@ std::string_view section_of(std::string_view md, std::string_view heading) {
 
 std::string option_names(const option_spec& o) {
   std::string out;
-  for (const std::string& n : o.shorts)
-    out += (out.empty() ? "" : ", ") + fmt::format("\\fB{}\\fR", escaped(n, true));
-  for (const std::string& n : o.longs)
+  for (const std::string& n : o.names())
     out += (out.empty() ? "" : ", ") + fmt::format("\\fB{}\\fR", escaped(n, true));
   return out;
 }
